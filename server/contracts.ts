@@ -1,0 +1,177 @@
+/**
+ * Contracts between server/inputs, server/sweeps, server/summary, the HTTP API, the CLI and the client.
+ * The client imports these as types only.
+ */
+import type { BBox, Origin, PlacementStatistics, Region, Verdict } from '../workers/types.js';
+
+export interface InputWarning {
+  code: string;
+  message: string;
+  /** record ids or feature numbers concerned, possibly truncated */
+  ids?: string[];
+}
+
+/** How input coordinates were turned into planar metres. */
+export type ProjectionInfo =
+  | { kind: 'planar' }
+  | { kind: 'epsg'; code: number; proj4: string }
+  | { kind: 'laea'; lon0: number; lat0: number; proj4: string };
+
+/** A parsed, validated, projected dataset, ready for the engine. Built by server/inputs. */
+export interface Dataset {
+  name: string;
+  crs: string;
+  projection: ProjectionInfo;
+  /** all points' planar coordinates, interleaved x,y (inside and outside the valid region) */
+  xy: Float64Array;
+  /** record id of each point (the id column, the feature id, or the 1-based record number) */
+  ids: string[];
+  /** indices (into xy/2) of the points inside the valid region: the only ones ever counted */
+  inside: Uint32Array;
+  /** ids of the points outside the valid region */
+  outsideIds: string[];
+  /** study area and no-data zones as GeoJSON-style multipolygons in planar metres, for drawing */
+  studyArea: number[][][][];
+  noDataZones: number[][][][];
+  /** true when no study area was given and the points' bounding box was used */
+  areaIsDefault: boolean;
+  region: Region;
+  origin: Origin;
+  warnings: InputWarning[];
+}
+
+export interface DatasetSummary {
+  id?: string;
+  name: string;
+  crs: string;
+  n: number;
+  nInside: number;
+  nOutside: number;
+  validArea: number;
+  studyAreaArea: number;
+  bbox: BBox;
+  areaIsDefault: boolean;
+  warnings: InputWarning[];
+  /** cell sides (m) for 1.6, 2 and 5 expected points per cell: side = sqrt(k * validArea / nInside) */
+  suggestedCellSizes: { perCell: number; cellSize: number; rule: string }[];
+  createdAt?: string;
+}
+
+export type PlacementDesign = 'halton' | 'lattice';
+
+/** A sweep's parameters; JSON uses these names, the CLI the kebab-case ones. */
+export interface Plan {
+  /** cell sides in metres; exactly one of cells / perCell is given */
+  cells?: number[];
+  /** expected points per cell, turned into sides by sqrt(k * validArea / n) */
+  perCell?: number[];
+  placements: number;
+  rotation: boolean;
+  design: PlacementDesign;
+  minCoverage: number;
+  alpha: number;
+  sims: number;
+  seed: number;
+}
+
+export const DEFAULT_PLAN: Readonly<Omit<Plan, 'cells' | 'perCell'>> = Object.freeze({
+  placements: 256,
+  rotation: true,
+  design: 'halton',
+  minCoverage: 0.5,
+  alpha: 0.05,
+  sims: 99,
+  seed: 1,
+});
+
+/** One row per (cell size, placement): the placement's parameters and all its statistics except the class table. */
+export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
+  sizeIndex: number;
+  cellSize: number;
+  placementIndex: number;
+  u: number;
+  v: number;
+  angle: number;
+  poissonChi2: number | null;
+  poissonDf: number | null;
+  poissonP: number | null;
+}
+
+export interface Quantiles {
+  min: number;
+  p5: number;
+  p25: number;
+  p50: number;
+  p75: number;
+  p95: number;
+  max: number;
+}
+
+export interface MonteCarloResult {
+  sims: number;
+  /** (1 + #{r: median_r >= median_obs}) / (R + 1), on the median of chi2/df across placements */
+  pMedianClustered: number;
+  /** (1 + #{r: median_r <= median_obs}) / (R + 1) */
+  pMedianRegular: number;
+  /** the same on the maximum of chi2/df across placements ("worst-case cherry-picking") */
+  pMaxClustered: number;
+  /** the same on the minimum, for regularity */
+  pMinRegular: number;
+  observedMedian: number;
+  observedMax: number;
+  observedMin: number;
+  simulatedMedians: number[];
+  simulatedMaxima: number[];
+  /** 2.5 and 97.5 % of the simulated medians */
+  envelope: { lo: number; hi: number };
+  /** share of placements significant (either tail at alpha) on the observed pattern and on each simulated one */
+  observedShareSignificant: number;
+  simulatedShareSignificant: number[];
+}
+
+export interface SizeSummary {
+  sizeIndex: number;
+  cellSize: number;
+  /** expected points per whole cell at this size */
+  expectedPerCell: number;
+  placements: number;
+  vmr: Quantiles;
+  chi2PerDf: Quantiles;
+  verdictShares: Record<Verdict, number>;
+  mostCommon: Verdict;
+  agreement: number;
+  reference: PlacementRow;
+  /** share of placements whose vmr is below the reference placement's (0..1); in the tail when < 0.05 or > 0.95 */
+  referenceRank: number;
+  referenceInTail: boolean;
+  lowestVmr: PlacementRow;
+  highestVmr: PlacementRow;
+  monteCarlo: MonteCarloResult | null;
+  conclusion: string;
+}
+
+export interface SweepSummary {
+  plan: Plan;
+  dataset: DatasetSummary;
+  sizes: SizeSummary[];
+  conclusion: string;
+  warnings: string[];
+  versions: Record<string, string>;
+  timings: { startedAt: string; finishedAt: string; seconds: number };
+}
+
+export type SweepStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';
+
+export interface SweepProgress {
+  done: number;
+  total: number;
+  elapsedSeconds: number;
+  remainingSeconds: number | null;
+}
+
+export interface SweepEstimate {
+  /** points x placements x sizes x (1 + sims) */
+  work: number;
+  budget: number;
+  tasks: number;
+}

@@ -1,0 +1,50 @@
+/**
+ * Coded errors of gridshake. Every error a user can cause carries a GS_ERR_ code and an HTTP status;
+ * the HTTP layer sends `{ statusCode, code, message }`, the CLI prints the message and exits non-zero.
+ * Messages say what is wrong and where (file, line, feature), with no trailing period.
+ */
+export class GridshakeError extends Error {
+  readonly code: string;
+  readonly statusCode: number;
+
+  constructor(code: string, statusCode: number, message: string) {
+    super(message);
+    this.name = 'GridshakeError';
+    this.code = code;
+    this.statusCode = statusCode;
+  }
+}
+
+/** Bad input data: unreadable or malformed files, bad coordinates, bad polygons (400). */
+export function inputError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_INPUT', 400, message);
+}
+
+/** Bad parameters of a count or a plan: cell sizes, offsets, angles, alpha, placements, sims (400). */
+export function parameterError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_PARAMETER', 400, message);
+}
+
+/** A plan whose estimated work is above the budget (400). */
+export function budgetError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_BUDGET', 400, message);
+}
+
+/** An unknown dataset or sweep id (404). */
+export function notFoundError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_NOT_FOUND', 404, message);
+}
+
+/** A request that is too large: body size or point count (413). */
+export function tooLargeError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_TOO_LARGE', 413, message);
+}
+
+/** A request in the wrong state: e.g. cancelling a finished sweep (409). */
+export function conflictError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_CONFLICT', 409, message);
+}
+
+export function isGridshakeError(value: unknown): value is GridshakeError {
+  return value instanceof GridshakeError;
+}

@@ -1,0 +1,15 @@
+import { defineConfig } from 'vitest/config';
+
+// The normal test run: engine, reference checks, inputs, server API, browser end-to-end.
+// Long load and soak parts live under test/stress and run with `npm run test:stress`.
+export default defineConfig({
+  test: {
+    include: ['test/**/*.test.ts'],
+    exclude: ['test/stress/**', 'node_modules/**', 'dist/**'],
+    testTimeout: 60_000,
+    hookTimeout: 120_000,
+    pool: 'forks',
+    reporters: ['default', 'json'],
+    outputFile: { json: '.test-results/vitest.json' },
+  },
+});

@@ -1,0 +1,118 @@
+/**
+ * Types shared by the pure compute engine (workers/) and its callers (server/).
+ * Everything here is plain data: typed arrays and plain objects, no I/O.
+ * Units: planar metres for coordinates and cell sizes, degrees for angles, cell units for offsets.
+ */
+
+/** A flat ring x0,y0,x1,y1,... in planar metres; the first vertex is NOT repeated at the end. */
+export type Ring = Float64Array;
+
+export interface BBox {
+  minX: number;
+  minY: number;
+  maxX: number;
+  maxY: number;
+}
+
+/**
+ * The valid region (study area minus no-data zones) as oriented, non-crossing rings: shells counter-clockwise
+ * (positive signed area), holes clockwise (negative), so that the signed ring areas add up to `area` (m^2).
+ * Built once per dataset by server/inputs; the engine only reads it.
+ */
+export interface Region {
+  rings: Ring[];
+  area: number;
+  bbox: BBox;
+}
+
+/** Grid offset (u, v) in cell units, each in [0, 1), and counter-clockwise rotation in degrees, [0, 90). */
+export interface Placement {
+  u: number;
+  v: number;
+  angle: number;
+}
+
+/** The reference placement: the grid a default analysis would use. */
+export const REFERENCE_PLACEMENT: Readonly<Placement> = Object.freeze({ u: 0, v: 0, angle: 0 });
+
+/** Grid origin O: lower-left corner of the study area's bounding box (planar metres). */
+export interface Origin {
+  x: number;
+  y: number;
+}
+
+/**
+ * Coverage of every cell of one placement that the region's bounding box touches.
+ * Cell (i, j) (grid contract indices) is stored at `(j - j0) * nx + (i - i0)`; coverage is in [0, 1].
+ */
+export interface CoverageGrid {
+  i0: number;
+  j0: number;
+  nx: number;
+  ny: number;
+  coverage: Float64Array;
+}
+
+/** The cells a placement keeps (coverage >= minCoverage - 1e-9 and > 0): their grid indices and coverages. */
+export interface KeptCells {
+  index: Int32Array;
+  coverage: Float64Array;
+}
+
+export type Verdict = 'clustered' | 'regular' | 'csr';
+
+/** One class of the Poisson frequency goodness-of-fit table, after merging (e.g. label "0", "1", ">=4"). */
+export interface FrequencyClass {
+  label: string;
+  observed: number;
+  expected: number;
+}
+
+export interface PoissonFit {
+  chi2: number;
+  df: number;
+  p: number;
+  classes: FrequencyClass[];
+}
+
+/** Every statistic of one placement (shared/design.md, "Statistics of one placement"). */
+export interface PlacementStatistics {
+  /** m: kept cells */
+  cells: number;
+  /** N: points inside the valid region that fall in kept cells */
+  points: number;
+  mean: number;
+  variance: number;
+  vmr: number;
+  chi2: number;
+  df: number;
+  chi2PerDf: number;
+  pClustered: number;
+  pRegular: number;
+  verdict: Verdict;
+  /** N * s^2 / sum(a_c): expected points per whole cell */
+  expectedPerCell: number;
+  /** expectedPerCell >= 5 (common practice: the chi-square adequacy rule) */
+  meetsRuleOf5: boolean;
+  /** expectedPerCell >= 1.6 (common practice, no primary source) */
+  meetsRuleOf1_6: boolean;
+  morisita: number;
+  morisitaStandardized: number;
+  meanCrowding: number;
+  patchiness: number;
+  green: number;
+  /** negative-binomial k by moments; null when variance <= mean */
+  negativeBinomialK: number | null;
+  /** null when fewer than 3 classes remain after merging (no degrees of freedom) */
+  poissonFit: PoissonFit | null;
+}
+
+/** The cheap part of the statistics, enough for a simulated CSR pattern. */
+export interface DispersionResult {
+  chi2: number;
+  df: number;
+  points: number;
+}
+
+/** A uniform random source in [0, 1), seeded; the engine never calls Math.random. */
+export type RandomSource = () => number;
