@@ -1,0 +1,80 @@
+/**
+ * Finding the coordinate and id columns of a CSV header by name (case-insensitive, surrounding spaces ignored).
+ * Longitude/latitude names make the data geographic; x/y, easting/northing names make it projected.
+ */
+import { inputError } from '../errors.js';
+
+export type CoordinateKind = 'lonlat' | 'xy';
+
+const LONGITUDE_NAMES = ['lon', 'long', 'longitude', 'lng', 'lon_dd', 'longitude_dd'];
+const LATITUDE_NAMES = ['lat', 'latitude', 'lat_dd', 'latitude_dd'];
+const X_NAMES = ['x', 'easting', 'east', 'x_coord', 'xcoord', 'coord_x', 'point_x', 'x_m'];
+const Y_NAMES = ['y', 'northing', 'north', 'y_coord', 'ycoord', 'coord_y', 'point_y', 'y_m'];
+const ID_NAMES = ['id', 'fid', 'record', 'record_id', 'recordid', 'objectid', 'gid', 'uid', 'ref', 'key'];
+
+export interface CoordinateColumns {
+  x: number;
+  y: number;
+  /** index of the id column, or -1 when the 1-based record number serves as id */
+  id: number;
+  kind: CoordinateKind;
+  xName: string;
+  yName: string;
+}
+
+const normalize = (name: string): string => name.trim().toLowerCase();
+
+function findIndex(header: string[], names: string[]): number {
+  const normalized = header.map(normalize);
+  for (const name of names) {
+    const index = normalized.indexOf(name);
+    if (index >= 0) return index;
+  }
+  return -1;
+}
+
+function findGiven(fileName: string, header: string[], given: string, option: string): number {
+  const index = header.map(normalize).indexOf(normalize(given));
+  if (index < 0) {
+    throw inputError(
+      `${fileName}: line 1: no column named '${given}' (given with ${option}); columns seen: ${header.join(', ')}`,
+    );
+  }
+  return index;
+}
+
+/** Column choice: the user's --x/--y/--id if given, else the first known name of each kind. */
+export function findCoordinateColumns(
+  fileName: string,
+  header: string[],
+  given: { x?: string; y?: string; id?: string },
+): CoordinateColumns {
+  let x: number;
+  let y: number;
+  if (given.x !== undefined || given.y !== undefined) {
+    if (given.x === undefined || given.y === undefined) {
+      throw inputError(`${fileName}: give both --x and --y, or neither to find the columns by name`);
+    }
+    x = findGiven(fileName, header, given.x, '--x');
+    y = findGiven(fileName, header, given.y, '--y');
+  } else {
+    x = findIndex(header, LONGITUDE_NAMES);
+    y = findIndex(header, LATITUDE_NAMES);
+    if (x < 0 || y < 0) {
+      x = findIndex(header, X_NAMES);
+      y = findIndex(header, Y_NAMES);
+    }
+    if (x < 0 || y < 0) {
+      throw inputError(
+        `${fileName}: line 1: no coordinate columns found (expected x/y, easting/northing or lon/lat); ` +
+          `columns seen: ${header.join(', ')}; name them with --x COL --y COL`,
+      );
+    }
+  }
+  const id = given.id !== undefined ? findGiven(fileName, header, given.id, '--id') : findIndex(header, ID_NAMES);
+  const xName = header[x].trim();
+  const yName = header[y].trim();
+  const kind: CoordinateKind =
+    LONGITUDE_NAMES.includes(normalize(xName)) && LATITUDE_NAMES.includes(normalize(yName)) ? 'lonlat' : 'xy';
+  return { x, y, id, kind, xName, yName };
+}

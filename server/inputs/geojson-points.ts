@@ -1,0 +1,57 @@
+/** Points from a GeoJSON FeatureCollection of Point and MultiPoint features (each point of a MultiPoint a record). */
+import { inputError } from '../errors.js';
+import { readGeoJsonFeatures } from './geojson-features.js';
+import { parseCoordinate } from './parse-coordinate.js';
+import type { RawPoints } from './raw-points.js';
+
+function position(value: unknown, where: string): [number, number] {
+  if (!Array.isArray(value) || value.length < 2) {
+    throw inputError(`${where}: a position must be an array [x, y]`);
+  }
+  const [x, y] = value;
+  const check = (v: unknown, axis: string): number => {
+    if (typeof v === 'number') {
+      if (!Number.isFinite(v)) throw inputError(`${where}: the ${axis} coordinate is not finite`);
+      return v;
+    }
+    return parseCoordinate(String(v), where, axis);
+  };
+  return [check(x, 'x (longitude)'), check(y, 'y (latitude)')];
+}
+
+export function readGeoJsonPoints(fileName: string, text: string): RawPoints {
+  const features = readGeoJsonFeatures(fileName, text);
+  const coordinates: number[] = [];
+  const ids: string[] = [];
+  const labels: string[] = [];
+  for (const feature of features) {
+    const geometry = feature.geometry;
+    if (geometry === null) throw inputError(`${feature.label}: the feature has no geometry`);
+    if (geometry.type === 'Point') {
+      const [x, y] = position(geometry.coordinates, feature.label);
+      coordinates.push(x, y);
+      ids.push(feature.id);
+      labels.push(feature.label);
+    } else if (geometry.type === 'MultiPoint') {
+      if (!Array.isArray(geometry.coordinates)) throw inputError(`${feature.label}: MultiPoint without coordinates`);
+      geometry.coordinates.forEach((value: unknown, part: number) => {
+        const where = `${feature.label}, point ${part + 1}`;
+        const [x, y] = position(value, where);
+        coordinates.push(x, y);
+        ids.push(`${feature.id}.${part + 1}`);
+        labels.push(where);
+      });
+    } else {
+      throw inputError(`${feature.label}: a ${geometry.type} where a Point or MultiPoint was expected`);
+    }
+  }
+  if (ids.length === 0) throw inputError(`${fileName}: the file holds no point features`);
+  return {
+    fileName,
+    format: 'geojson',
+    coordinates: Float64Array.from(coordinates),
+    ids,
+    kind: 'lonlat',
+    locate: (index) => labels[index],
+  };
+}

@@ -1,0 +1,38 @@
+/**
+ * An uploaded or read file as the inputs see it: a display name (used in every message) and its bytes or text.
+ * The CLI reads files from disk, the server passes multipart uploads; both end up here.
+ */
+import { inputError } from '../errors.js';
+
+export interface InputFile {
+  name: string;
+  content: string | Uint8Array;
+}
+
+const BYTE_ORDER_MARK = '\uFEFF';
+const SQLITE_MAGIC = 'SQLite format 3';
+
+/**
+ * The text of a file: bytes decoded as UTF-8, a leading byte-order mark removed.
+ * Throws GS_ERR_INPUT when the file is empty, blank or binary (e.g. a GeoPackage or a spreadsheet).
+ */
+export function readText(file: InputFile): string {
+  let text = typeof file.content === 'string' ? file.content : new TextDecoder('utf-8').decode(file.content);
+  if (text.startsWith(BYTE_ORDER_MARK)) text = text.slice(1);
+  if (text.trim() === '') throw inputError(`${file.name}: the file is empty`);
+  if (text.startsWith(SQLITE_MAGIC)) {
+    throw inputError(`${file.name}: this is a SQLite/GeoPackage file; give the points as CSV or GeoJSON`);
+  }
+  if (text.slice(0, 4096).includes('\u0000')) {
+    throw inputError(`${file.name}: the file is binary, not text; give CSV or GeoJSON`);
+  }
+  return text;
+}
+
+/** True when the file should be read as GeoJSON: a .json/.geojson name, or text starting with '{'. */
+export function looksLikeGeoJson(file: InputFile, text: string): boolean {
+  const lower = file.name.toLowerCase();
+  if (lower.endsWith('.geojson') || lower.endsWith('.json')) return true;
+  if (lower.endsWith('.csv') || lower.endsWith('.tsv') || lower.endsWith('.txt')) return false;
+  return text.trimStart().startsWith('{');
+}

@@ -1,0 +1,99 @@
+/**
+ * loadDataset: points, study area and no-data zones (text or bytes) to a validated, projected Dataset ready for
+ * the engine. Pure apart from reading the EPSG definitions package; the CLI reads files, the server passes uploads.
+ */
+import type { Dataset, InputWarning } from '../contracts.js';
+import { inputError, tooLargeError } from '../errors.js';
+import { checkPolygon } from './check-polygon.js';
+import { resolveCoordinateSystem } from './coordinate-system.js';
+import { defaultStudyArea } from './default-study-area.js';
+import { findDuplicates } from './find-duplicates.js';
+import { readGeoJsonPolygons } from './geojson-polygons.js';
+import { readText, type InputFile } from './input-file.js';
+import { duplicateWarning, outsideWarning, projectionWarning } from './input-warnings.js';
+import { pointsInRegion } from './points-in-region.js';
+import { projectInputs } from './project-inputs.js';
+import { readPoints } from './read-points.js';
+import { toRegion } from './to-region.js';
+import { buildValidRegion, type LabelledRings } from './valid-region.js';
+
+export interface DatasetInput {
+  points: InputFile;
+  area?: InputFile;
+  noData?: InputFile[];
+}
+
+export interface DatasetOptions {
+  crs?: string;
+  x?: string;
+  y?: string;
+  id?: string;
+  name?: string;
+  maxPoints?: number;
+}
+
+function readPolygons(file: InputFile, geographic: boolean): LabelledRings[] {
+  return readGeoJsonPolygons(file.name, readText(file)).map((polygon) => ({
+    label: polygon.label,
+    rings: checkPolygon(polygon, geographic),
+  }));
+}
+
+function baseName(fileName: string): string {
+  const last = fileName.split(/[\\/]/).pop() ?? fileName;
+  return last.replace(/\.[^.]+$/, '') || last;
+}
+
+export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): Dataset {
+  const raw = readPoints(input.points, options);
+  const n = raw.ids.length;
+  if (options.maxPoints !== undefined && n > options.maxPoints) {
+    throw tooLargeError(`${input.points.name}: ${n} points, more than the limit of ${options.maxPoints}`);
+  }
+  const system = resolveCoordinateSystem(options.crs, raw.kind, input.points.name);
+  const area = input.area ? readPolygons(input.area, system.geographic) : [];
+  const zones = (input.noData ?? []).flatMap((file) => readPolygons(file, system.geographic));
+  const projected = projectInputs(system, raw, area, zones);
+  const warnings: InputWarning[] = system.warnings.map(projectionWarning);
+
+  let studyRings = projected.area;
+  if (studyRings.length === 0) {
+    const fallback = defaultStudyArea(projected.xy, input.points.name);
+    studyRings = [fallback.polygon];
+    warnings.push(fallback.warning);
+  }
+  const geometry = buildValidRegion(studyRings, projected.zones);
+  const region = toRegion(geometry.valid);
+  const studyRegion = toRegion(geometry.studyArea);
+
+  const inStudyArea = pointsInRegion(projected.xy, studyRegion);
+  if (inStudyArea.length === 0) {
+    throw inputError(`${input.area?.name ?? 'study area'}: the study area does not contain any point of ${input.points.name}`);
+  }
+  const inside = pointsInRegion(projected.xy, region);
+  if (inside.length === 0) {
+    throw inputError(`${input.points.name}: every point lies inside a no-data zone: none is left to count`);
+  }
+  const duplicates = findDuplicates(projected.xy);
+  if (duplicates.length > 0) warnings.push(duplicateWarning(duplicates.length, duplicates.map((k) => raw.ids[k])));
+  const isInside = new Uint8Array(n);
+  for (const k of inside) isInside[k] = 1;
+  const outsideIds = raw.ids.filter((_, k) => isInside[k] === 0);
+  if (outsideIds.length > 0) warnings.push(outsideWarning(outsideIds.length, n, outsideIds));
+
+  return {
+    name: options.name ?? baseName(input.points.name),
+    crs: system.crs,
+    projection: projected.projector.info,
+    xy: projected.xy,
+    ids: raw.ids,
+    inside,
+    outsideIds,
+    studyArea: geometry.studyArea,
+    noDataZones: geometry.noDataZones,
+    areaIsDefault: projected.area.length === 0,
+    region,
+    origin: { x: studyRegion.bbox.minX, y: studyRegion.bbox.minY },
+    warnings,
+  };
+}

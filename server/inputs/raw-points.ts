@@ -1,0 +1,14 @@
+/** Points as read from a file, before any projection: raw coordinates, ids and where each record came from. */
+import type { CoordinateKind } from './column-names.js';
+
+export interface RawPoints {
+  fileName: string;
+  format: 'csv' | 'geojson';
+  /** raw coordinates as written in the file, interleaved x,y (or lon,lat) */
+  coordinates: Float64Array;
+  ids: string[];
+  /** what the column names (CSV) or the format (GeoJSON: RFC 7946) say about the coordinates */
+  kind: CoordinateKind;
+  /** the file and line (CSV) or feature (GeoJSON) of record `index`, for messages */
+  locate(index: number): string;
+}

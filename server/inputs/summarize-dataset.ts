@@ -1,0 +1,41 @@
+/** summarizeDataset: counts, areas and suggested cell sizes of a loaded dataset, for the API and the CLI. */
+import type { Dataset, DatasetSummary } from '../contracts.js';
+import { multiPolygonArea, multiPolygonBBox } from './planar-rings.js';
+
+/**
+ * Rules of thumb for the cell size (all common practice): about 1.6 points per cell (a rule in use, no primary
+ * source found), cell area 2A/n (about 2 points per cell, widely taught as optimal, attribution uncertain) and
+ * about 5 (the chi-square adequacy rule of expected counts >= 5, Cochran 1954, carried over to quadrats).
+ */
+export const CELL_SIZE_RULES: readonly { perCell: number; rule: string }[] = [
+  { perCell: 1.6, rule: 'about 1.6 points per cell (common practice, no primary source)' },
+  { perCell: 2, rule: 'cell area 2A/n, about 2 points per cell (common practice)' },
+  { perCell: 5, rule: 'about 5 points per cell: expected counts >= 5 for the chi-square test (common practice)' },
+];
+
+/** Cell side for k expected points per cell: side = sqrt(k * validArea / nInside). */
+export function cellSideFor(perCell: number, validArea: number, nInside: number): number {
+  return Math.sqrt((perCell * validArea) / nInside);
+}
+
+export function summarizeDataset(dataset: Dataset): DatasetSummary {
+  const nInside = dataset.inside.length;
+  const validArea = dataset.region.area;
+  return {
+    name: dataset.name,
+    crs: dataset.crs,
+    n: dataset.ids.length,
+    nInside,
+    nOutside: dataset.outsideIds.length,
+    validArea,
+    studyAreaArea: multiPolygonArea(dataset.studyArea),
+    bbox: multiPolygonBBox(dataset.studyArea),
+    areaIsDefault: dataset.areaIsDefault,
+    warnings: dataset.warnings,
+    suggestedCellSizes: CELL_SIZE_RULES.map(({ perCell, rule }) => ({
+      perCell,
+      cellSize: cellSideFor(perCell, validArea, nInside),
+      rule,
+    })),
+  };
+}
