@@ -1,0 +1,106 @@
+/**
+ * Datasets in SQLite: the summary and plain metadata as JSON, the points and the valid region as BLOBs.
+ * Every write is one transaction, so a failed or interrupted request leaves nothing half-written.
+ */
+import type Database from 'better-sqlite3';
+import { randomUUID } from 'node:crypto';
+import type { Dataset, DatasetSummary } from '../contracts.js';
+import {
+  bufferToFloat64,
+  bufferToUint32,
+  decodeRings,
+  encodeRings,
+  fromStoredJson,
+  toStoredJson,
+  typedArrayToBuffer,
+} from './blob-codec.js';
+
+interface DatasetRow {
+  id: string;
+  name: string;
+  created_at: string;
+  meta_json: string;
+  summary_json: string;
+  xy: Buffer;
+  inside: Buffer;
+  ids_json: string;
+  region_rings: Buffer;
+  sample_id: string | null;
+}
+
+type DatasetMeta = Omit<Dataset, 'xy' | 'ids' | 'inside' | 'region'> & {
+  region: Omit<Dataset['region'], 'rings'>;
+};
+
+export class DatasetStore {
+  constructor(private readonly db: Database.Database) {}
+
+  /** Store a dataset and its summary; returns the summary with its new id and creation time. */
+  insert(dataset: Dataset, summary: DatasetSummary, sampleId: string | null = null): DatasetSummary {
+    const id = randomUUID();
+    const createdAt = new Date().toISOString();
+    const stored: DatasetSummary = { ...summary, id, createdAt };
+    const { xy, ids, inside, region, ...plain } = dataset;
+    const meta: DatasetMeta = { ...plain, region: { area: region.area, bbox: region.bbox } };
+    const write = this.db.transaction(() => {
+      this.db
+        .prepare(
+          `INSERT INTO datasets (id, name, created_at, meta_json, summary_json, xy, inside, ids_json, region_rings,
+             sample_id) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+        )
+        .run(
+          id,
+          dataset.name,
+          createdAt,
+          toStoredJson(meta),
+          toStoredJson(stored),
+          typedArrayToBuffer(xy),
+          typedArrayToBuffer(inside),
+          JSON.stringify(ids),
+          encodeRings(region.rings),
+          sampleId,
+        );
+    });
+    write();
+    return stored;
+  }
+
+  list(): DatasetSummary[] {
+    const rows = this.db
+      .prepare('SELECT summary_json FROM datasets ORDER BY created_at, rowid')
+      .all() as Pick<DatasetRow, 'summary_json'>[];
+    return rows.map((row) => fromStoredJson<DatasetSummary>(row.summary_json));
+  }
+
+  count(): number {
+    const row = this.db.prepare('SELECT COUNT(*) AS n FROM datasets').get() as { n: number };
+    return row.n;
+  }
+
+  summary(id: string): DatasetSummary | undefined {
+    const row = this.db.prepare('SELECT summary_json FROM datasets WHERE id = ?').get(id) as
+      | Pick<DatasetRow, 'summary_json'>
+      | undefined;
+    return row === undefined ? undefined : fromStoredJson<DatasetSummary>(row.summary_json);
+  }
+
+  /** The full dataset, as server/inputs built it, ready for the engine. */
+  load(id: string): Dataset | undefined {
+    const row = this.db.prepare('SELECT * FROM datasets WHERE id = ?').get(id) as DatasetRow | undefined;
+    if (row === undefined) return undefined;
+    const meta = fromStoredJson<DatasetMeta>(row.meta_json);
+    return {
+      ...meta,
+      xy: bufferToFloat64(row.xy),
+      inside: bufferToUint32(row.inside),
+      ids: JSON.parse(row.ids_json) as string[],
+      region: { ...meta.region, rings: decodeRings(row.region_rings) },
+    };
+  }
+
+  /** Delete a dataset; its sweeps and their rows go with it (foreign keys, one transaction). */
+  delete(id: string): boolean {
+    const remove = this.db.transaction(() => this.db.prepare('DELETE FROM datasets WHERE id = ?').run(id).changes);
+    return remove() > 0;
+  }
+}

@@ -1,0 +1,45 @@
+/**
+ * Schema migrations of the store, applied in order; PRAGMA user_version holds how many have run.
+ * Append new migrations at the end; never edit one that has shipped.
+ */
+export const MIGRATIONS: readonly string[] = [
+  `
+  CREATE TABLE datasets (
+    id TEXT PRIMARY KEY,
+    name TEXT NOT NULL,
+    created_at TEXT NOT NULL,
+    -- every plain field of the Dataset (crs, projection, study area, zones, origin, warnings, ...)
+    meta_json TEXT NOT NULL,
+    summary_json TEXT NOT NULL,
+    -- Float64Array x,y interleaved, all points
+    xy BLOB NOT NULL,
+    -- Uint32Array indices of the points inside the valid region
+    inside BLOB NOT NULL,
+    ids_json TEXT NOT NULL,
+    -- valid region rings (see blob-codec encodeRings)
+    region_rings BLOB NOT NULL,
+    sample_id TEXT
+  );
+  CREATE TABLE sweeps (
+    id TEXT PRIMARY KEY,
+    dataset_id TEXT NOT NULL REFERENCES datasets(id) ON DELETE CASCADE,
+    plan_json TEXT NOT NULL,
+    estimate_json TEXT NOT NULL,
+    status TEXT NOT NULL,
+    progress_json TEXT NOT NULL,
+    summary_json TEXT,
+    error TEXT,
+    rerun_of TEXT,
+    created_at TEXT NOT NULL,
+    started_at TEXT,
+    finished_at TEXT
+  );
+  CREATE INDEX sweeps_by_dataset ON sweeps(dataset_id);
+  CREATE TABLE placement_chunks (
+    sweep_id TEXT NOT NULL REFERENCES sweeps(id) ON DELETE CASCADE,
+    chunk INTEGER NOT NULL,
+    rows_json TEXT NOT NULL,
+    PRIMARY KEY (sweep_id, chunk)
+  );
+  `,
+];

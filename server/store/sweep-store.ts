@@ -1,0 +1,157 @@
+/**
+ * Sweeps in SQLite: plan, estimate, status, progress, summary, error and timestamps.
+ * Status changes are single statements or transactions; a sweep found `queued` or `running` when the server starts
+ * belonged to a process that stopped, and is marked `interrupted` (its partial rows removed).
+ */
+import type Database from 'better-sqlite3';
+import { randomUUID } from 'node:crypto';
+import type { Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../contracts.js';
+import { fromStoredJson, toStoredJson } from './blob-codec.js';
+
+export interface SweepRecord {
+  id: string;
+  datasetId: string;
+  plan: Plan;
+  estimate: SweepEstimate;
+  status: SweepStatus;
+  progress: SweepProgress;
+  summary: SweepSummary | null;
+  error: string | null;
+  rerunOf: string | null;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+}
+
+interface SweepRow {
+  id: string;
+  dataset_id: string;
+  plan_json: string;
+  estimate_json: string;
+  status: SweepStatus;
+  progress_json: string;
+  summary_json: string | null;
+  error: string | null;
+  rerun_of: string | null;
+  created_at: string;
+  started_at: string | null;
+  finished_at: string | null;
+}
+
+export const FINISHED_STATUSES: readonly SweepStatus[] = ['done', 'failed', 'cancelled', 'interrupted'];
+
+function toRecord(row: SweepRow, withSummary: boolean): SweepRecord {
+  return {
+    id: row.id,
+    datasetId: row.dataset_id,
+    plan: fromStoredJson<Plan>(row.plan_json),
+    estimate: fromStoredJson<SweepEstimate>(row.estimate_json),
+    status: row.status,
+    progress: fromStoredJson<SweepProgress>(row.progress_json),
+    summary: withSummary && row.summary_json !== null ? fromStoredJson<SweepSummary>(row.summary_json) : null,
+    error: row.error,
+    rerunOf: row.rerun_of,
+    createdAt: row.created_at,
+    startedAt: row.started_at,
+    finishedAt: row.finished_at,
+  };
+}
+
+export class SweepStore {
+  constructor(private readonly db: Database.Database) {}
+
+  create(input: { datasetId: string; plan: Plan; estimate: SweepEstimate; rerunOf?: string | null }): SweepRecord {
+    const id = randomUUID();
+    const progress: SweepProgress = { done: 0, total: input.estimate.tasks, elapsedSeconds: 0, remainingSeconds: null };
+    this.db
+      .prepare(
+        `INSERT INTO sweeps (id, dataset_id, plan_json, estimate_json, status, progress_json, rerun_of, created_at)
+         VALUES (?, ?, ?, ?, 'queued', ?, ?, ?)`,
+      )
+      .run(
+        id,
+        input.datasetId,
+        toStoredJson(input.plan),
+        toStoredJson(input.estimate),
+        toStoredJson(progress),
+        input.rerunOf ?? null,
+        new Date().toISOString(),
+      );
+    return this.get(id) as SweepRecord;
+  }
+
+  get(id: string): SweepRecord | undefined {
+    const row = this.db.prepare('SELECT * FROM sweeps WHERE id = ?').get(id) as SweepRow | undefined;
+    return row === undefined ? undefined : toRecord(row, true);
+  }
+
+  /** All sweeps (newest first), without their summaries. */
+  list(datasetId?: string): SweepRecord[] {
+    const rows = (
+      datasetId === undefined
+        ? this.db.prepare('SELECT * FROM sweeps ORDER BY created_at DESC, rowid DESC').all()
+        : this.db.prepare('SELECT * FROM sweeps WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC').all(datasetId)
+    ) as SweepRow[];
+    return rows.map((row) => toRecord(row, false));
+  }
+
+  markRunning(id: string): void {
+    this.db
+      .prepare(`UPDATE sweeps SET status = 'running', started_at = ? WHERE id = ? AND status = 'queued'`)
+      .run(new Date().toISOString(), id);
+  }
+
+  saveProgress(id: string, progress: SweepProgress): void {
+    this.db.prepare('UPDATE sweeps SET progress_json = ? WHERE id = ?').run(toStoredJson(progress), id);
+  }
+
+  /** Record the end of a sweep: its final status, progress, and summary or error, in one statement. */
+  finish(
+    id: string,
+    status: SweepStatus,
+    detail: { progress?: SweepProgress; summary?: SweepSummary; error?: string },
+  ): void {
+    const current = this.get(id);
+    if (current === undefined) return;
+    this.db
+      .prepare(
+        `UPDATE sweeps SET status = ?, progress_json = ?, summary_json = ?, error = ?, finished_at = ? WHERE id = ?`,
+      )
+      .run(
+        status,
+        toStoredJson(detail.progress ?? current.progress),
+        detail.summary === undefined ? null : toStoredJson(detail.summary),
+        detail.error ?? null,
+        new Date().toISOString(),
+        id,
+      );
+  }
+
+  /** At start: every sweep left `queued` or `running` by an earlier process becomes `interrupted`. */
+  markInterrupted(): string[] {
+    const mark = this.db.transaction(() => {
+      const rows = this.db
+        .prepare(`SELECT id FROM sweeps WHERE status IN ('queued', 'running')`)
+        .all() as { id: string }[];
+      const ids = rows.map((row) => row.id);
+      const now = new Date().toISOString();
+      for (const id of ids) {
+        this.db.prepare('DELETE FROM placement_chunks WHERE sweep_id = ?').run(id);
+        this.db
+          .prepare(
+            `UPDATE sweeps SET status = 'interrupted', finished_at = ?,
+               error = 'the server stopped while this sweep was queued or running; rerun it from its plan'
+             WHERE id = ?`,
+          )
+          .run(now, id);
+      }
+      return ids;
+    });
+    return mark();
+  }
+
+  delete(id: string): boolean {
+    const remove = this.db.transaction(() => this.db.prepare('DELETE FROM sweeps WHERE id = ?').run(id).changes);
+    return remove() > 0;
+  }
+}
