@@ -122,6 +122,8 @@ export interface MonteCarloResult {
   observedMin: number;
   simulatedMedians: number[];
   simulatedMaxima: number[];
+  /** minimum of chi2/df across placements on each simulated pattern */
+  simulatedMinima?: number[];
   /** 2.5 and 97.5 % of the simulated medians */
   envelope: { lo: number; hi: number };
   /** share of placements significant (either tail at alpha) on the observed pattern and on each simulated one */
@@ -174,4 +176,8 @@ export interface SweepEstimate {
   work: number;
   budget: number;
   tasks: number;
+  /** sizes x placements x (1 + sims): grid evaluations held until summarised */
+  evaluations?: number;
+  /** bytes of simulated CSR coordinates: points x sims x 16 */
+  simulatedBytes?: number;
 }

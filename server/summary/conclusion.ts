@@ -1,0 +1,90 @@
+import type { MonteCarloResult, SizeSummary } from '../contracts.js';
+import type { Verdict } from '../../workers/types.js';
+
+/** Agreement below this share means the verdict depends on where the grid falls (our choice, stated in the text). */
+export const LOW_AGREEMENT = 0.9;
+
+const VERDICT_WORDS: Record<Verdict, string> = {
+  clustered: 'clustered',
+  regular: 'regular',
+  csr: 'no departure from CSR',
+};
+
+/** A share 0..1 as a whole percentage that never rounds a partial share to 0 % or 100 %. */
+export function formatShare(share: number): string {
+  if (!Number.isFinite(share)) return 'n/a';
+  if (share === 0 || share === 1) return `${share * 100} %`;
+  const percent = Math.min(99, Math.max(1, Math.round(share * 100)));
+  return `${percent} %`;
+}
+
+/** A p-value with two significant digits (0.01, 0.23, 0.0050). */
+export function formatP(p: number): string {
+  return Number.isFinite(p) ? String(Number(p.toPrecision(2))) : 'n/a';
+}
+
+/** A length in metres with at most 4 significant digits. */
+export function formatMetres(metres: number): string {
+  return String(Number(metres.toPrecision(4)));
+}
+
+function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string {
+  const sims = `R = ${monteCarlo.sims}`;
+  if (verdict === 'regular') {
+    return `Monte Carlo p = ${formatP(monteCarlo.pMedianRegular)} on the median chi2/df, ${formatP(monteCarlo.pMinRegular)} on the minimum (${sims})`;
+  }
+  if (verdict === 'clustered') {
+    return `Monte Carlo p = ${formatP(monteCarlo.pMedianClustered)} on the median chi2/df, ${formatP(monteCarlo.pMaxClustered)} on the maximum (${sims})`;
+  }
+  return `Monte Carlo p = ${formatP(monteCarlo.pMedianClustered)} for clustering and ${formatP(monteCarlo.pMedianRegular)} for regularity on the median chi2/df (${sims})`;
+}
+
+/**
+ * One plain-words sentence for one cell size, e.g.
+ * "120 m cells: clustered in 97 % of 512 placements; Monte Carlo p = 0.01 on the median chi2/df, 0.01 on the maximum (R = 99)".
+ */
+export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string {
+  const { verdictShares, mostCommon, placements, monteCarlo } = summary;
+  const parts = [`${formatMetres(summary.cellSize)} m cells: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
+  const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
+  if (others.length > 0) parts[0] += ` (${others.map((v) => `${VERDICT_WORDS[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
+  if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));
+  else parts.push('no Monte Carlo test (sims = 0)');
+  return parts.join('; ');
+}
+
+/**
+ * The overall conclusion across cell sizes: at how many sizes the placement-robust Monte Carlo test on the median
+ * rejects CSR at alpha (for clustering or regularity), or without sims what most placements say, and at how many
+ * sizes the verdict depends on the placement (agreement below LOW_AGREEMENT).
+ */
+export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'>[], alpha: number): string {
+  const total = sizes.length;
+  const sentences: string[] = [];
+  if (total > 0 && sizes.every((size) => size.monteCarlo)) {
+    const clustered = sizes.filter((size) => (size.monteCarlo as MonteCarloResult).pMedianClustered <= alpha).length;
+    const regular = sizes.filter((size) => (size.monteCarlo as MonteCarloResult).pMedianRegular <= alpha).length;
+    if (clustered === 0 && regular === 0) {
+      sentences.push(`The placement-robust Monte Carlo test finds no departure from CSR at alpha ${alpha} at any of ${total} cell sizes`);
+    } else {
+      const found: string[] = [];
+      if (clustered > 0) found.push(`clustering at ${clustered} of ${total} cell sizes`);
+      if (regular > 0) found.push(`regularity at ${regular} of ${total} cell sizes`);
+      sentences.push(`The placement-robust Monte Carlo test (median chi2/df across placements) finds ${found.join(' and ')} at alpha ${alpha}`);
+    }
+  } else {
+    const counts: Record<Verdict, number> = { clustered: 0, regular: 0, csr: 0 };
+    for (const size of sizes) counts[size.mostCommon] += 1;
+    const words = (['clustered', 'regular', 'csr'] as Verdict[])
+      .filter((v) => counts[v] > 0)
+      .map((v) => `${VERDICT_WORDS[v]} at ${counts[v]} of ${total} cell sizes`);
+    sentences.push(`Most placements say ${words.join(', ')} at alpha ${alpha}; run with sims > 0 for a placement-robust p-value`);
+  }
+  const unstable = sizes.filter((size) => size.agreement < LOW_AGREEMENT).length;
+  if (unstable > 0) {
+    sentences.push(`The verdict depends on where the grid falls at ${unstable} of ${total} cell sizes (agreement below ${LOW_AGREEMENT * 100} %)`);
+  } else if (total > 0) {
+    sentences.push(`At every cell size at least ${LOW_AGREEMENT * 100} % of placements agree`);
+  }
+  return sentences.join('. ') + '.';
+}

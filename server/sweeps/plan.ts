@@ -1,0 +1,126 @@
+/**
+ * Sweep plans: validation of a plan given as JSON (HTTP) or built from CLI flags, with the defaults of
+ * DEFAULT_PLAN, and the resolution of "expected points per cell" into cell sides.
+ * Every bad value is a GS_ERR_PARAMETER error naming the field and the allowed range.
+ */
+import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../contracts.js';
+import { parameterError } from '../errors.js';
+import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
+
+/** Allowed ranges of the plan fields (shared with the HTTP schema and the CLI help). */
+export const PLAN_LIMITS = Object.freeze({
+  placements: { min: 1, max: 65536 },
+  sims: { min: 0, max: 9999 },
+  /** alpha in (0, 0.5] */
+  alphaMax: 0.5,
+  /** minCoverage in (0, 1] */
+  minCoverageMax: 1,
+  maxCellSizes: 16,
+  /** a cell size must leave at least this many whole cells' worth of area in the valid region */
+  minCellsInRegion: 2,
+});
+
+const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed']);
+const DESIGNS: readonly PlacementDesign[] = ['halton', 'lattice'];
+
+function isRecord(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function integerField(name: string, value: unknown, min: number, max: number): number {
+  if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
+    throw parameterError(`plan.${name} must be an integer from ${min} to ${max}, got ${JSON.stringify(value)}`);
+  }
+  return value;
+}
+
+function openClosedField(name: string, value: unknown, max: number): number {
+  if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0 || value > max) {
+    throw parameterError(`plan.${name} must be a number in (0, ${max}], got ${JSON.stringify(value)}`);
+  }
+  return value;
+}
+
+function sizeList(name: 'cells' | 'perCell', value: unknown): number[] {
+  const unit = name === 'cells' ? 'cell sides in metres' : 'expected points per cell';
+  if (!Array.isArray(value) || value.length === 0 || value.length > PLAN_LIMITS.maxCellSizes) {
+    throw parameterError(`plan.${name} must be a list of 1 to ${PLAN_LIMITS.maxCellSizes} ${unit}, got ${JSON.stringify(value)}`);
+  }
+  value.forEach((entry, index) => {
+    if (typeof entry !== 'number' || !Number.isFinite(entry) || entry <= 0) {
+      throw parameterError(`plan.${name}[${index}] must be a positive finite number (${unit}), got ${JSON.stringify(entry)}`);
+    }
+  });
+  return [...(value as number[])];
+}
+
+/**
+ * Validates a plan and fills in the defaults of DEFAULT_PLAN. Exactly one of `cells` (metres) or `perCell`
+ * (expected points per cell) must be given. Unknown fields are refused so that typos do not pass silently.
+ * @throws GridshakeError GS_ERR_PARAMETER naming the field and its allowed range
+ */
+export function normalizePlan(input: unknown): Plan {
+  if (!isRecord(input)) throw parameterError(`plan must be an object, got ${JSON.stringify(input)}`);
+  for (const key of Object.keys(input)) {
+    if (!PLAN_FIELDS.has(key)) throw parameterError(`plan.${key} is not a plan field (allowed: ${[...PLAN_FIELDS].join(', ')})`);
+  }
+  const hasCells = input.cells !== undefined;
+  const hasPerCell = input.perCell !== undefined;
+  if (hasCells === hasPerCell) {
+    throw parameterError('plan needs exactly one of cells (cell sides in metres) or perCell (expected points per cell)');
+  }
+  const merged = { ...DEFAULT_PLAN, ...input } as Record<string, unknown>;
+  if (typeof merged.rotation !== 'boolean') {
+    throw parameterError(`plan.rotation must be true or false, got ${JSON.stringify(merged.rotation)}`);
+  }
+  if (!DESIGNS.includes(merged.design as PlacementDesign)) {
+    throw parameterError(`plan.design must be one of ${DESIGNS.join(', ')}, got ${JSON.stringify(merged.design)}`);
+  }
+  if (typeof merged.seed !== 'number' || !Number.isSafeInteger(merged.seed)) {
+    throw parameterError(`plan.seed must be an integer, got ${JSON.stringify(merged.seed)}`);
+  }
+  const plan: Plan = {
+    placements: integerField('placements', merged.placements, PLAN_LIMITS.placements.min, PLAN_LIMITS.placements.max),
+    rotation: merged.rotation,
+    design: merged.design as PlacementDesign,
+    minCoverage: openClosedField('minCoverage', merged.minCoverage, PLAN_LIMITS.minCoverageMax),
+    alpha: openClosedField('alpha', merged.alpha, PLAN_LIMITS.alphaMax),
+    sims: integerField('sims', merged.sims, PLAN_LIMITS.sims.min, PLAN_LIMITS.sims.max),
+    seed: merged.seed,
+  };
+  if (hasCells) plan.cells = sizeList('cells', input.cells);
+  else plan.perCell = sizeList('perCell', input.perCell);
+  return plan;
+}
+
+/**
+ * Cell sides in metres for a plan: `cells` as given, or `perCell` turned into sides by side = sqrt(k * A / n)
+ * (A valid area in m^2, n points inside the valid region; shared/reference-values.md, "Rules of thumb").
+ * Refuses sides that leave fewer than 2 cells' worth of area in the valid region (A / side^2 < 2).
+ * @throws GridshakeError GS_ERR_PARAMETER
+ */
+export function resolveCellSizes(plan: Plan, validArea: number, nInside: number): number[] {
+  if (!(validArea > 0)) throw parameterError(`the valid region has no area (${validArea} m^2); check the study area and no-data zones`);
+  let sizes: number[];
+  if (plan.cells) {
+    sizes = plan.cells;
+  } else {
+    if (nInside < 1) throw parameterError('plan.perCell needs at least one point inside the valid region');
+    sizes = (plan.perCell ?? []).map((k) => cellSizeForExpected(k, validArea, nInside));
+  }
+  const largest = Math.sqrt(validArea / PLAN_LIMITS.minCellsInRegion);
+  sizes.forEach((size, index) => {
+    if (size > largest) {
+      const field = plan.cells ? `plan.cells[${index}]` : `plan.perCell[${index}]`;
+      throw parameterError(
+        `${field} gives cells of ${formatMetres(size)} m, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
+          `valid region of ${formatMetres(validArea)} m^2; use cells of at most ${formatMetres(largest)} m`,
+      );
+    }
+  });
+  return sizes;
+}
+
+function formatMetres(value: number): string {
+  return Number(value.toPrecision(6)).toString();
+}

@@ -1,0 +1,98 @@
+/**
+ * Work estimate of a sweep and the budget that refuses plans too large to finish in reasonable time or memory.
+ * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern.
+ */
+import type { Plan, SweepEstimate } from '../contracts.js';
+import { budgetError } from '../errors.js';
+
+/**
+ * Default work budget (point-placements). About 2.5 ns each on one core of the benchmark machine
+ * (npm run bench), so the default allows roughly a minute of counting on two cores.
+ */
+export const DEFAULT_WORK_BUDGET = 2e10;
+
+/** Most (size, placement, pattern) evaluations a sweep may hold: each keeps a chi-square value until summarised. */
+export const MAX_EVALUATIONS = 2e7;
+
+/** Most bytes of simulated CSR coordinates held at once (n x sims x 16 bytes). */
+export const MAX_SIMULATED_BYTES = 1024 * 1024 * 1024;
+
+/** Work of one chunk task, in point-placements: small enough that a cancelled sweep stops within a second. */
+export const CHUNK_WORK = 2e7;
+
+/** Most placements in one chunk task. */
+export const MAX_CHUNK_PLACEMENTS = 64;
+
+/** The work budget from the environment (GRIDSHAKE_WORK_BUDGET, point-placements) or the default. */
+export function workBudgetFromEnv(env: Record<string, string | undefined> = process.env): number {
+  const raw = env.GRIDSHAKE_WORK_BUDGET;
+  if (raw === undefined || raw === '') return DEFAULT_WORK_BUDGET;
+  const value = Number(raw);
+  if (!Number.isFinite(value) || value <= 0) {
+    throw budgetError(`GRIDSHAKE_WORK_BUDGET must be a positive number of point-placements, got ${JSON.stringify(raw)}`);
+  }
+  return value;
+}
+
+/** Placements per chunk task for n points and R sims: CHUNK_WORK / (n (1 + R)), between 1 and MAX_CHUNK_PLACEMENTS. */
+export function chunkPlacements(nInside: number, sims: number): number {
+  const perPlacement = Math.max(1, nInside) * (1 + sims);
+  return Math.max(1, Math.min(MAX_CHUNK_PLACEMENTS, Math.floor(CHUNK_WORK / perPlacement)));
+}
+
+function sizeCount(plan: Plan): number {
+  return (plan.cells ?? plan.perCell ?? []).length;
+}
+
+/**
+ * Estimates a sweep: work = nInside x placements x sizes x (1 + sims), the number of chunk tasks, the
+ * evaluations held for the summary (sizes x placements x (1 + sims)) and the bytes of simulated coordinates.
+ * Cost O(1).
+ */
+export function estimateSweep(plan: Plan, nInside: number, budget: number = DEFAULT_WORK_BUDGET): SweepEstimate {
+  const sizes = sizeCount(plan);
+  const patterns = 1 + plan.sims;
+  const perChunk = chunkPlacements(nInside, plan.sims);
+  return {
+    work: nInside * plan.placements * sizes * patterns,
+    budget,
+    tasks: sizes * Math.ceil(plan.placements / perChunk),
+    evaluations: sizes * plan.placements * patterns,
+    simulatedBytes: nInside * 16 * plan.sims,
+  };
+}
+
+function formatCount(value: number): string {
+  return value >= 1e5 ? value.toExponential(2) : String(Math.round(value));
+}
+
+/**
+ * Refuses an estimate above the budget, saying by how much and how to shrink the plan.
+ * @throws GridshakeError GS_ERR_BUDGET
+ */
+export function assertWithinBudget(estimate: SweepEstimate): void {
+  const shrink = 'fewer placements, fewer sims or fewer cell sizes';
+  if (estimate.work > estimate.budget) {
+    const factor = estimate.work / estimate.budget;
+    throw budgetError(
+      `the plan needs ${formatCount(estimate.work)} point-placements (points x placements x sizes x (1 + sims)), ` +
+        `${factor.toFixed(1)} times the budget of ${formatCount(estimate.budget)}; shrink it at least ${Math.ceil(factor)}-fold: ${shrink}`,
+    );
+  }
+  const evaluations = estimate.evaluations ?? 0;
+  if (evaluations > MAX_EVALUATIONS) {
+    const factor = evaluations / MAX_EVALUATIONS;
+    throw budgetError(
+      `the plan needs ${formatCount(evaluations)} grid evaluations (sizes x placements x (1 + sims)), ` +
+        `${factor.toFixed(1)} times the limit of ${formatCount(MAX_EVALUATIONS)}; use ${shrink}`,
+    );
+  }
+  const simulatedBytes = estimate.simulatedBytes ?? 0;
+  if (simulatedBytes > MAX_SIMULATED_BYTES) {
+    const megabytes = (bytes: number): string => `${Math.ceil(bytes / 1048576)} MB`;
+    throw budgetError(
+      `the simulated CSR patterns would take ${megabytes(simulatedBytes)} (points x sims x 16 bytes), above the ` +
+        `limit of ${megabytes(MAX_SIMULATED_BYTES)}; use fewer sims`,
+    );
+  }
+}

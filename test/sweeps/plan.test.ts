@@ -1,0 +1,127 @@
+import { describe, it, expect } from 'vitest';
+import { DEFAULT_PLAN } from '../../server/contracts.js';
+import { GridshakeError } from '../../server/errors.js';
+import { normalizePlan, resolveCellSizes } from '../../server/sweeps/plan.js';
+import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv, DEFAULT_WORK_BUDGET } from '../../server/sweeps/sweep-budget.js';
+
+function parameterFailure(input: unknown): GridshakeError {
+  try {
+    normalizePlan(input);
+  } catch (error) {
+    expect(error).toBeInstanceOf(GridshakeError);
+    expect((error as GridshakeError).code).toBe('GS_ERR_PARAMETER');
+    expect((error as GridshakeError).statusCode).toBe(400);
+    return error as GridshakeError;
+  }
+  throw new Error(`normalizePlan accepted ${JSON.stringify(input)}`);
+}
+
+describe('normalizePlan', () => {
+  it('fills the defaults of DEFAULT_PLAN', () => {
+    expect(normalizePlan({ cells: [100, 200] })).toEqual({ ...DEFAULT_PLAN, cells: [100, 200] });
+    expect(normalizePlan({ perCell: [5], placements: 16, rotation: false, sims: 0, seed: -3 })).toEqual({
+      ...DEFAULT_PLAN,
+      perCell: [5],
+      placements: 16,
+      rotation: false,
+      sims: 0,
+      seed: -3,
+    });
+  });
+
+  it('needs exactly one of cells or perCell', () => {
+    expect(parameterFailure({}).message).toMatch(/exactly one of cells .* or perCell/);
+    expect(parameterFailure({ cells: [1], perCell: [5] }).message).toMatch(/exactly one of cells/);
+  });
+
+  it('names the field and the allowed range of every bad value', () => {
+    expect(parameterFailure({ cells: [1], placements: 0 }).message).toBe('plan.placements must be an integer from 1 to 65536, got 0');
+    expect(parameterFailure({ cells: [1], placements: 65537 }).message).toContain('from 1 to 65536');
+    expect(parameterFailure({ cells: [1], placements: 2.5 }).message).toContain('plan.placements');
+    expect(parameterFailure({ cells: [1], sims: 10000 }).message).toBe('plan.sims must be an integer from 0 to 9999, got 10000');
+    expect(parameterFailure({ cells: [1], alpha: 0 }).message).toBe('plan.alpha must be a number in (0, 0.5], got 0');
+    expect(parameterFailure({ cells: [1], alpha: 0.6 }).message).toContain('(0, 0.5]');
+    expect(parameterFailure({ cells: [1], minCoverage: 1.01 }).message).toBe('plan.minCoverage must be a number in (0, 1], got 1.01');
+    expect(parameterFailure({ cells: [1], minCoverage: 0 }).message).toContain('plan.minCoverage');
+    expect(parameterFailure({ cells: [1], seed: 1.5 }).message).toBe('plan.seed must be an integer, got 1.5');
+    expect(parameterFailure({ cells: [1], rotation: 'yes' }).message).toContain('plan.rotation must be true or false');
+    expect(parameterFailure({ cells: [1], design: 'random' }).message).toBe('plan.design must be one of halton, lattice, got "random"');
+    expect(parameterFailure({ cells: [1], placement: 4 }).message).toContain('plan.placement is not a plan field');
+    expect(parameterFailure('cells=1').message).toContain('plan must be an object');
+  });
+
+  it('accepts up to 16 positive finite cell sizes', () => {
+    expect(normalizePlan({ cells: Array.from({ length: 16 }, (_, i) => i + 1) }).cells).toHaveLength(16);
+    expect(parameterFailure({ cells: Array.from({ length: 17 }, (_, i) => i + 1) }).message).toContain('1 to 16 cell sides in metres');
+    expect(parameterFailure({ cells: [] }).message).toContain('1 to 16');
+    expect(parameterFailure({ cells: [100, -1] }).message).toBe('plan.cells[1] must be a positive finite number (cell sides in metres), got -1');
+    expect(parameterFailure({ perCell: [5, null] }).message).toContain('plan.perCell[1] must be a positive finite number (expected points per cell)');
+    expect(parameterFailure({ cells: [1e400] }).message).toContain('plan.cells[0]');
+  });
+});
+
+describe('resolveCellSizes', () => {
+  it('turns expected points per cell into sides sqrt(k A / n) (shared/reference-values.md, rules of thumb)', () => {
+    // A = 1e6 m^2, n = 400: k = 5 -> sqrt(12500) = 111.8034; k = 1.6 -> sqrt(4000) = 63.2456
+    const sizes = resolveCellSizes(normalizePlan({ perCell: [5, 1.6] }), 1e6, 400);
+    expect(sizes[0]).toBeCloseTo(111.80339887, 7);
+    expect(sizes[1]).toBeCloseTo(63.24555320, 7);
+  });
+
+  it('refuses a cell size that leaves fewer than 2 cells in the valid region', () => {
+    const error = (() => {
+      try {
+        resolveCellSizes(normalizePlan({ cells: [100, 800] }), 1e6, 400);
+      } catch (caught) {
+        return caught as GridshakeError;
+      }
+      throw new Error('accepted');
+    })();
+    expect(error.code).toBe('GS_ERR_PARAMETER');
+    expect(error.message).toBe(
+      'plan.cells[1] gives cells of 800 m, which leave fewer than 2 cells in the valid region of 1000000 m^2; use cells of at most 707.107 m',
+    );
+    expect(() => resolveCellSizes(normalizePlan({ perCell: [300] }), 1e6, 400)).toThrow(/plan.perCell\[0\] gives cells of/);
+  });
+});
+
+describe('estimateSweep and assertWithinBudget', () => {
+  it('counts work as points x placements x sizes x (1 + sims)', () => {
+    const plan = normalizePlan({ cells: [10, 20, 30], placements: 128, sims: 19 });
+    const estimate = estimateSweep(plan, 1000, 1e9);
+    expect(estimate.work).toBe(1000 * 128 * 3 * 20);
+    expect(estimate.budget).toBe(1e9);
+    expect(estimate.evaluations).toBe(128 * 3 * 20);
+    // 2e7 / (1000 * 20) = 1000 placements per chunk, capped at 64: 2 chunks per size
+    expect(chunkPlacements(1000, 19)).toBe(64);
+    expect(estimate.tasks).toBe(6);
+    expect(() => assertWithinBudget(estimate)).not.toThrow();
+  });
+
+  it('says by how much the plan is over and how to shrink it', () => {
+    const estimate = estimateSweep(normalizePlan({ cells: [10, 20], placements: 1000, sims: 99 }), 1e5, 1e9);
+    expect(estimate.work).toBe(2e10);
+    let error: GridshakeError | undefined;
+    try {
+      assertWithinBudget(estimate);
+    } catch (caught) {
+      error = caught as GridshakeError;
+    }
+    expect(error?.code).toBe('GS_ERR_BUDGET');
+    expect(error?.message).toBe(
+      'the plan needs 2.00e+10 point-placements (points x placements x sizes x (1 + sims)), 20.0 times the budget of ' +
+        '1.00e+9; shrink it at least 20-fold: fewer placements, fewer sims or fewer cell sizes',
+    );
+  });
+
+  it('refuses simulated patterns too large for memory', () => {
+    const estimate = estimateSweep(normalizePlan({ cells: [10], placements: 1, sims: 999 }), 1e6, 1e12);
+    expect(() => assertWithinBudget(estimate)).toThrow(/simulated CSR patterns would take 15244 MB .*use fewer sims/);
+  });
+
+  it('reads the budget from GRIDSHAKE_WORK_BUDGET', () => {
+    expect(workBudgetFromEnv({})).toBe(DEFAULT_WORK_BUDGET);
+    expect(workBudgetFromEnv({ GRIDSHAKE_WORK_BUDGET: '5e9' })).toBe(5e9);
+    expect(() => workBudgetFromEnv({ GRIDSHAKE_WORK_BUDGET: 'lots' })).toThrow(/GRIDSHAKE_WORK_BUDGET must be a positive number/);
+  });
+});
