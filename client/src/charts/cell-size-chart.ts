@@ -1,0 +1,52 @@
+import type { CellSizeSeries } from './cell-size-data.js';
+import { measureLabel } from './cell-size-data.js';
+import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
+import { formatNumber } from './format.js';
+import { NEUTRAL, OKABE_ITO, withAlpha } from './palette.js';
+
+/**
+ * The cell-size chart: per cell size, the spread of the measure across placements (5-95 % band, quartile box,
+ * median), the CSR envelope of simulated medians, the line at 1 (the CSR expectation) and the reference placement.
+ */
+export function cellSizeChartSpec(series: CellSizeSeries, placements: number): ChartSpec {
+  const label = measureLabel(series.measure);
+  const hasEnvelope = series.envelopeLo.some((value) => value !== null);
+  const line = (extra: Record<string, unknown>) => ({ type: 'line', pointRadius: 0, borderWidth: 1.5, fill: false, ...extra });
+  const datasets: Record<string, unknown>[] = [
+    line({ label: '5-95 % of placements', data: series.p5, borderColor: withAlpha(OKABE_ITO.skyBlue, 0.6), backgroundColor: withAlpha(OKABE_ITO.skyBlue, 0.22), fill: '+1', order: 6 }),
+    line({ label: '95 % of placements', data: series.p95, borderColor: withAlpha(OKABE_ITO.skyBlue, 0.6), order: 6, legendHidden: true }),
+    { type: 'bar', label: 'quartiles (25-75 %)', data: series.p25.map((low, k) => [low, series.p75[k]]), backgroundColor: withAlpha(OKABE_ITO.blue, 0.35), borderColor: OKABE_ITO.blue, borderWidth: 1, barPercentage: 0.3, categoryPercentage: 1, order: 5 },
+    line({ label: 'median', data: series.median, borderColor: OKABE_ITO.blue, backgroundColor: OKABE_ITO.blue, borderWidth: 2.5, pointRadius: 4, order: 2 }),
+    line({ label: '1 = CSR expectation', data: series.labels.map(() => 1), borderColor: NEUTRAL.ink, borderDash: [6, 4], borderWidth: 1, order: 4 }),
+    line({ label: 'reference placement', data: series.reference, showLine: false, pointStyle: 'triangle', pointRadius: 8, pointHoverRadius: 10, borderColor: NEUTRAL.ink, backgroundColor: OKABE_ITO.yellow, borderWidth: 1.5, order: 1 }),
+  ];
+  if (hasEnvelope) {
+    datasets.push(
+      line({ label: 'CSR envelope of medians (2.5-97.5 %)', data: series.envelopeLo, borderColor: OKABE_ITO.vermillion, borderDash: [3, 3], borderWidth: 2, order: 3 }),
+      line({ label: 'CSR envelope, upper', data: series.envelopeHi, borderColor: OKABE_ITO.vermillion, borderDash: [3, 3], borderWidth: 2, order: 3, legendHidden: true }),
+    );
+  }
+  const subtitle = [`${placements} placements per size; the triangle is the reference grid (angle 0, offset 0,0)`];
+  const options = baseOptions(`Spread of ${label} across grid placements, by cell size`, subtitle, {
+    x: axis('cell side (m)'),
+    y: axis(`${label} (ratio)`, { grace: '5%' }),
+  });
+  return { type: 'bar', data: { labels: series.labels, datasets }, options };
+}
+
+/** The text table of the cell-size chart. */
+export function cellSizeTable(series: CellSizeSeries): { head: string[]; rows: string[][] } {
+  return {
+    head: ['cell side', '5 %', '25 %', 'median', '75 %', '95 %', 'CSR envelope', 'reference'],
+    rows: series.labels.map((label, k) => [
+      label,
+      formatNumber(series.p5[k]),
+      formatNumber(series.p25[k]),
+      formatNumber(series.median[k]),
+      formatNumber(series.p75[k]),
+      formatNumber(series.p95[k]),
+      series.envelopeLo[k] === null ? '-' : `${formatNumber(series.envelopeLo[k])} to ${formatNumber(series.envelopeHi[k])}`,
+      `${formatNumber(series.reference[k])}${series.referenceInTail[k] ? ' (in the tail)' : ''}`,
+    ]),
+  };
+}

@@ -1,0 +1,48 @@
+/** Number formatting shared by the page, the charts and the report (plain ASCII, no locale surprises). */
+
+/** A number with `digits` significant digits, trailing zeros removed; '-' for null or non-finite. */
+export function formatNumber(value: number | null | undefined, digits = 3): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '-';
+  if (value === 0) return '0';
+  const magnitude = Math.abs(value);
+  if (magnitude >= 1e6 || magnitude < 1e-4) return value.toExponential(digits - 1);
+  if (magnitude >= 10 ** digits) return String(Math.round(value));
+  const text = value.toPrecision(digits);
+  return text.includes('.') ? text.replace(/0+$/, '').replace(/\.$/, '') : text;
+}
+
+/** A length in metres, rounded to whole metres above 10 m: "250 m", "7.5 m". */
+export function formatMetres(metres: number): string {
+  if (!Number.isFinite(metres)) return '-';
+  return metres >= 10 ? `${Math.round(metres)} m` : `${formatNumber(metres, 2)} m`;
+}
+
+/** An area in square metres, shown in km2 from 1e6 m2 upward. */
+export function formatArea(squareMetres: number): string {
+  if (!Number.isFinite(squareMetres)) return '-';
+  if (squareMetres >= 1e6) return `${formatNumber(squareMetres / 1e6, 4)} km2`;
+  return `${formatNumber(squareMetres, 4)} m2`;
+}
+
+/** A share in [0, 1] as a whole percentage: 0.843 -> "84 %". */
+export function formatPercent(share: number): string {
+  if (!Number.isFinite(share)) return '-';
+  return `${Math.round(share * 100)} %`;
+}
+
+/** A p-value: three decimals, or "< 0.001". */
+export function formatP(p: number | null | undefined): string {
+  if (p === null || p === undefined || !Number.isFinite(p)) return '-';
+  if (p < 0.001) return '< 0.001';
+  return p.toFixed(3);
+}
+
+/** Seconds as "42 s", "3 min 05 s" or "1 h 02 min". */
+export function formatDuration(seconds: number | null | undefined): string {
+  if (seconds === null || seconds === undefined || !Number.isFinite(seconds) || seconds < 0) return '-';
+  const whole = Math.round(seconds);
+  if (whole < 60) return `${whole} s`;
+  const minutes = Math.floor(whole / 60);
+  if (minutes < 60) return `${minutes} min ${String(whole % 60).padStart(2, '0')} s`;
+  return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`;
+}

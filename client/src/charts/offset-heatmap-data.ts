@@ -1,0 +1,81 @@
+import type { PlacementRow } from '../../../server/contracts.js';
+import { sequentialColour } from './palette.js';
+
+/** One bin of the offset heat map: offsets u in [uFrom, uTo), v in [vFrom, vTo). */
+export interface OffsetBin {
+  uBin: number;
+  vBin: number;
+  uFrom: number;
+  uTo: number;
+  vFrom: number;
+  vTo: number;
+  /** mean VMR of the placements in the bin; null when the bin is empty */
+  meanVmr: number | null;
+  count: number;
+  /** the placement nearest the bin centre, for clicking; null when empty */
+  nearestPlacement: number | null;
+  colour: string;
+}
+
+export interface OffsetHeatmap {
+  bins: number;
+  /** bins[vBin * bins + uBin] */
+  cells: OffsetBin[];
+  min: number | null;
+  max: number | null;
+}
+
+/** Default number of bins per axis: about two placements per bin, between 2 and 10 (a readable grid). */
+export function defaultOffsetBins(placements: number): number {
+  return Math.min(10, Math.max(2, Math.round(Math.sqrt(placements / 2))));
+}
+
+/**
+ * Heat map of VMR over the grid offsets (u, v) of one cell size: the unit square of offsets cut into bins x bins
+ * equal squares, each holding the mean VMR of the placements whose offset falls in it (all angles pooled).
+ * Colour: position of the mean between the smallest and largest bin mean on the sequential ramp.
+ * Cost O(placements + bins^2).
+ */
+export function offsetHeatmap(rows: readonly PlacementRow[], sizeIndex: number, bins: number): OffsetHeatmap {
+  const ofSize = rows.filter((row) => row.sizeIndex === sizeIndex && Number.isFinite(row.vmr));
+  const sums = new Float64Array(bins * bins);
+  const counts = new Uint32Array(bins * bins);
+  const nearest: (PlacementRow | null)[] = new Array(bins * bins).fill(null);
+  const binOf = (offset: number) => Math.min(bins - 1, Math.max(0, Math.floor(offset * bins)));
+  const distance = (row: PlacementRow, uBin: number, vBin: number) =>
+    Math.hypot(row.u - (uBin + 0.5) / bins, row.v - (vBin + 0.5) / bins);
+  for (const row of ofSize) {
+    const uBin = binOf(row.u);
+    const vBin = binOf(row.v);
+    const key = vBin * bins + uBin;
+    sums[key] += row.vmr;
+    counts[key] += 1;
+    const current = nearest[key];
+    if (current === null || distance(row, uBin, vBin) < distance(current, uBin, vBin)) nearest[key] = row;
+  }
+  const means = Array.from(sums, (sum, key) => (counts[key] > 0 ? sum / counts[key] : null));
+  const filled = means.filter((mean): mean is number => mean !== null);
+  const min = filled.length > 0 ? Math.min(...filled) : null;
+  const max = filled.length > 0 ? Math.max(...filled) : null;
+  const position = (mean: number | null) => {
+    if (mean === null || min === null || max === null) return Number.NaN;
+    return max > min ? (mean - min) / (max - min) : 0.5;
+  };
+  const cells: OffsetBin[] = means.map((meanVmr, key) => {
+    const uBin = key % bins;
+    const vBin = Math.floor(key / bins);
+    return {
+      uBin,
+      vBin,
+      uFrom: uBin / bins,
+      uTo: (uBin + 1) / bins,
+      vFrom: vBin / bins,
+      vTo: (vBin + 1) / bins,
+      meanVmr,
+      count: counts[key],
+      nearestPlacement: nearest[key]?.placementIndex ?? null,
+      colour: sequentialColour(position(meanVmr)),
+    };
+  });
+  return { bins, cells, min, max };
+}

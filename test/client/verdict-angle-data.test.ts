@@ -1,0 +1,48 @@
+import { describe, it, expect } from 'vitest';
+import { angleSeries } from '../../client/src/charts/angle-data.js';
+import { verdictSeries } from '../../client/src/charts/verdict-data.js';
+import { verdictChartSpec } from '../../client/src/charts/verdict-chart.js';
+import { makeRow, makeSize } from './summary-fixture.js';
+
+describe('verdictSeries(sizes)', () => {
+  it('turns shares into percentages ordered by cell side, labels carrying the agreement', () => {
+    const sizes = [
+      makeSize({ sizeIndex: 0, cellSize: 400, verdictShares: { clustered: 0.5, csr: 0.375, regular: 0.125 }, agreement: 0.5 }),
+      makeSize({ sizeIndex: 1, cellSize: 200 }),
+    ];
+    const series = verdictSeries(sizes);
+    expect(series.labels).toEqual(['200 m (agreement 75 %)', '400 m (agreement 50 %)']);
+    expect(series.clustered).toEqual([75, 50]);
+    expect(series.csr).toEqual([25, 37.5]);
+    expect(series.regular).toEqual([0, 12.5]);
+    expect(series.agreement).toEqual([75, 50]);
+    const spec = verdictChartSpec(series, 0.05);
+    expect(spec.data.datasets.map((dataset) => dataset.data)).toEqual([[75, 50], [25, 37.5], [0, 12.5]]);
+  });
+});
+
+describe('angleSeries(rows, sizeIndex, referenceIndex)', () => {
+  const rows = [
+    makeRow({ placementIndex: 0, angle: 0, vmr: 1.5 }),
+    makeRow({ placementIndex: 1, angle: 60, u: 0.5, vmr: 2.5 }),
+    makeRow({ placementIndex: 2, angle: 30, u: 0.25, vmr: 0.5 }),
+    makeRow({ placementIndex: 0, sizeIndex: 1, angle: 10, vmr: 9 }),
+  ];
+
+  it('keeps the rows of the size, sorted by angle, and finds the reference placement', () => {
+    const series = angleSeries(rows, 0);
+    expect(series.points).toEqual([
+      { x: 0, y: 1.5, placementIndex: 0 },
+      { x: 30, y: 0.5, placementIndex: 2 },
+      { x: 60, y: 2.5, placementIndex: 1 },
+    ]);
+    expect(series.reference).toEqual({ x: 0, y: 1.5, placementIndex: 0 });
+    expect(series.singleAngle).toBe(false);
+  });
+
+  it('takes the reference by index when given, and notices a sweep without rotation', () => {
+    expect(angleSeries(rows, 0, 2).reference?.placementIndex).toBe(2);
+    const flat = angleSeries([makeRow({ placementIndex: 0 }), makeRow({ placementIndex: 1, u: 0.5 })], 0);
+    expect(flat.singleAngle).toBe(true);
+  });
+});
