@@ -1,0 +1,93 @@
+/**
+ * Exact coverage of every cell of one placement by the valid region, all cells at once.
+ *
+ * coverage(i, j) = |cell(i, j) intersect region| / s^2, with cells per the grid contract (grid-frame.ts).
+ * Method: transform ring vertices to cell units, accumulate every edge's signed area (edge-accumulation.ts), then
+ * a prefix sum along each row. Holes (clockwise rings) subtract by their orientation. Float noise is clamped:
+ * |c| < 1e-12 -> 0, |c - 1| < 1e-12 -> 1, and c is kept in [0, 1].
+ * Cost O(cells + edge crossings) time, O(cells) memory. The grid covers the transformed region's bounding box.
+ * Reference for the idea: area-accumulation rasterizers (Levien 2016, font-rs); checked in the tests against
+ * Sutherland & Hodgman (1974, "Reentrant polygon clipping", CACM 17:32-42) clipping per cell.
+ */
+import type { CoverageGrid, Origin, Placement, Region } from '../types.js';
+import { accumulateEdge } from './edge-accumulation.js';
+import { createGridFrame } from './grid-frame.js';
+
+/** Largest grid a placement may have; beyond it the cell size is far too small for the region. */
+export const MAX_GRID_CELLS = 1 << 27;
+
+const NOISE = 1e-12;
+
+/** Ring vertices in cell units (X = x'/s - u, Y = y'/s - v), one Float64Array per ring. */
+export function ringsInCellUnits(region: Region, origin: Origin, cellSize: number, placement: Placement): Float64Array[] {
+  const frame = createGridFrame(origin, cellSize, placement);
+  const { cos, sin, u, v } = frame;
+  return region.rings.map((ring) => {
+    const out = new Float64Array(ring.length);
+    for (let k = 0; k < ring.length; k += 2) {
+      const dx = ring[k]! - origin.x;
+      const dy = ring[k + 1]! - origin.y;
+      out[k] = (dx * cos + dy * sin) / cellSize - u;
+      out[k + 1] = (-dx * sin + dy * cos) / cellSize - v;
+    }
+    return out;
+  });
+}
+
+/** Exact coverage of all cells that the transformed region's bounding box touches. */
+export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
+  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const ring of rings) {
+    for (let k = 0; k < ring.length; k += 2) {
+      const x = ring[k]!;
+      const y = ring[k + 1]!;
+      if (x < minX) minX = x;
+      if (x > maxX) maxX = x;
+      if (y < minY) minY = y;
+      if (y > maxY) maxY = y;
+    }
+  }
+  if (!(maxX >= minX && maxY >= minY)) throw new RangeError('region has no vertices: cannot compute cell coverage');
+  const i0 = Math.floor(minX);
+  const j0 = Math.floor(minY);
+  const nx = Math.max(1, Math.ceil(maxX) - i0);
+  const ny = Math.max(1, Math.ceil(maxY) - j0);
+  if (nx * ny > MAX_GRID_CELLS) {
+    throw new RangeError(
+      `cell size ${cellSize} m gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
+    );
+  }
+  const coverage = new Float64Array(nx * ny);
+  for (const ring of rings) {
+    const vertexCount = ring.length >> 1;
+    let previous = vertexCount - 1;
+    for (let k = 0; k < vertexCount; k++) {
+      accumulateEdge(
+        coverage,
+        nx,
+        ny,
+        ring[2 * previous]! - i0,
+        ring[2 * previous + 1]! - j0,
+        ring[2 * k]! - i0,
+        ring[2 * k + 1]! - j0,
+      );
+      previous = k;
+    }
+  }
+  for (let row = 0; row < ny; row++) {
+    let running = 0;
+    const offset = row * nx;
+    for (let column = 0; column < nx; column++) {
+      running += coverage[offset + column]!;
+      let value = running;
+      if (value < NOISE) value = 0;
+      else if (value > 1 - NOISE) value = 1;
+      coverage[offset + column] = value;
+    }
+  }
+  return { i0, j0, nx, ny, coverage };
+}
