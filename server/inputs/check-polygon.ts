@@ -47,11 +47,6 @@ function extentSquared(ring: number[][]): number {
 /** The polygon's checked rings (GeoJSON order, closed), or a GS_ERR_INPUT naming the polygon and what is wrong. */
 export function checkPolygon(polygon: RawPolygon, lonLat: boolean): number[][][] {
   const rings = polygon.rings.map((ring, index) => checkRing(ring, `${polygon.label}, ${ringName(index)}`, lonLat));
-  rings.forEach((ring, index) => {
-    if (Math.abs(signedRingArea(ring)) <= 1e-12 * extentSquared(ring)) {
-      throw inputError(`${polygon.label}, ${ringName(index)}: the ring has zero area`);
-    }
-  });
   const kinks = turf.kinks(turf.polygon(rings));
   if (kinks.features.length > 0) {
     const where = kinks.features
@@ -60,6 +55,11 @@ export function checkPolygon(polygon: RawPolygon, lonLat: boolean): number[][][]
       .join(', ');
     throw inputError(`${polygon.label}: the polygon intersects itself at ${where}`);
   }
+  rings.forEach((ring, index) => {
+    if (Math.abs(signedRingArea(ring)) <= 1e-12 * extentSquared(ring)) {
+      throw inputError(`${polygon.label}, ${ringName(index)}: the ring has zero area`);
+    }
+  });
   const shell = turf.polygon([rings[0]]);
   for (let h = 1; h < rings.length; h += 1) {
     const outside = rings[h].find((p) => !turf.booleanPointInPolygon(p, shell));

@@ -2,6 +2,7 @@
  * loadDataset: points, study area and no-data zones (text or bytes) to a validated, projected Dataset ready for
  * the engine. Pure apart from reading the EPSG definitions package; the CLI reads files, the server passes uploads.
  */
+import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
 import type { Dataset, InputWarning } from '../contracts.js';
 import { inputError, tooLargeError } from '../errors.js';
 import { checkPolygon } from './check-polygon.js';
@@ -11,7 +12,6 @@ import { findDuplicates } from './find-duplicates.js';
 import { readGeoJsonPolygons } from './geojson-polygons.js';
 import { readText, type InputFile } from './input-file.js';
 import { duplicateWarning, outsideWarning, projectionWarning } from './input-warnings.js';
-import { pointsInRegion } from './points-in-region.js';
 import { projectInputs } from './project-inputs.js';
 import { readPoints } from './read-points.js';
 import { toRegion } from './to-region.js';
@@ -66,11 +66,11 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   const region = toRegion(geometry.valid);
   const studyRegion = toRegion(geometry.studyArea);
 
-  const inStudyArea = pointsInRegion(projected.xy, studyRegion);
+  const inStudyArea = partitionByRegion(projected.xy, studyRegion).inside;
   if (inStudyArea.length === 0) {
     throw inputError(`${input.area?.name ?? 'study area'}: the study area does not contain any point of ${input.points.name}`);
   }
-  const inside = pointsInRegion(projected.xy, region);
+  const inside = partitionByRegion(projected.xy, region).inside;
   if (inside.length === 0) {
     throw inputError(`${input.points.name}: every point lies inside a no-data zone: none is left to count`);
   }

@@ -1,5 +1,6 @@
 /** JSON.parse with a message that names the file and, when the parser gives a position, its line and column. */
 import { inputError } from '../errors.js';
+import { jsonErrorOffset } from './json-error-offset.js';
 
 function lineAndColumn(text: string, position: number): string {
   let line = 1;
@@ -18,12 +19,8 @@ export function parseJsonText(fileName: string, text: string): unknown {
     return JSON.parse(text) as unknown;
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
-    const position = /at position (\d+)/.exec(reason);
-    const place = position
-      ? lineAndColumn(text, Number(position[1]))
-      : /end of JSON input/i.test(reason)
-        ? 'end of file'
-        : 'unknown position';
+    const offset = jsonErrorOffset(text);
+    const place = offset === null ? 'unknown position' : offset >= text.length ? 'end of file' : lineAndColumn(text, offset);
     throw inputError(`${fileName}: invalid JSON at ${place}: ${reason}`);
   }
 }

@@ -1,0 +1,89 @@
+/** Plain-words rendering of a count result for the terminal: verdict, key numbers, rule of thumb, warnings, caution. */
+import type { CountResult } from './count-result.js';
+
+/** A p-value for reading: 4 significant digits, scientific below 1e-4. */
+export function formatP(p: number): string {
+  if (p === 0) return '0';
+  return p < 1e-4 ? p.toExponential(2) : p.toPrecision(4);
+}
+
+const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? value.toFixed(digits) : String(value));
+
+export function verdictSentence(result: CountResult): string {
+  const test = `two-sided test at alpha = ${result.alpha}`;
+  if (result.verdict === 'clustered') {
+    return `The counts are more clustered than complete spatial randomness would give (p = ${formatP(result.pClustered)}, ${test}).`;
+  }
+  if (result.verdict === 'regular') {
+    return `The counts are more regular (evenly spread) than complete spatial randomness would give (p = ${formatP(result.pRegular)}, ${test}).`;
+  }
+  return (
+    `The counts do not depart from complete spatial randomness (${test}: p for clustering = ` +
+    `${formatP(result.pClustered)}, p for regularity = ${formatP(result.pRegular)}).`
+  );
+}
+
+function ruleOfThumb(result: CountResult): string {
+  const perCell = result.expectedPerCell.toFixed(2);
+  const judgement = result.meetsRuleOf5
+    ? 'meets the rule of about 5 per cell'
+    : result.meetsRuleOf1_6
+      ? 'meets the rule of about 1.6 per cell but not that of 5 (chi-square adequacy)'
+      : 'is below both rules (1.6 and 5 per cell): the chi-square approximation is doubtful; use larger cells';
+  const sizes = result.dataset.suggestedCellSizes
+    .map((size) => `${size.perCell} per cell: ${size.cellSize.toFixed(0)} m`)
+    .join('; ');
+  return `Rule of thumb (common practice): ${perCell} expected points per whole cell ${judgement}.\n  Suggested sides: ${sizes}.`;
+}
+
+export function formatCount(result: CountResult): string {
+  const { placement } = result;
+  const lines: string[] = [];
+  lines.push(`gridshake count: ${result.dataset.name} (${result.pointsTotal} points, coordinates ${result.dataset.crs})`);
+  lines.push(
+    `Grid: ${result.cellSize} m cells, angle ${placement.angle} deg, offset (${placement.u}, ${placement.v}), ` +
+      `cells kept with coverage >= ${result.minCoverage}`,
+  );
+  lines.push('');
+  lines.push(verdictSentence(result));
+  lines.push('');
+  const rows: [string, string][] = [
+    ['cells kept', String(result.cells)],
+    ['points counted', String(result.points)],
+    ['points outside the valid region', String(result.pointsOutside)],
+    ['points in left-out cells', String(result.pointsInLeftOutCells)],
+    ['mean per cell', fixed(result.mean)],
+    ['variance', fixed(result.variance)],
+    ['variance/mean (VMR)', fixed(result.vmr)],
+    ['chi-square (dispersion)', `${fixed(result.chi2, 4)} on ${result.df} df (chi2/df ${fixed(result.chi2PerDf, 4)})`],
+    ['p clustered / p regular', `${formatP(result.pClustered)} / ${formatP(result.pRegular)}`],
+    ['Morisita I / standardized', `${fixed(result.morisita)} / ${fixed(result.morisitaStandardized)}`],
+    ['Lloyd mean crowding / patchiness', `${fixed(result.meanCrowding)} / ${fixed(result.patchiness)}`],
+    ['Green index', result.green.toPrecision(4)],
+    ['negative-binomial k', result.negativeBinomialK === null ? 'none (variance <= mean)' : fixed(result.negativeBinomialK, 4)],
+  ];
+  if (result.poissonFit) {
+    const fit = result.poissonFit;
+    rows.push(['Poisson frequency fit', `chi-square ${fixed(fit.chi2, 4)} on ${fit.df} df, p = ${formatP(fit.p)}`]);
+    rows.push(['  classes (observed/expected)', fit.classes.map((c) => `${c.label}: ${c.observed}/${c.expected.toFixed(2)}`).join(', ')]);
+  } else {
+    rows.push(['Poisson frequency fit', 'not available (fewer than 3 classes after merging)']);
+  }
+  for (const [label, value] of rows) lines.push(`  ${label.padEnd(34)} ${value}`);
+  lines.push('');
+  lines.push(ruleOfThumb(result));
+  if (result.warnings.length > 0) {
+    lines.push('');
+    lines.push('Warnings:');
+    for (const warning of result.warnings) {
+      const ids = warning.ids && warning.ids.length > 0 ? ` [ids: ${warning.ids.join(', ')}]` : '';
+      lines.push(`  - ${warning.message}${ids}`);
+    }
+  }
+  lines.push('');
+  lines.push(
+    'Caution: significance is not cause, and results depend on data quality; for disease or crime patterns ' +
+      'defer to local public-health and policing guidance and licensed professionals, and protect the privacy of point records.',
+  );
+  return `${lines.join('\n')}\n`;
+}

@@ -1,0 +1,58 @@
+/**
+ * The gridshake command line: a table of commands, shared help and error handling.
+ * Exit codes: 0 done, 1 a user error (bad input or parameter, message on stderr), 2 a bad command line.
+ * To add a command, import it and add one line to COMMANDS.
+ */
+import { isGridshakeError } from '../errors.js';
+import { optionHelp, parseOptions, UsageError } from './args.js';
+import type { CliCommand, CliIo } from './cli-command.js';
+import { countCommand } from './count-command.js';
+
+const COMMANDS: CliCommand[] = [
+  countCommand,
+];
+
+const PROCESS_IO: CliIo = {
+  stdout: (text) => process.stdout.write(text),
+  stderr: (text) => process.stderr.write(text),
+};
+
+function overview(): string {
+  const rows = COMMANDS.map((command) => `  ${command.name.padEnd(8)} ${command.summary}`);
+  return `Usage: gridshake <command> [options]\n\nCommands:\n${rows.join('\n')}\n\nRun 'gridshake <command> --help' for its options.\n`;
+}
+
+function commandHelp(command: CliCommand): string {
+  return `${command.usage}\n\nOptions:\n${optionHelp(command.options)}\n`;
+}
+
+export async function runCli(argv: string[], io: CliIo = PROCESS_IO): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
+    (name === undefined ? io.stderr : io.stdout)(overview());
+    return name === undefined ? 2 : 0;
+  }
+  const command = COMMANDS.find((candidate) => candidate.name === name);
+  if (!command) {
+    io.stderr(`gridshake: unknown command '${name}'; commands: ${COMMANDS.map((c) => c.name).join(', ')}\n`);
+    return 2;
+  }
+  try {
+    const values = parseOptions(rest, command.options);
+    if (values.help === true) {
+      io.stdout(commandHelp(command));
+      return 0;
+    }
+    return await command.run(values, io);
+  } catch (error) {
+    if (error instanceof UsageError) {
+      io.stderr(`gridshake ${command.name}: ${error.message}\nRun 'gridshake ${command.name} --help' for its options.\n`);
+      return 2;
+    }
+    if (isGridshakeError(error)) {
+      io.stderr(`gridshake: ${error.message}\n`);
+      return 1;
+    }
+    throw error;
+  }
+}
