@@ -19,7 +19,7 @@ export interface CountClass {
  * frequencies add up to m. When all cells are whole (coverage 1) every E_c is the mean and this reduces to the
  * classical m * Pois(k; mean). Cells with the same E_c are grouped, so whole cells cost one Poisson row.
  *
- * Cost: O(m + D * K) with D distinct expected counts (1 for whole cells).
+ * Cost: O(m + D * K) with D distinct expected counts (1 for whole cells) and K = openClassFrom.
  *
  * Reference: R. A. Fisher (1925), Statistical Methods for Research Workers, Oliver and Boyd (Poisson frequency
  * fits); R. D. Clarke (1946), "An application of the Poisson distribution", Journal of the Institute of Actuaries
@@ -69,27 +69,29 @@ function mergeTwo(low: CountClass, high: CountClass): CountClass {
 }
 
 /**
- * Merge adjacent classes until every expected frequency is at least minExpected: first from the upper tail
- * downward, then from class 0 upward, then (rarely, for mixtures) any remaining small inner class into its
- * smaller neighbour. Cost O(K^2) at worst, K classes. Reference: the rule of 5, common practice (NIST/SEMATECH
- * e-Handbook 1.3.5.15; W. G. Cochran (1954), Biometrics 10:417-451).
+ * Merge adjacent classes until every expected frequency is at least minExpected: scan from the upper tail
+ * downward, pooling classes into a group until the group's expected frequency reaches minExpected, then start the
+ * next group; a remainder at the low end (from class 0 upward) that stays below minExpected joins the group above
+ * it. Only adjacent classes are pooled, the order is kept, and the totals are unchanged.
+ * Cost O(K), K classes. Reference: the rule of 5, common practice (NIST/SEMATECH e-Handbook 1.3.5.15;
+ * W. G. Cochran (1954), "Some methods for strengthening the common chi-square tests", Biometrics 10:417-451).
  */
 export function mergeSmallClasses(classes: readonly CountClass[], minExpected = 5): CountClass[] {
-  const merged = classes.map((entry) => ({ ...entry }));
-  while (merged.length > 1 && merged[merged.length - 1]!.expected < minExpected) {
-    const last = merged.pop()!;
-    merged[merged.length - 1] = mergeTwo(merged[merged.length - 1]!, last);
+  const groups: CountClass[] = [];
+  let pending: CountClass | null = null;
+  for (let k = classes.length - 1; k >= 0; k--) {
+    pending = pending === null ? { ...classes[k]! } : mergeTwo(classes[k]!, pending);
+    if (pending.expected >= minExpected) {
+      groups.push(pending);
+      pending = null;
+    }
   }
-  while (merged.length > 1 && merged[0]!.expected < minExpected) {
-    const first = merged.shift()!;
-    merged[0] = mergeTwo(first, merged[0]!);
+  groups.reverse();
+  if (pending !== null) {
+    if (groups.length === 0) groups.push(pending);
+    else groups[0] = mergeTwo(pending, groups[0]!);
   }
-  for (let index = merged.findIndex((entry) => entry.expected < minExpected); index > 0 && merged.length > 1;
-    index = merged.findIndex((entry) => entry.expected < minExpected)) {
-    const neighbour = merged[index - 1]!.expected <= merged[index + 1]!.expected ? index - 1 : index;
-    merged.splice(neighbour, 2, mergeTwo(merged[neighbour]!, merged[neighbour + 1]!));
-  }
-  return merged;
+  return groups;
 }
 
 /** Class label: "3", "2-3" or ">=4". */

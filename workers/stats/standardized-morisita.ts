@@ -1,4 +1,4 @@
-import { chiSquareQuantile } from './chi-square.js';
+import { criticalValues } from './dispersion-verdict.js';
 import type { CountSums } from './moments.js';
 import { morisitaIndex } from './morisita.js';
 
@@ -17,7 +17,7 @@ import { morisitaIndex } from './morisita.js';
  * when X^2 falls below the lower one: |Ip| > 0.5 when the two-sided whole-cell test rejects. NaN when N < 2.
  * When Id = Mc = m (all points in one cell at the smallest N) Ip is 1.
  *
- * Cost: O(1) given the count sums, plus two chi-square quantiles.
+ * Cost: O(1) given the count sums; the two chi-square quantiles come from the cached criticalValues(df, alpha).
  *
  * Reference: D. E. Smith-Gill (1975), "Cytophysiological basis of disruptive pigmentary patterns in the leopard
  * frog Rana pipiens. II. Wild type and mutant cell-specific patterns", Journal of Morphology 146:35-54; as
@@ -27,9 +27,9 @@ export function standardizedMorisitaIndex(sums: CountSums, alpha = 0.05): number
   const { cells, points } = sums;
   if (points < 2) return Number.NaN;
   const morisita = morisitaIndex(sums);
-  const df = cells - 1;
-  const uniformIndex = (chiSquareQuantile(alpha / 2, df) - cells + points) / (points - 1);
-  const clumpedIndex = (chiSquareQuantile(1 - alpha / 2, df) - cells + points) / (points - 1);
+  const { lower, upper } = criticalValues(cells - 1, alpha);
+  const uniformIndex = (lower - cells + points) / (points - 1);
+  const clumpedIndex = (upper - cells + points) / (points - 1);
   if (morisita >= clumpedIndex) {
     const room = cells - clumpedIndex;
     return room > 0 ? 0.5 + (0.5 * (morisita - clumpedIndex)) / room : 1;

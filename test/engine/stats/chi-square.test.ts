@@ -111,6 +111,14 @@ describe('chiSquareUpperTail(x, df)', () => {
     }
   });
 
+  // P(chi2_100 >= 2000) = exp(-1000) * sum_{k<50} 1000^k / k!, about 1e-350: below the smallest double
+  // (Number.MIN_VALUE, about 4.9e-324), so the honest floating-point answer is 0, never NaN or negative.
+  it('underflows to exactly 0 only below the double range (x = 2000, df = 100)', () => {
+    expect(evenDfUpperTailLog(2000, 100)).toBeLessThan(Math.log(Number.MIN_VALUE));
+    expect(chiSquareUpperTail(2000, 100)).toBe(0);
+    expect(chiSquareLowerTail(2000, 100)).toBe(1);
+  });
+
   it('log p is finite, positive p and strictly decreasing from 1e-3 down to 1e-300 (df 100)', () => {
     let previous = Number.POSITIVE_INFINITY;
     for (let x = 150; x <= 1780; x += 10) {
