@@ -27,7 +27,8 @@ import { standardizedMorisitaIndex } from './standardized-morisita.js';
  *
  * Cost: O(m + D * K) (D distinct coverages, K largest count), a handful of passes over the counts.
  *
- * Throws RangeError when m < 2, the arrays differ in length, or alpha is not in (0, 1).
+ * Throws RangeError when m < 2, the arrays differ in length, alpha is not in (0, 1), a count is not a
+ * non-negative integer or a coverage is not in (0, 1 + 1e-9]; the message names the first bad cell.
  *
  * Reference: the modules' references; M. R. T. Dale (1999), Spatial Pattern Analysis in Plant Ecology,
  * Cambridge University Press, and C. J. Krebs (1999), Ecological Methodology, 2nd ed., for the set of indices.
@@ -43,6 +44,16 @@ export function placementStatistics(counts: ArrayLike<number>, coverage: ArrayLi
   }
   if (!(alpha > 0 && alpha < 1)) {
     throw new RangeError(`placementStatistics requires alpha in (0, 1), got ${alpha}`);
+  }
+  for (let c = 0; c < counts.length; c++) {
+    const count = counts[c]!;
+    const cellCoverage = coverage[c]!;
+    if (!(Number.isInteger(count) && count >= 0)) {
+      throw new RangeError(`placementStatistics requires non-negative integer counts: cell ${c} holds ${count}`);
+    }
+    if (!(cellCoverage > 0 && cellCoverage <= 1 + 1e-9)) {
+      throw new RangeError(`placementStatistics requires coverage in (0, 1]: cell ${c} has ${cellCoverage}`);
+    }
   }
   const sums = countSums(counts);
   const { cells, points } = sums;

@@ -7,6 +7,10 @@ describe('placementStatistics(counts, coverage, alpha)', () => {
     expect(() => placementStatistics([3], [1], 0.05)).toThrow('requires at least 2 kept cells, got 1');
     expect(() => placementStatistics([3, 1], [1], 0.05)).toThrow('2 counts, 1 coverages');
     expect(() => placementStatistics([3, 1], [1, 1], 0)).toThrow('alpha in (0, 1)');
+    expect(() => placementStatistics([3, 1.5], [1, 1], 0.05)).toThrow('cell 1 holds 1.5');
+    expect(() => placementStatistics([3, -1], [1, 1], 0.05)).toThrow('cell 1 holds -1');
+    expect(() => placementStatistics([3, 1], [0, 1], 0.05)).toThrow('cell 0 has 0');
+    expect(() => placementStatistics([3, 1], [1, Number.NaN], 0.05)).toThrow('cell 1 has NaN');
   });
 
   it('with N = 0: ratio statistics NaN (undefined), verdict csr, no NB k, no Poisson fit', () => {
