@@ -1,0 +1,161 @@
+/**
+ * `gridshake sweep`: the quadrat test over many placements and cell sizes, with the placement-robust Monte Carlo
+ * test (shared/design.md, "Command line"). Writes placements.csv, summary.json and report.html to --out, shows a
+ * progress bar on stderr and prints the per-size conclusions on stdout.
+ */
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Plan, SweepProgress } from '../contracts.js';
+import { GridshakeError, parameterError } from '../errors.js';
+import { loadDataset } from '../inputs/index.js';
+import { renderReport } from '../report/render-report.js';
+import { normalizePlan } from '../sweeps/plan.js';
+import { placementsToCsv } from '../sweeps/placements-csv.js';
+import { isAbortError } from '../sweeps/sweep-errors.js';
+import { SweepPool } from '../sweeps/sweep-pool.js';
+import {
+  optionalString,
+  parseAlpha,
+  parseMinCoverage,
+  parseNumber,
+  parsePositiveList,
+  parseWholeNumber,
+  requireString,
+  stringList,
+  type OptionSpecs,
+  type OptionValues,
+} from './args.js';
+import type { CliCommand, CliIo } from './cli-command.js';
+import { readInputFile } from './read-input-file.js';
+import { progressLine } from './sweep-progress.js';
+
+const OPTIONS: OptionSpecs = {
+  points: { type: 'string', value: 'FILE', description: 'points: CSV with a header row, or GeoJSON Point features' },
+  area: { type: 'string', value: 'FILE', description: "study area (GeoJSON polygons); default: the points' bounding box" },
+  'no-data': { type: 'string', multiple: true, value: 'FILE', description: 'no-data zones (GeoJSON polygons)' },
+  crs: { type: 'string', value: 'CRS', description: "'planar' (metres already) or EPSG:n; default: longitude/latitude" },
+  cells: { type: 'string', value: 'M,M,...', description: 'cell sides in metres (up to 16)' },
+  'per-cell': { type: 'string', value: 'K,K,...', description: 'expected points per cell, turned into sides sqrt(K A / n)' },
+  placements: { type: 'string', value: 'N', description: 'placements per cell size, 1..65536; default 256' },
+  'no-rotation': { type: 'boolean', description: 'offsets only, every grid at angle 0' },
+  design: { type: 'string', value: 'D', description: "placement design: 'halton' (default) or 'lattice'" },
+  'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
+  alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
+  sims: { type: 'string', value: 'R', description: 'simulated CSR patterns for the Monte Carlo test, 0..9999; default 99' },
+  seed: { type: 'string', value: 'S', description: 'seed of the simulations, an integer; default 1' },
+  out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
+  threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
+  x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
+  y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
+  id: { type: 'string', value: 'COL', description: 'CSV column of record ids' },
+};
+
+const FLAG_NAMES: Record<string, string> = {
+  'plan.perCell': '--per-cell',
+  'plan.cells': '--cells',
+  'plan.minCoverage': '--min-coverage',
+  'plan.placements': '--placements',
+  'plan.alpha': '--alpha',
+  'plan.sims': '--sims',
+  'plan.seed': '--seed',
+  'plan.design': '--design',
+};
+
+/** A plan error in the words of the command line (--per-cell rather than plan.perCell). */
+function asFlagError(error: unknown): unknown {
+  if (!(error instanceof GridshakeError) || error.code !== 'GS_ERR_PARAMETER') return error;
+  let message = error.message.replace('plan needs exactly one of cells (cell sides in metres) or perCell (expected points per cell)',
+    'give exactly one of --cells (cell sides in metres) or --per-cell (expected points per cell)');
+  for (const [field, flag] of Object.entries(FLAG_NAMES)) message = message.split(field).join(flag);
+  return parameterError(message);
+}
+
+function planFromFlags(values: OptionValues): Plan {
+  const text = (name: string): string | undefined => optionalString(values, name);
+  const input: Record<string, unknown> = { rotation: values['no-rotation'] !== true };
+  if (text('cells') !== undefined) input.cells = parsePositiveList(text('cells') as string, 'cells');
+  if (text('per-cell') !== undefined) input.perCell = parsePositiveList(text('per-cell') as string, 'per-cell');
+  if (text('placements') !== undefined) input.placements = parseWholeNumber(text('placements') as string, 'placements', 1);
+  if (text('design') !== undefined) input.design = text('design');
+  if (text('min-coverage') !== undefined) input.minCoverage = parseMinCoverage(text('min-coverage') as string);
+  if (text('alpha') !== undefined) input.alpha = parseAlpha(text('alpha') as string);
+  if (text('sims') !== undefined) input.sims = parseWholeNumber(text('sims') as string, 'sims', 0);
+  if (text('seed') !== undefined) input.seed = parseNumber(text('seed') as string, 'seed', 'an integer');
+  try {
+    return normalizePlan(input);
+  } catch (error) {
+    throw asFlagError(error);
+  }
+}
+
+function progressWriter(io: CliIo): { update(progress: SweepProgress): void; end(): void } {
+  let last = 0;
+  let shown = false;
+  return {
+    update(progress) {
+      const now = Date.now();
+      if (now - last < 100 && progress.done < progress.total) return;
+      last = now;
+      shown = true;
+      io.stderr(`\r${progressLine(progress)}`);
+    },
+    end() {
+      if (shown) io.stderr('\n');
+    },
+  };
+}
+
+async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number> {
+  const pointsPath = requireString(values, 'points');
+  const outDir = requireString(values, 'out');
+  const plan = planFromFlags(values);
+  const threads = optionalString(values, 'threads');
+  const areaPath = optionalString(values, 'area');
+  const dataset = loadDataset(
+    {
+      points: readInputFile(pointsPath),
+      area: areaPath === undefined ? undefined : readInputFile(areaPath),
+      noData: stringList(values, 'no-data').map(readInputFile),
+    },
+    { crs: optionalString(values, 'crs'), x: optionalString(values, 'x'), y: optionalString(values, 'y'), id: optionalString(values, 'id') },
+  );
+  const pool = new SweepPool({ threads: threads === undefined ? undefined : parseWholeNumber(threads, 'threads', 1) });
+  const controller = new AbortController();
+  const onInterrupt = (): void => controller.abort();
+  process.once('SIGINT', onInterrupt);
+  const progress = progressWriter(io);
+  try {
+    const { rows, summary } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update });
+    progress.end();
+    mkdirSync(outDir, { recursive: true });
+    writeFileSync(join(outDir, 'placements.csv'), placementsToCsv(rows));
+    writeFileSync(join(outDir, 'summary.json'), `${JSON.stringify(summary, null, 2)}\n`);
+    writeFileSync(join(outDir, 'report.html'), renderReport(summary, rows));
+    const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
+    io.stdout(`${lines.join('\n')}\n`);
+    for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);
+    io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
+    return 0;
+  } catch (error) {
+    progress.end();
+    if (isAbortError(error)) {
+      io.stderr('gridshake sweep: cancelled; nothing was written\n');
+      return 130;
+    }
+    throw error;
+  } finally {
+    process.removeListener('SIGINT', onInterrupt);
+    await pool.destroy();
+  }
+}
+
+export const sweepCommand: CliCommand = {
+  name: 'sweep',
+  summary: 'the test over many grid placements and cell sizes, with a placement-robust Monte Carlo test',
+  usage:
+    'Usage: gridshake sweep --points F [--area F] [--no-data F]... [--crs planar|EPSG:n] (--cells M,M,... | --per-cell K,K,...)\n' +
+    '                       [--placements N] [--no-rotation] [--min-coverage T] [--alpha A] [--sims R] [--seed S]\n' +
+    '                       --out DIR',
+  options: OPTIONS,
+  run: runSweepCommand,
+};

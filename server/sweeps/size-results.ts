@@ -1,0 +1,71 @@
+/**
+ * Collects the chunk results of one cell size into placement rows and the observed / simulated chi2/df
+ * matrices, then summarises them (server/summary). Chunks may arrive in any order; the result does not depend
+ * on it, so it does not depend on the number of threads either.
+ */
+import type { PlacementRow, SizeSummary } from '../contracts.js';
+import { placementRobustTest } from '../summary/placement-robust-test.js';
+import { summarizeSize } from '../summary/size-summary.js';
+import { decodeStatistics, STATISTICS_FIELDS } from '../../workers/sweep/statistics-codec.js';
+import { simulatedFlagOffset, simulatedValueOffset } from '../../workers/sweep/sweep-task.js';
+
+export class SizeResults {
+  readonly rows: PlacementRow[];
+  private readonly observed: Float64Array;
+  private readonly observedSignificant: Uint8Array;
+  private readonly simulated: Float64Array;
+  private readonly simulatedSignificant: Uint8Array;
+
+  constructor(
+    readonly sizeIndex: number,
+    readonly cellSize: number,
+    private readonly placements: Float64Array,
+    private readonly sims: number,
+  ) {
+    const count = placements.length / 3;
+    this.rows = new Array<PlacementRow>(count);
+    this.observed = new Float64Array(count);
+    this.observedSignificant = new Uint8Array(count);
+    this.simulated = new Float64Array(count * sims);
+    this.simulatedSignificant = new Uint8Array(count * sims);
+  }
+
+  /** Stores the result of the chunk of placements first .. first + count - 1. Cost O(count (F + R)). */
+  addChunk(first: number, count: number, result: Float64Array): void {
+    const total = this.placements.length / 3;
+    for (let j = 0; j < count; j++) {
+      const index = first + j;
+      const stats = decodeStatistics(result, j * STATISTICS_FIELDS);
+      this.rows[index] = {
+        sizeIndex: this.sizeIndex,
+        cellSize: this.cellSize,
+        placementIndex: index,
+        u: this.placements[3 * index],
+        v: this.placements[3 * index + 1],
+        angle: this.placements[3 * index + 2],
+        ...stats,
+      };
+      this.observed[index] = stats.chi2PerDf;
+      this.observedSignificant[index] = stats.verdict === 'csr' ? 0 : 1;
+      for (let r = 0; r < this.sims; r++) {
+        this.simulated[r * total + index] = result[simulatedValueOffset(count, this.sims, j, r)];
+        this.simulatedSignificant[r * total + index] = result[simulatedFlagOffset(count, this.sims, j, r)];
+      }
+    }
+  }
+
+  /** The size summary with the placement-robust Monte Carlo test when sims > 0. */
+  summarize(): SizeSummary {
+    const monteCarlo =
+      this.sims > 0
+        ? placementRobustTest({
+            observed: this.observed,
+            observedSignificant: this.observedSignificant,
+            simulated: this.simulated,
+            simulatedSignificant: this.simulatedSignificant,
+            sims: this.sims,
+          })
+        : null;
+    return summarizeSize(this.rows, monteCarlo);
+  }
+}

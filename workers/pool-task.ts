@@ -1,0 +1,52 @@
+/**
+ * The piscina task entry: one function of one task object. It only builds (and caches per dataset) the engine's
+ * counters from shared memory and calls the pure chunk and simulation kernels of workers/sweep.
+ */
+import { move } from 'piscina';
+import { createCellCounter } from './placement/index.js';
+import type { Region } from './types.js';
+import { evaluateChunk, type PatternCounter } from './sweep/evaluate-chunk.js';
+import { unpackRegion } from './sweep/region-buffer.js';
+import { simulatePatterns } from './sweep/simulate-patterns.js';
+import type { ChunkTask, SimulateTask, SweepTask } from './sweep/sweep-task.js';
+import { TaskCache } from './sweep/task-cache.js';
+
+interface DatasetEntry {
+  region: Region;
+  observed: PatternCounter;
+}
+
+const datasets = new TaskCache<DatasetEntry>();
+const regions = new TaskCache<Region>();
+const simulations = new TaskCache<PatternCounter[]>();
+
+function runChunk(task: ChunkTask): Float64Array {
+  const dataset = datasets.get(task.datasetKey, () => ({
+    region: unpackRegion(task.region),
+    observed: createCellCounter(new Float64Array(task.points), task.origin),
+  }));
+  let simulated: PatternCounter[] = [];
+  if (task.simulated !== null && task.simulationKey !== null && task.sims > 0) {
+    const buffer = task.simulated;
+    const length = new Float64Array(task.points).length;
+    simulated = simulations.get(task.simulationKey, () =>
+      Array.from({ length: task.sims }, (_, r) => createCellCounter(new Float64Array(buffer, r * length * 8, length), task.origin)),
+    );
+  }
+  return evaluateChunk(
+    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, minCoverage: task.minCoverage, alpha: task.alpha },
+    task.placements,
+  );
+}
+
+function runSimulate(task: SimulateTask): number {
+  const region = regions.get(task.regionKey, () => unpackRegion(task.region));
+  simulatePatterns(region, task.pointCount, task.seed, task.first, task.count, new Float64Array(task.simulated));
+  return task.count;
+}
+
+export default function poolTask(task: SweepTask): unknown {
+  if (task.kind === 'simulate') return runSimulate(task);
+  const result = runChunk(task);
+  return move(result);
+}
