@@ -28,12 +28,16 @@ const HELP: OptionSpec = { type: 'boolean', description: 'show this help' };
 
 export function parseOptions(argv: string[], specs: OptionSpecs): OptionValues {
   const options: Record<string, { type: 'string' | 'boolean'; multiple?: boolean }> = { help: { type: 'boolean' } };
-  for (const [name, spec] of Object.entries(specs)) options[name] = { type: spec.type, multiple: spec.multiple };
+  for (const [name, spec] of Object.entries(specs)) {
+    options[name] = spec.multiple === true ? { type: spec.type, multiple: true } : { type: spec.type };
+  }
   try {
     const { values, positionals } = parseArgs({ args: argv, options, strict: true, allowPositionals: true });
     if (positionals.length > 0) throw new UsageError(`unexpected argument '${positionals[0]}'`);
     return values as OptionValues;
   } catch (error) {
+    const code = (error as { code?: unknown }).code;
+    if (!(error instanceof UsageError) && !(typeof code === 'string' && code.startsWith('ERR_PARSE_ARGS'))) throw error;
     if (error instanceof UsageError) throw error;
     const message = error instanceof Error ? error.message : String(error);
     throw new UsageError(message.replace(/\. To specify a positional argument.*$/s, ''));

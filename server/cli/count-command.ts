@@ -2,6 +2,7 @@
  * `gridshake count`: the quadrat test for one grid placement and one cell size (shared/design.md, command line).
  * Reads the files, builds the dataset, counts through the engine and prints plain words or one JSON object.
  */
+import { DEFAULT_PLAN } from '../contracts.js';
 import { parameterError } from '../errors.js';
 import { loadDataset, summarizeDataset } from '../inputs/index.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
@@ -22,8 +23,8 @@ import type { CountResult } from './count-result.js';
 import { formatCount } from './format-count.js';
 import { readInputFile } from './read-input-file.js';
 
-/** Defaults of a single count: whole cells only and the usual 5 % level. */
-export const COUNT_DEFAULTS = Object.freeze({ minCoverage: 1, alpha: 0.05 });
+/** Defaults of a single count: the sweep plan's, so that count and a sweep's reference placement agree. */
+export const COUNT_DEFAULTS = Object.freeze({ minCoverage: DEFAULT_PLAN.minCoverage, alpha: DEFAULT_PLAN.alpha });
 
 const OPTIONS: OptionSpecs = {
   points: { type: 'string', value: 'FILE', description: 'points: CSV with a header row, or GeoJSON Point features' },
@@ -33,7 +34,7 @@ const OPTIONS: OptionSpecs = {
   cell: { type: 'string', value: 'M', description: 'cell side in metres' },
   angle: { type: 'string', value: 'DEG', description: 'grid rotation, degrees counter-clockwise in [0, 90); default 0' },
   offset: { type: 'string', value: 'U,V', description: 'grid offset in cell units, each in [0, 1); default 0,0' },
-  'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 1' },
+  'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
   alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
   x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
   y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
