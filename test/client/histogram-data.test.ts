@@ -50,7 +50,9 @@ describe('monteCarloHistograms(result)', () => {
 });
 
 describe('stepPoints(edges, counts)', () => {
-  it('gives one vertex per bin and closes the last bin at zero', () => {
-    expect(stepPoints([0, 1, 2], [2, 3])).toEqual([{ x: 0, y: 2 }, { x: 1, y: 3 }, { x: 2, y: 0 }]);
+  it('outlines each bar: up at the first edge, across every bin at its count, down after the last', () => {
+    expect(stepPoints([0, 1, 2], [2, 3])).toEqual([
+      { x: 0, y: 0 }, { x: 0, y: 2 }, { x: 1, y: 2 }, { x: 1, y: 3 }, { x: 2, y: 3 }, { x: 2, y: 0 },
+    ]);
   });
 });

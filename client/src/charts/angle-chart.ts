@@ -37,6 +37,7 @@ export function angleChartSpec(series: AngleSeries, cellSizeLabel: string): Char
       backgroundColor: OKABE_ITO.yellow,
       borderColor: NEUTRAL.ink,
       borderWidth: 1.5,
+      clip: 12,
       order: 1,
     });
   }

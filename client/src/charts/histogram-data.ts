@@ -64,11 +64,15 @@ export function monteCarloHistograms(result: MonteCarloResult): MonteCarloHistog
 }
 
 /**
- * A histogram as the vertices of a step line (chart.js `stepped: 'after'`): (edge_i, count_i) for each bin and a
- * final (edge_k, 0) closing the last bin.
+ * A histogram's outline as the vertices of a plain polyline: up from the baseline at the first edge, across each
+ * bin at its count, down to the baseline after the last: (e0, 0), (e0, c0), (e1, c0), (e1, c1), ..., (ek, c_k-1),
+ * (ek, 0). Filled to the origin it draws the bars without relying on a stepped-line mode.
  */
 export function stepPoints(edges: readonly number[], counts: readonly number[]): { x: number; y: number }[] {
-  const points = counts.map((count, bin) => ({ x: edges[bin], y: count }));
+  const points: { x: number; y: number }[] = [{ x: edges[0], y: 0 }];
+  counts.forEach((count, bin) => {
+    points.push({ x: edges[bin], y: count }, { x: edges[bin + 1], y: count });
+  });
   points.push({ x: edges[edges.length - 1], y: 0 });
   return points;
 }

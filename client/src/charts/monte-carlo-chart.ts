@@ -15,7 +15,7 @@ export function monteCarloChartSpec(histograms: MonteCarloHistograms, result: Mo
     type: 'line',
     label,
     data: stepPoints(histograms.edges, counts),
-    stepped: 'after',
+    tension: 0,
     fill: 'origin',
     borderColor: colour,
     backgroundColor: withAlpha(colour, 0.3),
@@ -43,7 +43,7 @@ export function monteCarloChartSpec(histograms: MonteCarloHistograms, result: Mo
     `Maximum across placements (worst-case choice of grid): p = ${formatP(result.pMaxClustered)} for clustering.`,
   ];
   const options = baseOptions('Monte Carlo test against CSR: chi-square / df across placements', subtitle, {
-    x: axis('chi-square / df, median or maximum over placements (ratio)', { type: 'linear' }),
+    x: axis('chi-square / df, median or maximum over placements (ratio)', { type: 'linear', grace: '4%' }),
     y: axis('simulated patterns (count)', { min: 0, max: Math.ceil(top) }),
   });
   return { type: 'scatter', data: { datasets }, options };

@@ -1,0 +1,92 @@
+/**
+ * The methods paragraphs of the report, written from the actual run: what was varied, how no-data and partial
+ * cells were handled, how the p-values were calibrated, with the references. Plain text; the renderer escapes it.
+ */
+import type { SweepSummary } from '../contracts.js';
+import { formatMetres, formatNumber } from '../../client/src/charts/format.js';
+
+export interface Reference {
+  key: string;
+  text: string;
+}
+
+export const REFERENCES: Record<string, Reference> = {
+  besagDiggle: { key: 'Besag and Diggle 1977', text: 'Besag, J. and Diggle, P. J. (1977). Simple Monte Carlo tests for spatial pattern. Applied Statistics 26(3), 327-333.' },
+  fisher: { key: 'Fisher, Thornton and Mackenzie 1922', text: 'Fisher, R. A., Thornton, H. G. and Mackenzie, W. A. (1922). The accuracy of the plating method of estimating the density of bacterial populations. Annals of Applied Biology 9, 325-359.' },
+  halton: { key: 'Halton 1960', text: 'Halton, J. H. (1960). On the efficiency of certain quasi-random sequences of points in evaluating multi-dimensional integrals. Numerische Mathematik 2, 84-90.' },
+  openshaw: { key: 'Openshaw 1984', text: 'Openshaw, S. (1984). The Modifiable Areal Unit Problem. Concepts and Techniques in Modern Geography 38. Norwich: Geo Books.' },
+};
+
+function list(values: readonly string[]): string {
+  if (values.length <= 1) return values.join('');
+  return `${values.slice(0, -1).join(', ')} and ${values[values.length - 1]}`;
+}
+
+function variedText(summary: SweepSummary): string {
+  const { plan } = summary;
+  const sides = list(summary.sizes.map((size) => formatMetres(size.cellSize)));
+  const sizeSource = plan.perCell
+    ? ` (from ${list(plan.perCell.map((k) => formatNumber(k)))} expected points per cell, side = sqrt(k A / n))`
+    : '';
+  const design = plan.design === 'halton'
+    ? `offsets (u, v) in cell units taken from a Halton low-discrepancy sequence in bases 2, 3 and 5 (${REFERENCES.halton.key})`
+    : 'offsets (u, v) in cell units taken on a regular lattice';
+  const rotation = plan.rotation
+    ? `${design}, and grid angles spread over 0 to 90 degrees (the period of square cells)`
+    : `${design}; rotation was off, so every grid kept angle 0`;
+  return (
+    `The quadrat test was repeated over ${plan.placements} grid placements for each of ${summary.sizes.length} cell ` +
+    `size${summary.sizes.length === 1 ? '' : 's'}: square cells of side ${sides}${sizeSource}. Placements used ${rotation}. ` +
+    'The reference placement (angle 0, offset (0, 0), origin at the lower-left corner of the study area\'s bounding box) ' +
+    'is the grid a default analysis would use; its rank among the placements shows how typical that choice is ' +
+    `(the modifiable areal unit problem, ${REFERENCES.openshaw.key}).`
+  );
+}
+
+function cellsText(summary: SweepSummary): string {
+  const { plan, dataset } = summary;
+  const threshold = plan.minCoverage >= 1
+    ? 'only whole cells (coverage 1) were kept'
+    : `cells with coverage below ${formatNumber(plan.minCoverage)} were left out and the partial cells kept were weighted by their valid area`;
+  const outside = dataset.nOutside > 0
+    ? ` ${dataset.nOutside} of the ${dataset.n} points lie outside the valid region and were never counted.`
+    : ' Every point lies inside the valid region.';
+  const area = dataset.areaIsDefault ? ' No study area was supplied, so the points\' bounding box was used.' : '';
+  return (
+    'The valid region is the study area minus the no-data zones. The coverage of each cell, the share of its area ' +
+    `inside the valid region, was computed exactly from the polygons, not by sampling; ${threshold}. Each kept cell ` +
+    'c has the expected count E_c = N a_c / (sum of a), with a_c its valid area and N the points in kept cells, and ' +
+    'the index-of-dispersion chi-square sum (O_c - E_c)^2 / E_c on m - 1 degrees of freedom ' +
+    `(${REFERENCES.fisher.key}) gives each placement a verdict at alpha = ${formatNumber(plan.alpha)}, two-sided ` +
+    `(each tail alpha / 2).${outside}${area}`
+  );
+}
+
+function calibrationText(summary: SweepSummary): string {
+  const { plan, dataset } = summary;
+  if (plan.sims <= 0) {
+    return (
+      'No CSR simulations were run: the per-placement p-values come from the chi-square distribution and are not ' +
+      'corrected for the choice among placements, so a significant result on some grids does not make the pattern ' +
+      'significant.'
+    );
+  }
+  return (
+    `The p-values were calibrated by Monte Carlo (${REFERENCES.besagDiggle.key}): ${plan.sims} patterns of complete ` +
+    `spatial randomness, each of ${dataset.nInside} points placed uniformly in the valid region, were counted on ` +
+    'the same placements as the data. The placement-robust p-value for clustering is (1 + number of simulated ' +
+    'medians of chi-square / df at or above the observed median) / (R + 1), with R the number of simulations, and ' +
+    'likewise at or below for regularity; the same test on the maximum across placements answers the worst case ' +
+    'of picking the most striking grid. The CSR envelope is the 2.5 to 97.5 % range of the simulated medians. ' +
+    `The random seed was ${plan.seed}, so the run can be repeated exactly.`
+  );
+}
+
+/** The methods paragraphs and the references they cite, in order of first use. */
+export function methodsText(summary: SweepSummary): { paragraphs: string[]; references: string[] } {
+  const paragraphs = [variedText(summary), cellsText(summary), calibrationText(summary)];
+  const cited = [REFERENCES.halton, REFERENCES.openshaw, REFERENCES.fisher, REFERENCES.besagDiggle].filter((reference) =>
+    paragraphs.some((paragraph) => paragraph.includes(reference.key)),
+  );
+  return { paragraphs, references: cited.map((reference) => reference.text) };
+}

@@ -1,0 +1,94 @@
+/** The text sections of the report: dataset, plan, per-size table, Monte Carlo results, versions. */
+import type { SweepSummary } from '../contracts.js';
+import { formatArea, formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
+import { escapeHtml } from './html-escape.js';
+import { definitionTable, htmlTable } from './html-table.js';
+
+export function datasetSection(summary: SweepSummary): string {
+  const dataset = summary.dataset;
+  const entries: [string, string][] = [
+    ['name', dataset.name],
+    ['coordinate system', dataset.crs],
+    ['points in the data', String(dataset.n)],
+    ['points inside the valid region', String(dataset.nInside)],
+    ['points outside (never counted)', String(dataset.nOutside)],
+    ['study area', `${formatArea(dataset.studyAreaArea)}${dataset.areaIsDefault ? ' (bounding box of the points: no area given)' : ''}`],
+    ['valid region (study area minus no-data zones)', formatArea(dataset.validArea)],
+  ];
+  const warnings = dataset.warnings.length === 0
+    ? '<p>The inputs raised no warnings.</p>'
+    : `<ul class="warnings">${dataset.warnings
+        .map((warning) => `<li><code>${escapeHtml(warning.code)}</code> ${escapeHtml(warning.message)}${warning.ids && warning.ids.length > 0 ? ` (records ${escapeHtml(warning.ids.join(', '))})` : ''}</li>`)
+        .join('')}</ul>`;
+  return `<section><h2>Dataset</h2>${definitionTable('Dataset summary', entries)}<h3>Input warnings</h3>${warnings}</section>`;
+}
+
+export function planSection(summary: SweepSummary): string {
+  const plan = summary.plan;
+  const sides = plan.perCell
+    ? `${summary.sizes.map((size) => formatMetres(size.cellSize)).join(', ')} (from ${plan.perCell.join(', ')} expected points per cell)`
+    : summary.sizes.map((size) => formatMetres(size.cellSize)).join(', ');
+  const entries: [string, string][] = [
+    ['cell sides', sides],
+    ['placements per size', String(plan.placements)],
+    ['placement design', plan.design],
+    ['rotation', plan.rotation ? 'on (0 to 90 degrees)' : 'off (angle 0)'],
+    ['minCoverage', formatNumber(plan.minCoverage)],
+    ['alpha (two-sided)', formatNumber(plan.alpha)],
+    ['CSR simulations', String(plan.sims)],
+    ['seed', String(plan.seed)],
+  ];
+  return `<section><h2>Plan</h2>${definitionTable('Sweep plan', entries)}</section>`;
+}
+
+export function sizeTable(summary: SweepSummary): string {
+  const rows = [...summary.sizes]
+    .sort((a, b) => a.cellSize - b.cellSize)
+    .map((size) => [
+      formatMetres(size.cellSize),
+      formatNumber(size.expectedPerCell),
+      String(size.placements),
+      formatNumber(size.chi2PerDf.p50),
+      `${formatNumber(size.chi2PerDf.p5)} to ${formatNumber(size.chi2PerDf.p95)}`,
+      formatNumber(size.vmr.p50),
+      formatPercent(size.verdictShares.clustered),
+      formatPercent(size.verdictShares.csr),
+      formatPercent(size.verdictShares.regular),
+      formatPercent(size.agreement),
+      `${formatNumber(size.reference.vmr)} (${formatPercent(size.referenceRank)})`,
+      formatP(size.monteCarlo?.pMedianClustered),
+    ]);
+  const head = ['cell side', 'expected per cell', 'placements', 'median chi2/df', 'chi2/df 5-95 %', 'median VMR', 'clustered', 'CSR', 'regular', 'agreement', 'reference VMR (rank)', 'Monte Carlo p (median)'];
+  return htmlTable('Results per cell size', head, rows);
+}
+
+export function monteCarloSection(summary: SweepSummary): string {
+  const simulated = summary.sizes.filter((size) => size.monteCarlo && size.monteCarlo.sims > 0);
+  if (simulated.length === 0) return '<section><h2>Monte Carlo test</h2><p>No CSR simulations were run (sims = 0).</p></section>';
+  const rows = simulated
+    .sort((a, b) => a.cellSize - b.cellSize)
+    .map((size) => {
+      const result = size.monteCarlo!;
+      const meanShare = result.simulatedShareSignificant.reduce((sum, share) => sum + share, 0) / Math.max(1, result.simulatedShareSignificant.length);
+      return [
+        formatMetres(size.cellSize),
+        String(result.sims),
+        formatNumber(result.observedMedian),
+        `${formatNumber(result.envelope.lo)} to ${formatNumber(result.envelope.hi)}`,
+        formatP(result.pMedianClustered),
+        formatP(result.pMedianRegular),
+        formatNumber(result.observedMax),
+        formatP(result.pMaxClustered),
+        formatP(result.pMinRegular),
+        `${formatPercent(result.observedShareSignificant)} (CSR: ${formatPercent(meanShare)})`,
+      ];
+    });
+  const head = ['cell side', 'sims', 'observed median chi2/df', 'CSR envelope', 'p clustered (median)', 'p regular (median)', 'observed maximum', 'p clustered (maximum)', 'p regular (minimum)', 'placements significant'];
+  return `<section><h2>Monte Carlo test</h2>${htmlTable('Placement-robust Monte Carlo p-values', head, rows)}</section>`;
+}
+
+export function versionsSection(summary: SweepSummary): string {
+  const entries: [string, string][] = Object.entries(summary.versions).map(([name, version]) => [name, version]);
+  entries.push(['seed', String(summary.plan.seed)], ['started', summary.timings.startedAt], ['finished', summary.timings.finishedAt], ['run time', `${formatNumber(summary.timings.seconds)} s`]);
+  return `<section><h2>Versions and seed</h2>${definitionTable('Software versions, seed and timing', entries)}</section>`;
+}
