@@ -28,6 +28,9 @@ interface DatasetRow {
   sample_id: string | null;
 }
 
+/** A dataset summary as stored: with its id, creation time and, for a demo scenario, the sample's folder name. */
+export type StoredDatasetSummary = DatasetSummary & { id: string; createdAt: string; sample: string | null };
+
 type DatasetMeta = Omit<Dataset, 'xy' | 'ids' | 'inside' | 'region'> & {
   region: Omit<Dataset['region'], 'rings'>;
 };
@@ -36,10 +39,10 @@ export class DatasetStore {
   constructor(private readonly db: Database.Database) {}
 
   /** Store a dataset and its summary; returns the summary with its new id and creation time. */
-  insert(dataset: Dataset, summary: DatasetSummary, sampleId: string | null = null): DatasetSummary {
+  insert(dataset: Dataset, summary: DatasetSummary, sampleId: string | null = null): StoredDatasetSummary {
     const id = randomUUID();
     const createdAt = new Date().toISOString();
-    const stored: DatasetSummary = { ...summary, id, createdAt };
+    const stored: StoredDatasetSummary = { ...summary, id, createdAt, sample: sampleId };
     const { xy, ids, inside, region, ...plain } = dataset;
     const meta: DatasetMeta = { ...plain, region: { area: region.area, bbox: region.bbox } };
     const write = this.db.transaction(() => {
@@ -65,11 +68,11 @@ export class DatasetStore {
     return stored;
   }
 
-  list(): DatasetSummary[] {
+  list(): StoredDatasetSummary[] {
     const rows = this.db
       .prepare('SELECT summary_json FROM datasets ORDER BY created_at, rowid')
       .all() as Pick<DatasetRow, 'summary_json'>[];
-    return rows.map((row) => fromStoredJson<DatasetSummary>(row.summary_json));
+    return rows.map((row) => fromStoredJson<StoredDatasetSummary>(row.summary_json));
   }
 
   count(): number {
@@ -77,11 +80,11 @@ export class DatasetStore {
     return row.n;
   }
 
-  summary(id: string): DatasetSummary | undefined {
+  summary(id: string): StoredDatasetSummary | undefined {
     const row = this.db.prepare('SELECT summary_json FROM datasets WHERE id = ?').get(id) as
       | Pick<DatasetRow, 'summary_json'>
       | undefined;
-    return row === undefined ? undefined : fromStoredJson<DatasetSummary>(row.summary_json);
+    return row === undefined ? undefined : fromStoredJson<StoredDatasetSummary>(row.summary_json);
   }
 
   /** The full dataset, as server/inputs built it, ready for the engine. */

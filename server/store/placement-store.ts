@@ -26,6 +26,14 @@ export class PlacementStore {
     return chunks.flatMap((chunk) => fromStoredJson<PlacementRow[]>(chunk.rows_json));
   }
 
+  /** The rows of one chunk (empty when there is no such chunk). */
+  readChunk(sweepId: string, chunk: number): PlacementRow[] {
+    const row = this.db
+      .prepare('SELECT rows_json FROM placement_chunks WHERE sweep_id = ? AND chunk = ?')
+      .get(sweepId, chunk) as { rows_json: string } | undefined;
+    return row === undefined ? [] : fromStoredJson<PlacementRow[]>(row.rows_json);
+  }
+
   /** How many chunks a sweep has stored. */
   chunkCount(sweepId: string): number {
     const row = this.db.prepare('SELECT COUNT(*) AS n FROM placement_chunks WHERE sweep_id = ?').get(sweepId) as {

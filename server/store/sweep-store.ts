@@ -16,6 +16,8 @@ export interface SweepRecord {
   status: SweepStatus;
   progress: SweepProgress;
   summary: SweepSummary | null;
+  /** the summary's overall conclusion (also when the summary itself is not read) */
+  conclusion: string | null;
   error: string | null;
   rerunOf: string | null;
   createdAt: string;
@@ -31,12 +33,17 @@ interface SweepRow {
   status: SweepStatus;
   progress_json: string;
   summary_json: string | null;
+  conclusion: string | null;
   error: string | null;
   rerun_of: string | null;
   created_at: string;
   started_at: string | null;
   finished_at: string | null;
 }
+
+const LIST_COLUMNS = `SELECT id, dataset_id, plan_json, estimate_json, status, progress_json, NULL AS summary_json,
+  json_extract(summary_json, '$.conclusion') AS conclusion, error, rerun_of, created_at, started_at, finished_at
+  FROM sweeps`;
 
 export const FINISHED_STATUSES: readonly SweepStatus[] = ['done', 'failed', 'cancelled', 'interrupted'];
 
@@ -49,6 +56,7 @@ function toRecord(row: SweepRow, withSummary: boolean): SweepRecord {
     status: row.status,
     progress: fromStoredJson<SweepProgress>(row.progress_json),
     summary: withSummary && row.summary_json !== null ? fromStoredJson<SweepSummary>(row.summary_json) : null,
+    conclusion: row.conclusion,
     error: row.error,
     rerunOf: row.rerun_of,
     createdAt: row.created_at,
@@ -81,7 +89,7 @@ export class SweepStore {
   }
 
   get(id: string): SweepRecord | undefined {
-    const row = this.db.prepare('SELECT * FROM sweeps WHERE id = ?').get(id) as SweepRow | undefined;
+    const row = this.db.prepare(`SELECT *, json_extract(summary_json, '$.conclusion') AS conclusion FROM sweeps WHERE id = ?`).get(id) as SweepRow | undefined;
     return row === undefined ? undefined : toRecord(row, true);
   }
 
@@ -89,8 +97,8 @@ export class SweepStore {
   list(datasetId?: string): SweepRecord[] {
     const rows = (
       datasetId === undefined
-        ? this.db.prepare('SELECT * FROM sweeps ORDER BY created_at DESC, rowid DESC').all()
-        : this.db.prepare('SELECT * FROM sweeps WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC').all(datasetId)
+        ? this.db.prepare(`${LIST_COLUMNS} ORDER BY created_at DESC, rowid DESC`).all()
+        : this.db.prepare(`${LIST_COLUMNS} WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC`).all(datasetId)
     ) as SweepRow[];
     return rows.map((row) => toRecord(row, false));
   }

@@ -1,0 +1,127 @@
+/**
+ * buildApp(options): the gridshake HTTP app (Fastify), apart from listen (server/cli/serve-command.ts listens).
+ * Opens the store, marks sweeps left running by an earlier process `interrupted`, builds the services and the sweep
+ * queue on one worker pool, installs the request guards and the one error handler, and registers the routes.
+ * Closing the app stops the queue (running sweeps become `interrupted`), the pool and the store.
+ */
+import fastifyMultipart from '@fastify/multipart';
+import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import type { AddressInfo } from 'node:net';
+import { registerClientStatic } from './routes/client-static.js';
+import { registerDatasetRoutes, MAX_NO_DATA_FILES } from './routes/dataset-routes.js';
+import { ERROR_SCHEMA, installErrorHandling } from './routes/error-handler.js';
+import { registerHealthRoutes } from './routes/health-routes.js';
+import { DATASET_SUMMARY_SCHEMA, SWEEP_SCHEMA } from './routes/schemas/common-schemas.js';
+import { registerSweepEventsRoute } from './routes/sweep-events-route.js';
+import { registerSweepExportRoutes } from './routes/sweep-export-routes.js';
+import { registerSweepRoutes } from './routes/sweep-routes.js';
+import { formatValidationErrors } from './routes/validation-message.js';
+import { createHostPolicy } from './security/allowed-hosts.js';
+import { installRequestGuards } from './security/request-guards.js';
+import { DatasetService } from './services/dataset-service.js';
+import { DEFAULT_CLIENT_DIR, PACKAGE_VERSION } from './services/project-paths.js';
+import { SweepExports } from './services/sweep-exports.js';
+import { SweepQueue } from './services/sweep-queue.js';
+import type { SweepRunner } from './services/sweep-runner.js';
+import { SweepService } from './services/sweep-service.js';
+import { GridshakeStore } from './store/store.js';
+import { SweepPool } from './sweeps/sweep-pool.js';
+import { workBudgetFromEnv } from './sweeps/sweep-budget.js';
+
+export const DEFAULT_BODY_LIMIT = 64 * 1024 * 1024;
+export const DEFAULT_MAX_POINTS = 2_000_000;
+
+export interface AppOptions {
+  /** data folder of the SQLite store (default ./.gridshake); ':memory:' for a throw-away store */
+  dataDir?: string;
+  /** the address the server binds to, accepted in Host headers besides localhost (default 127.0.0.1) */
+  host?: string;
+  /** largest request body and largest uploaded file, bytes (default 64 MB) */
+  bodyLimit?: number;
+  /** most points in one dataset (default 2e6) */
+  maxPoints?: number;
+  /** work budget of a sweep in point-placements (default GRIDSHAKE_WORK_BUDGET or the sweeps' default) */
+  workBudget?: number;
+  /** worker threads of the pool (default: one per core) */
+  threads?: number;
+  /** folder of the built page (default dist/client) */
+  clientDir?: string;
+  /** a sweep runner to use instead of a new SweepPool (it is destroyed with the app) */
+  runner?: SweepRunner;
+  logger?: FastifyServerOptions['logger'];
+}
+
+export interface GridshakeServices {
+  store: GridshakeStore;
+  queue: SweepQueue;
+  datasets: DatasetService;
+  sweeps: SweepService;
+  runner: SweepRunner;
+  /** ids of the sweeps found queued or running at start and marked interrupted */
+  interruptedAtStart: string[];
+}
+
+declare module 'fastify' {
+  interface FastifyInstance {
+    gridshake: GridshakeServices;
+  }
+}
+
+export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
+  const bodyLimit = options.bodyLimit ?? DEFAULT_BODY_LIMIT;
+  const maxPoints = options.maxPoints ?? DEFAULT_MAX_POINTS;
+  const workBudget = options.workBudget ?? workBudgetFromEnv();
+  const store = GridshakeStore.open(options.dataDir ?? './.gridshake');
+  const interruptedAtStart = store.sweeps.markInterrupted();
+  const runner = options.runner ?? new SweepPool({ threads: options.threads, budget: workBudget });
+
+  const app = Fastify({
+    logger: options.logger ?? false,
+    bodyLimit,
+    ajv: { customOptions: { removeAdditional: false, allErrors: false } },
+    schemaErrorFormatter: formatValidationErrors,
+    return503OnClosing: true,
+  });
+  const queue = new SweepQueue(store, runner, app.log);
+  const datasets = new DatasetService(store, queue, maxPoints);
+  const sweeps = new SweepService(store, queue, workBudget);
+  app.decorate('gridshake', { store, queue, datasets, sweeps, runner, interruptedAtStart });
+
+  const policy = createHostPolicy(options.host ?? '127.0.0.1', () => {
+    const address = app.server.address() as AddressInfo | string | null;
+    return address !== null && typeof address === 'object' ? address.port : null;
+  });
+  installRequestGuards(app, policy);
+  installErrorHandling(app, { bodyLimit, fileLimit: bodyLimit });
+  app.addHook('onSend', async (_request, reply) => {
+    reply.header('x-content-type-options', 'nosniff');
+    reply.header('x-frame-options', 'DENY');
+    reply.header('referrer-policy', 'no-referrer');
+  });
+  app.addSchema(ERROR_SCHEMA);
+  app.addSchema(DATASET_SUMMARY_SCHEMA);
+  app.addSchema(SWEEP_SCHEMA);
+  await app.register(fastifyMultipart, {
+    attachFieldsToBody: true,
+    limits: { fileSize: bodyLimit, files: 2 + MAX_NO_DATA_FILES, fields: 10, fieldSize: 4096, parts: 4 + MAX_NO_DATA_FILES + 10 },
+  });
+
+  registerHealthRoutes(app, () => ({
+    version: PACKAGE_VERSION,
+    databasePath: store.path,
+    poolSize: runner.threads ?? 1,
+    datasets: store.datasets.count(),
+  }));
+  registerDatasetRoutes(app, datasets, bodyLimit);
+  registerSweepRoutes(app, sweeps);
+  registerSweepEventsRoute(app, sweeps, queue);
+  registerSweepExportRoutes(app, new SweepExports(store, datasets, sweeps));
+  await registerClientStatic(app, options.clientDir ?? DEFAULT_CLIENT_DIR);
+
+  app.addHook('onClose', async () => {
+    await queue.close();
+    await runner.destroy();
+    store.close();
+  });
+  return app;
+}

@@ -1,0 +1,161 @@
+/**
+ * Dataset routes: upload (multipart: points, area, noData files; crs, name, x, y fields), list, summary, geometry
+ * for drawing, delete. Multipart parts arrive as body fields (@fastify/multipart attachFieldsToBody) and are checked
+ * by the body schema before the handler runs.
+ */
+import type { FastifyInstance } from 'fastify';
+import type { MultipartFile, MultipartValue } from '@fastify/multipart';
+import { GridshakeError, tooLargeError } from '../errors.js';
+import type { InputFile } from '../inputs/index.js';
+import type { DatasetService } from '../services/dataset-service.js';
+import { errorResponses } from './error-handler.js';
+import { BBOX_SCHEMA, ID_PARAMS } from './schemas/common-schemas.js';
+
+/** Most no-data files in one upload. */
+export const MAX_NO_DATA_FILES = 16;
+
+const FILE_PART = {
+  type: 'object',
+  required: ['type', 'filename'],
+  properties: { type: { const: 'file' }, filename: { type: 'string', maxLength: 255 } },
+} as const;
+
+function fieldPart(value: Record<string, unknown>): Record<string, unknown> {
+  return { type: 'object', required: ['type', 'value'], properties: { type: { const: 'field' }, value } };
+}
+
+const UPLOAD_BODY = {
+  type: 'object',
+  required: ['points'],
+  additionalProperties: false,
+  properties: {
+    points: FILE_PART,
+    area: FILE_PART,
+    noData: { anyOf: [FILE_PART, { type: 'array', maxItems: MAX_NO_DATA_FILES, items: FILE_PART }] },
+    crs: fieldPart({ type: 'string', maxLength: 40 }),
+    name: fieldPart({ type: 'string', maxLength: 200 }),
+    x: fieldPart({ type: 'string', maxLength: 100 }),
+    y: fieldPart({ type: 'string', maxLength: 100 }),
+    id: fieldPart({ type: 'string', maxLength: 100 }),
+  },
+} as const;
+
+const GEOMETRY_RESPONSE = {
+  type: 'object',
+  required: ['points', 'pointInside', 'totalPoints', 'stride', 'studyArea', 'noDataZones', 'bbox'],
+  properties: {
+    points: { type: 'array', items: { type: 'number' } },
+    pointInside: { type: 'array', items: { type: 'integer' } },
+    totalPoints: { type: 'integer' },
+    stride: { type: 'integer' },
+    studyArea: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
+    noDataZones: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
+    bbox: BBOX_SCHEMA,
+    origin: { type: 'object', properties: { x: { type: 'number' }, y: { type: 'number' } } },
+  },
+} as const;
+
+interface UploadBody {
+  points: MultipartFile;
+  area?: MultipartFile;
+  noData?: MultipartFile | MultipartFile[];
+  crs?: MultipartValue<string>;
+  name?: MultipartValue<string>;
+  x?: MultipartValue<string>;
+  y?: MultipartValue<string>;
+  id?: MultipartValue<string>;
+}
+
+function megabytes(bytes: number): string {
+  return `${Number((bytes / 1048576).toPrecision(3))} MB`;
+}
+
+async function toInputFile(part: MultipartFile): Promise<InputFile> {
+  return { name: part.filename, content: new Uint8Array(await part.toBuffer()) };
+}
+
+function fieldValue(part: MultipartValue<string> | undefined): string | undefined {
+  const value = part?.value.trim();
+  return value === undefined || value === '' ? undefined : value;
+}
+
+export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetService, bodyLimit: number): void {
+  app.post<{ Body: UploadBody }>(
+    '/api/datasets',
+    {
+      // before the multipart parser runs: the parser limits each file, this limits the whole request
+      onRequest: async (request) => {
+        if (!request.isMultipart()) {
+          throw new GridshakeError('GS_ERR_CONTENT_TYPE', 415, 'POST /api/datasets needs a multipart/form-data upload');
+        }
+        const length = Number(request.headers['content-length'] ?? Number.NaN);
+        if (!Number.isFinite(length)) {
+          throw new GridshakeError('GS_ERR_LENGTH_REQUIRED', 411, 'POST /api/datasets needs a Content-Length header');
+        }
+        if (length > bodyLimit) {
+          throw tooLargeError(
+            `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (--body-limit)`,
+          );
+        }
+      },
+      schema: {
+        body: UPLOAD_BODY,
+        response: { 201: { $ref: 'gsDatasetSummary#' }, ...errorResponses(400, 411, 413) },
+      },
+    },
+    async (request, reply) => {
+      const body = request.body;
+      const noDataParts = body.noData === undefined ? [] : Array.isArray(body.noData) ? body.noData : [body.noData];
+      const input = {
+        points: await toInputFile(body.points),
+        area: body.area === undefined ? undefined : await toInputFile(body.area),
+        noData: await Promise.all(noDataParts.map(toInputFile)),
+      };
+      const summary = datasets.create(input, {
+        crs: fieldValue(body.crs),
+        name: fieldValue(body.name),
+        x: fieldValue(body.x),
+        y: fieldValue(body.y),
+        id: fieldValue(body.id),
+      });
+      return reply.code(201).send(summary);
+    },
+  );
+
+  app.get(
+    '/api/datasets',
+    { schema: { response: { 200: { type: 'array', items: { $ref: 'gsDatasetSummary#' } }, ...errorResponses() } } },
+    async () => datasets.list(),
+  );
+
+  app.get<{ Params: { id: string } }>(
+    '/api/datasets/:id',
+    { schema: { params: ID_PARAMS, response: { 200: { $ref: 'gsDatasetSummary#' }, ...errorResponses(400, 404) } } },
+    async (request) => datasets.get(request.params.id),
+  );
+
+  app.get<{ Params: { id: string }; Querystring: { maxPoints?: number } }>(
+    '/api/datasets/:id/geometry',
+    {
+      schema: {
+        params: ID_PARAMS,
+        querystring: {
+          type: 'object',
+          additionalProperties: false,
+          properties: { maxPoints: { type: 'integer', minimum: 1, maximum: 100000 } },
+        },
+        response: { 200: GEOMETRY_RESPONSE, ...errorResponses(400, 404) },
+      },
+    },
+    async (request) => datasets.geometry(request.params.id, request.query.maxPoints),
+  );
+
+  app.delete<{ Params: { id: string } }>(
+    '/api/datasets/:id',
+    { schema: { params: ID_PARAMS, response: { 204: { type: 'null' }, ...errorResponses(400, 404) } } },
+    async (request, reply) => {
+      datasets.delete(request.params.id);
+      return reply.code(204).send();
+    },
+  );
+}

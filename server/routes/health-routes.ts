@@ -1,0 +1,34 @@
+/** GET /api/health: version, database path and worker pool size, for the page header and for scripts. */
+import type { FastifyInstance } from 'fastify';
+import { errorResponses } from './error-handler.js';
+
+export interface HealthInfo {
+  version: string;
+  databasePath: string;
+  poolSize: number;
+}
+
+export function registerHealthRoutes(app: FastifyInstance, health: () => HealthInfo): void {
+  app.get(
+    '/api/health',
+    {
+      schema: {
+        response: {
+          200: {
+            type: 'object',
+            required: ['status', 'version', 'databasePath', 'poolSize'],
+            properties: {
+              status: { type: 'string', enum: ['ok'] },
+              version: { type: 'string' },
+              databasePath: { type: 'string' },
+              poolSize: { type: 'integer' },
+              datasets: { type: 'integer' },
+            },
+          },
+          ...errorResponses(),
+        },
+      },
+    },
+    async () => ({ status: 'ok' as const, ...health() }),
+  );
+}

@@ -1,0 +1,73 @@
+/**
+ * Sweep routes: start (202 with the estimate; plan and budget refusals are 400 before queuing), list, get,
+ * cancel (409 once finished), rerun from the stored plan, delete.
+ */
+import type { FastifyInstance } from 'fastify';
+import type { SweepService } from '../services/sweep-service.js';
+import { errorResponses } from './error-handler.js';
+import { ID_PARAMS, PLAN_SCHEMA, SWEEP_ESTIMATE_SCHEMA } from './schemas/common-schemas.js';
+
+const START_BODY = {
+  type: 'object',
+  required: ['datasetId', 'plan'],
+  additionalProperties: false,
+  properties: { datasetId: ID_PARAMS.properties.id, plan: PLAN_SCHEMA },
+} as const;
+
+const STARTED_RESPONSE = {
+  type: 'object',
+  required: ['id', 'status', 'estimate'],
+  properties: {
+    id: { type: 'string' },
+    status: { type: 'string' },
+    estimate: SWEEP_ESTIMATE_SCHEMA,
+    queuePosition: { type: ['integer', 'null'] },
+    rerunOf: { type: ['string', 'null'] },
+  },
+} as const;
+
+export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService): void {
+  app.post<{ Body: { datasetId: string; plan: unknown } }>(
+    '/api/sweeps',
+    { schema: { body: START_BODY, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404) } } },
+    async (request, reply) => reply.code(202).send(sweeps.start(request.body.datasetId, request.body.plan)),
+  );
+
+  app.get<{ Querystring: { datasetId?: string } }>(
+    '/api/sweeps',
+    {
+      schema: {
+        querystring: { type: 'object', additionalProperties: false, properties: { datasetId: ID_PARAMS.properties.id } },
+        response: { 200: { type: 'array', items: { $ref: 'gsSweep#' } }, ...errorResponses(400) },
+      },
+    },
+    async (request) => sweeps.list(request.query.datasetId),
+  );
+
+  app.get<{ Params: { id: string } }>(
+    '/api/sweeps/:id',
+    { schema: { params: ID_PARAMS, response: { 200: { $ref: 'gsSweep#' }, ...errorResponses(400, 404) } } },
+    async (request) => sweeps.get(request.params.id),
+  );
+
+  app.post<{ Params: { id: string } }>(
+    '/api/sweeps/:id/cancel',
+    { schema: { params: ID_PARAMS, response: { 200: { $ref: 'gsSweep#' }, ...errorResponses(400, 404, 409) } } },
+    async (request) => sweeps.cancel(request.params.id),
+  );
+
+  app.post<{ Params: { id: string } }>(
+    '/api/sweeps/:id/rerun',
+    { schema: { params: ID_PARAMS, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 409) } } },
+    async (request, reply) => reply.code(202).send(sweeps.rerun(request.params.id)),
+  );
+
+  app.delete<{ Params: { id: string } }>(
+    '/api/sweeps/:id',
+    { schema: { params: ID_PARAMS, response: { 204: { type: 'null' }, ...errorResponses(400, 404) } } },
+    async (request, reply) => {
+      sweeps.delete(request.params.id);
+      return reply.code(204).send();
+    },
+  );
+}

@@ -1,0 +1,45 @@
+/**
+ * What the page needs to draw a dataset: the study area, the no-data zones and the points, decimated for large sets.
+ * Decimation is a deterministic stride: every k-th point with k = ceil(n / maxPoints), so the same dataset always
+ * draws the same points, and the drawn ones are spread over the file order (cost O(n / k)).
+ */
+import type { Dataset } from '../contracts.js';
+
+export const DEFAULT_DRAWN_POINTS = 5000;
+
+export interface DatasetGeometry {
+  /** points drawn, x,y interleaved (planar metres) */
+  points: number[];
+  /** 1 when the drawn point is inside the valid region, 0 when it lies outside (never counted) */
+  pointInside: number[];
+  /** points in the dataset, and the stride used (1 = every point drawn) */
+  totalPoints: number;
+  stride: number;
+  studyArea: number[][][][];
+  noDataZones: number[][][][];
+  bbox: Dataset['region']['bbox'];
+  origin: Dataset['origin'];
+}
+
+export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DRAWN_POINTS): DatasetGeometry {
+  const totalPoints = dataset.xy.length / 2;
+  const stride = Math.max(1, Math.ceil(totalPoints / Math.max(1, maxPoints)));
+  const isInside = new Uint8Array(totalPoints);
+  for (const index of dataset.inside) isInside[index] = 1;
+  const points: number[] = [];
+  const pointInside: number[] = [];
+  for (let index = 0; index < totalPoints; index += stride) {
+    points.push(dataset.xy[2 * index] as number, dataset.xy[2 * index + 1] as number);
+    pointInside.push(isInside[index] as number);
+  }
+  return {
+    points,
+    pointInside,
+    totalPoints,
+    stride,
+    studyArea: dataset.studyArea,
+    noDataZones: dataset.noDataZones,
+    bbox: dataset.region.bbox,
+    origin: dataset.origin,
+  };
+}

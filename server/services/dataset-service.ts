@@ -1,0 +1,54 @@
+/**
+ * Datasets: build one from uploaded files (server/inputs does the parsing and checks), store it, list, read, draw
+ * and delete. A dataset is stored only after it loaded completely, in one transaction, so a bad upload changes nothing.
+ */
+import type { Dataset } from '../contracts.js';
+import { notFoundError } from '../errors.js';
+import { loadDataset, summarizeDataset, type DatasetInput, type DatasetOptions } from '../inputs/index.js';
+import type { StoredDatasetSummary } from '../store/dataset-store.js';
+import type { GridshakeStore } from '../store/store.js';
+import { datasetGeometry, type DatasetGeometry } from './dataset-geometry.js';
+import type { SweepQueue } from './sweep-queue.js';
+
+export class DatasetService {
+  constructor(
+    private readonly store: GridshakeStore,
+    private readonly queue: SweepQueue,
+    private readonly maxPoints: number,
+  ) {}
+
+  /** Parse, validate and store; throws the inputs' coded errors (400, 413) before anything is written. */
+  create(input: DatasetInput, options: DatasetOptions, sampleId: string | null = null): StoredDatasetSummary {
+    const dataset = loadDataset(input, { ...options, maxPoints: Math.min(options.maxPoints ?? Infinity, this.maxPoints) });
+    return this.store.datasets.insert(dataset, summarizeDataset(dataset), sampleId);
+  }
+
+  list(): StoredDatasetSummary[] {
+    return this.store.datasets.list();
+  }
+
+  get(id: string): StoredDatasetSummary {
+    const summary = this.store.datasets.summary(id);
+    if (summary === undefined) throw notFoundError(`no dataset with id ${id}`);
+    return summary;
+  }
+
+  load(id: string): Dataset {
+    const dataset = this.store.datasets.load(id);
+    if (dataset === undefined) throw notFoundError(`no dataset with id ${id}`);
+    return dataset;
+  }
+
+  geometry(id: string, maxPoints?: number): DatasetGeometry {
+    return datasetGeometry(this.load(id), maxPoints);
+  }
+
+  /** Delete a dataset with its sweeps; a queued or running sweep of it is cancelled first. */
+  delete(id: string): void {
+    this.get(id);
+    for (const sweep of this.store.sweeps.list(id)) {
+      if (this.queue.isActive(sweep.id)) this.queue.cancel(sweep.id);
+    }
+    this.store.datasets.delete(id);
+  }
+}

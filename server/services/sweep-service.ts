@@ -1,0 +1,106 @@
+/**
+ * Sweeps: validate a plan against its dataset (normalizePlan, cell sizes, the work budget) and queue it, read
+ * status and summaries, cancel, rerun from the stored plan, delete. Refusals are coded 4xx errors raised before
+ * anything is stored or queued.
+ */
+import type { Plan, SweepProgress, SweepStatus } from '../contracts.js';
+import { conflictError, notFoundError } from '../errors.js';
+import type { GridshakeStore } from '../store/store.js';
+import type { SweepRecord } from '../store/sweep-store.js';
+import { FINISHED_STATUSES } from '../store/sweep-store.js';
+import { normalizePlan, resolveCellSizes } from '../sweeps/plan.js';
+import { assertWithinBudget, estimateSweep } from '../sweeps/sweep-budget.js';
+import type { SweepQueue } from './sweep-queue.js';
+
+/** A sweep as the API shows it. */
+export interface SweepView extends Omit<SweepRecord, 'summary'> {
+  datasetName: string | null;
+  /** place in the queue (0 = next) while queued, else null */
+  queuePosition: number | null;
+  conclusion: string | null;
+  summary?: SweepRecord['summary'];
+}
+
+export class SweepService {
+  constructor(
+    private readonly store: GridshakeStore,
+    private readonly queue: SweepQueue,
+    private readonly workBudget: number,
+  ) {}
+
+  /** Validate and queue a sweep of a dataset; GS_ERR_PARAMETER / GS_ERR_BUDGET (400) or 404 before queuing. */
+  start(datasetId: string, planInput: unknown, rerunOf: string | null = null): SweepView {
+    const dataset = this.store.datasets.summary(datasetId);
+    if (dataset === undefined) throw notFoundError(`no dataset with id ${datasetId}`);
+    const plan: Plan = normalizePlan(planInput);
+    resolveCellSizes(plan, dataset.validArea, dataset.nInside);
+    const estimate = estimateSweep(plan, dataset.nInside, this.workBudget);
+    assertWithinBudget(estimate);
+    const record = this.store.sweeps.create({ datasetId, plan, estimate, rerunOf });
+    this.queue.enqueue(record.id);
+    return this.view(record, false);
+  }
+
+  /** A new sweep from a finished sweep's stored plan (e.g. one interrupted by a restart). */
+  rerun(id: string): SweepView {
+    const record = this.record(id);
+    if (!FINISHED_STATUSES.includes(record.status)) {
+      throw conflictError(`sweep ${id} is ${record.status}; rerun it once it has finished, or cancel it first`);
+    }
+    return this.start(record.datasetId, record.plan, id);
+  }
+
+  list(datasetId?: string): SweepView[] {
+    return this.store.sweeps.list(datasetId).map((record) => this.view(record, false));
+  }
+
+  get(id: string): SweepView {
+    return this.view(this.record(id), true);
+  }
+
+  find(id: string): SweepRecord | undefined {
+    return this.store.sweeps.get(id);
+  }
+
+  record(id: string): SweepRecord {
+    const record = this.store.sweeps.get(id);
+    if (record === undefined) throw notFoundError(`no sweep with id ${id}`);
+    return record;
+  }
+
+  /** Progress as of now: live for the running sweep, stored for the others. */
+  progress(id: string): { status: SweepStatus; progress: SweepProgress } {
+    const record = this.record(id);
+    return { status: record.status, progress: this.queue.liveProgress(id) ?? record.progress };
+  }
+
+  /** Cancel a queued or running sweep; 409 when it has already finished. */
+  cancel(id: string): SweepView {
+    const record = this.record(id);
+    if (FINISHED_STATUSES.includes(record.status) || !this.queue.cancel(id)) {
+      throw conflictError(`sweep ${id} has already finished (${record.status}); there is nothing to cancel`);
+    }
+    return this.get(id);
+  }
+
+  delete(id: string): void {
+    this.record(id);
+    if (this.queue.isActive(id)) this.queue.cancel(id);
+    this.store.sweeps.delete(id);
+  }
+
+  private view(record: SweepRecord, withSummary: boolean): SweepView {
+    const { summary, ...rest } = record;
+    const position = this.queue.position(record.id);
+    const live = this.queue.liveProgress(record.id);
+    const view: SweepView = {
+      ...rest,
+      progress: live ?? record.progress,
+      datasetName: this.store.datasets.summary(record.datasetId)?.name ?? null,
+      queuePosition: position >= 0 ? position : null,
+      conclusion: record.conclusion,
+    };
+    if (withSummary) view.summary = summary;
+    return view;
+  }
+}
