@@ -111,6 +111,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     databasePath: store.path,
     poolSize: runner.threads ?? 1,
     datasets: store.datasets.count(),
+    workBudget,
   }));
   registerDatasetRoutes(app, datasets, bodyLimit);
   registerSweepRoutes(app, sweeps);

@@ -6,6 +6,8 @@ export interface HealthInfo {
   version: string;
   databasePath: string;
   poolSize: number;
+  /** work budget of one sweep in point-placements, for the page's live cost estimate */
+  workBudget?: number;
 }
 
 export function registerHealthRoutes(app: FastifyInstance, health: () => HealthInfo): void {
@@ -23,6 +25,7 @@ export function registerHealthRoutes(app: FastifyInstance, health: () => HealthI
               databasePath: { type: 'string' },
               poolSize: { type: 'integer' },
               datasets: { type: 'integer' },
+              workBudget: { type: 'number' },
             },
           },
           ...errorResponses(),
