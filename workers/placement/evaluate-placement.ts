@@ -1,0 +1,63 @@
+/**
+ * One placement end to end: exact coverage of its cells, the kept cells, the point counts and every dispersion
+ * statistic of the kept cells (shared/design.md, "Statistics of one placement").
+ * Cost O(cells + edge crossings + n) per call.
+ */
+import { placementCoverage } from '../geometry/coverage.js';
+import { placementStatistics } from '../stats/index.js';
+import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region } from '../types.js';
+import type { CellCounter } from './cell-counter.js';
+import { selectCells } from './select-cells.js';
+
+export interface EvaluatePlacementInput {
+  counter: Pick<CellCounter, 'count'>;
+  region: Region;
+  origin: Origin;
+  cellSize: number;
+  placement: Placement;
+  minCoverage: number;
+  alpha: number;
+  /** Optional reusable count buffer (length >= nx * ny); a new one is made when absent or too short. */
+  scratch?: Int32Array;
+}
+
+export interface EvaluatedPlacement {
+  stats: PlacementStatistics;
+  grid: CoverageGrid;
+  kept: KeptCells;
+  /** Per-grid-cell counts of this placement (length >= nx * ny, storage order of the grid). */
+  counts: Int32Array;
+}
+
+/** Counts of the kept cells, in kept order, gathered from per-grid-cell counts. Cost O(kept cells). */
+export function keptCounts(counts: Int32Array, kept: KeptCells, out?: Float64Array): Float64Array {
+  const m = kept.index.length;
+  const result = out !== undefined && out.length >= m ? out.subarray(0, m) : new Float64Array(m);
+  for (let k = 0; k < m; k++) result[k] = counts[kept.index[k]!]!;
+  return result;
+}
+
+function describePlacement(cellSize: number, placement: Placement): string {
+  return `cells of ${cellSize} m at offset (${placement.u}, ${placement.v}) and angle ${placement.angle} deg`;
+}
+
+/**
+ * Evaluate one placement. Throws a RangeError when fewer than 2 cells are kept (the message says at least 2 are
+ * needed and how to get them).
+ */
+export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlacement {
+  const { counter, region, origin, cellSize, placement, minCoverage, alpha } = input;
+  const grid = placementCoverage(region, origin, cellSize, placement);
+  const kept = selectCells(grid, minCoverage);
+  if (kept.index.length < 2) {
+    throw new RangeError(
+      `${describePlacement(cellSize, placement)} keep ${kept.index.length} cell(s) with coverage >= ${minCoverage}; ` +
+        'at least 2 are needed: use smaller cells or a lower minCoverage',
+    );
+  }
+  const cellCount = grid.nx * grid.ny;
+  const counts = input.scratch !== undefined && input.scratch.length >= cellCount ? input.scratch : new Int32Array(cellCount);
+  counter.count(grid, cellSize, placement, counts);
+  const stats = placementStatistics(keptCounts(counts, kept), kept.coverage, alpha);
+  return { stats, grid, kept, counts };
+}
