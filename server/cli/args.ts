@@ -108,7 +108,11 @@ export function parseOffset(raw: string, name = 'offset'): { u: number; v: numbe
   const what = 'two numbers U,V in cell units, each in [0, 1)';
   const parts = raw.split(',');
   if (parts.length !== 2) throw parameterError(`--${name} must be ${what}, got '${raw}'`);
-  const [u, v] = parts.map((part) => parseChecked(part, name, what, (x) => x >= 0 && x < 1));
+  const [u, v] = parts.map((part) => {
+    const value = NUMBER.test(part.trim()) ? Number(part.trim()) : Number.NaN;
+    if (!(value >= 0 && value < 1)) throw parameterError(`--${name} must be ${what}, got '${raw}'`);
+    return value;
+  });
   return { u, v };
 }
 
