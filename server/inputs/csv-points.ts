@@ -23,21 +23,36 @@ function startLine(parsed: ParsedRecord): number {
   return parsed.info.lines - breaks;
 }
 
-function parseRecords(fileName: string, text: string): ParsedRecord[] {
+function parseRecords<T>(fileName: string, text: string, info: boolean): T[] {
   try {
     return parse(text, {
       delimiter: detectDelimiter(text),
       record_delimiter: ['\r\n', '\n', '\r'],
       bom: true,
-      info: true,
+      info,
       trim: true,
       skip_empty_lines: true,
       relax_column_count: true,
-    }) as unknown as ParsedRecord[];
+    }) as unknown as T[];
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     throw inputError(`${fileName}: not readable as CSV: ${reason}`);
   }
+}
+
+/**
+ * Physical line numbers of the records (header excluded), computed only when a message needs one: parsing with
+ * line information costs about twice as much, so the first pass goes without it.
+ */
+function lazyLines(fileName: string, text: string): (index: number) => number {
+  let lines: Int32Array | null = null;
+  return (index) => {
+    if (lines === null) {
+      const records = parseRecords<ParsedRecord>(fileName, text, true).slice(1);
+      lines = Int32Array.from(records.map(startLine));
+    }
+    return lines[index];
+  };
 }
 
 export function readCsvPoints(
@@ -45,22 +60,20 @@ export function readCsvPoints(
   text: string,
   columns: { x?: string; y?: string; id?: string },
 ): RawPoints {
-  const records = parseRecords(fileName, text);
+  const records = parseRecords<string[]>(fileName, text, false);
   if (records.length === 0) throw inputError(`${fileName}: the file is empty`);
-  const header = records[0].record;
+  const header = records[0];
   const found = findCoordinateColumns(fileName, header, columns);
   const rows = records.slice(1);
   if (rows.length === 0) throw inputError(`${fileName}: no point records after the header (line 1)`);
   const coordinates = new Float64Array(rows.length * 2);
   const ids: string[] = new Array(rows.length);
-  const lines = new Int32Array(rows.length);
+  const lineOf = lazyLines(fileName, text);
   for (let k = 0; k < rows.length; k += 1) {
-    const line = startLine(rows[k]);
-    const fields = rows[k].record;
-    const where = `${fileName}: line ${line}`;
-    lines[k] = line;
+    const fields = rows[k];
+    const where = (): string => `${fileName}: line ${lineOf(k)}`;
     if (fields.length !== header.length) {
-      throw inputError(`${where}: ${fields.length} fields where the header (line 1) has ${header.length}`);
+      throw inputError(`${where()}: ${fields.length} fields where the header (line 1) has ${header.length}`);
     }
     coordinates[2 * k] = parseCoordinate(fields[found.x], where, `'${found.xName}'`);
     coordinates[2 * k + 1] = parseCoordinate(fields[found.y], where, `'${found.yName}'`);
@@ -73,6 +86,6 @@ export function readCsvPoints(
     coordinates,
     ids,
     kind: found.kind,
-    locate: (index) => `${fileName}: line ${lines[index]}`,
+    locate: (index) => `${fileName}: line ${lineOf(index)}`,
   };
 }

@@ -9,7 +9,7 @@ export function defaultAreaWarning(width: number, height: number): InputWarning 
     code: 'default-study-area',
     message:
       `no study area given: the points' bounding box (${width.toFixed(1)} m x ${height.toFixed(1)} m) is used, ` +
-      'which makes the pattern look more even near the edges than it is; give the real study area with --area',
+      'which leaves out any empty margin of the real study area (and so can understate clustering); give it with --area',
   };
 }
 

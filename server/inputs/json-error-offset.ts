@@ -5,6 +5,7 @@
 const WHITESPACE = new Set([' ', '\t', '\n', '\r']);
 const NUMBER = /-?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?/y;
 const LITERALS = ['true', 'false', 'null'];
+const ESCAPES = new Set(['"', '\\', '/', 'b', 'f', 'n', 'r', 't']);
 
 class Fail {
   constructor(readonly offset: number) {}
@@ -25,7 +26,14 @@ export function jsonErrorOffset(text: string): number | null {
     k += 1;
     while (k < text.length && text[k] !== '"') {
       if (text.charCodeAt(k) < 0x20) throw new Fail(k);
-      k += text[k] === '\\' ? 2 : 1;
+      if (text[k] === '\\') {
+        const escape = text[k + 1] ?? '';
+        if (escape === 'u') {
+          if (!/^[0-9a-fA-F]{4}$/.test(text.slice(k + 2, k + 6))) throw new Fail(k);
+          k += 6;
+        } else if (ESCAPES.has(escape)) k += 2;
+        else throw new Fail(k);
+      } else k += 1;
     }
     if (k >= text.length) throw new Fail(k);
     k += 1;

@@ -7,16 +7,17 @@ import { inputError } from '../errors.js';
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const DECIMAL_COMMA = /^[+-]?\d+,\d+$/;
 
-/** The number in `raw`, or a GS_ERR_INPUT naming `where` and the column. */
-export function parseCoordinate(raw: string, where: string, column: string): number {
+/** The number in `raw`, or a GS_ERR_INPUT naming the place (text, or a function computing it) and the column. */
+export function parseCoordinate(raw: string, place: string | (() => string), column: string): number {
   const text = raw.trim();
-  if (text === '') throw inputError(`${where}: the ${column} value is empty`);
+  const where = (): string => (typeof place === 'string' ? place : place());
+  if (text === '') throw inputError(`${where()}: the ${column} value is empty`);
   if (!DECIMAL.test(text)) {
     const hint = DECIMAL_COMMA.test(text) ? ' (a decimal comma? use a point as decimal separator)' : '';
-    throw inputError(`${where}: the ${column} value '${text}' is not a number${hint}`);
+    throw inputError(`${where()}: the ${column} value '${text}' is not a number${hint}`);
   }
   const value = Number(text);
-  if (!Number.isFinite(value)) throw inputError(`${where}: the ${column} value '${text}' is not finite`);
+  if (!Number.isFinite(value)) throw inputError(`${where()}: the ${column} value '${text}' is not finite`);
   return value;
 }
 
