@@ -1,0 +1,132 @@
+import { describe, it, expect } from 'vitest';
+import fc from 'fast-check';
+import { placementCoverage } from '../../../workers/geometry/coverage.js';
+import { cellOfPoint, createGridFrame } from '../../../workers/geometry/grid-frame.js';
+import { createCellCounter } from '../../../workers/placement/cell-counter.js';
+import { mortonCodes, mortonSort } from '../../../workers/placement/morton-sort.js';
+import type { CoverageGrid, Origin, Placement } from '../../../workers/types.js';
+import { regionFromRings } from '../geometry/region-fixtures.js';
+
+/** The grid contract computed the obvious way (grid-frame.ts, Math.floor) for every point. */
+function bruteForceCounts(xy: Float64Array, origin: Origin, grid: CoverageGrid, cellSize: number, placement: Placement): Int32Array {
+  const frame = createGridFrame(origin, cellSize, placement);
+  const counts = new Int32Array(grid.nx * grid.ny);
+  for (let p = 0; p < xy.length / 2; p++) {
+    const [i, j] = cellOfPoint(frame, xy[2 * p]!, xy[2 * p + 1]!);
+    const c = i - grid.i0;
+    const r = j - grid.j0;
+    if (c >= 0 && c < grid.nx && r >= 0 && r < grid.ny) counts[r * grid.nx + c]!++;
+  }
+  return counts;
+}
+
+const square = regionFromRings([[[0, 0], [1000, 0], [1000, 800], [0, 800]]]);
+const origin = { x: 0, y: 0 };
+
+describe('createCellCounter: the counting kernel agrees with the grid contract exactly', () => {
+  it('random points, placements and cell sizes (points also outside the grid)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: -200, max: 1200, noNaN: true }), { minLength: 2, maxLength: 600 }),
+        fc.double({ min: 0, max: 0.999999, noNaN: true }),
+        fc.double({ min: 0, max: 0.999999, noNaN: true }),
+        fc.double({ min: 0, max: 89.999, noNaN: true }),
+        fc.double({ min: 7, max: 400, noNaN: true }),
+        (values, u, v, angle, cellSize) => {
+          const xy = Float64Array.from(values.length % 2 === 0 ? values : values.slice(1));
+          const placement = { u, v, angle };
+          const grid = placementCoverage(square, origin, cellSize, placement);
+          const out = new Int32Array(grid.nx * grid.ny).fill(7);
+          const counted = createCellCounter(xy, origin).count(grid, cellSize, placement, out);
+          const expected = bruteForceCounts(xy, origin, grid, cellSize, placement);
+          expect(Array.from(out)).toEqual(Array.from(expected));
+          expect(counted).toBe(expected.reduce((a, b) => a + b, 0));
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
+  it('points exactly on grid lines and one float step either side of them (angle 0, offsets 0 and 0.5)', () => {
+    const cellSize = 0.1 * 3; // 0.30000000000000004: lines at k * s do not fall on round numbers
+    const values: number[] = [];
+    for (let k = -2; k < 40; k++) {
+      for (const shift of [0, 0.5]) {
+        const line = (k + shift) * cellSize;
+        for (const x of [line, nextDown(line), nextUp(line)]) values.push(x, 5.5 * cellSize, 3.25 * cellSize, x);
+      }
+    }
+    const xy = Float64Array.from(values);
+    const region = regionFromRings([[[0, 0], [10, 0], [10, 10], [0, 10]]]);
+    for (const placement of [{ u: 0, v: 0, angle: 0 }, { u: 0.5, v: 0.5, angle: 0 }, { u: 0.5, v: 0, angle: 0 }]) {
+      const grid = placementCoverage(region, origin, cellSize, placement);
+      const out = new Int32Array(grid.nx * grid.ny);
+      createCellCounter(xy, origin).count(grid, cellSize, placement, out);
+      expect(Array.from(out)).toEqual(Array.from(bruteForceCounts(xy, origin, grid, cellSize, placement)));
+    }
+  });
+
+  it('a grid far from the origin (large cell indices) still agrees', () => {
+    const farOrigin = { x: -3.7e6, y: 2.1e6 };
+    const region = regionFromRings([[[500000, 6000000], [503000, 6000000], [503000, 6002000], [500000, 6002000]]]);
+    const xy = new Float64Array(4000);
+    for (let p = 0; p < 2000; p++) {
+      xy[2 * p] = 500000 + ((p * 0.7548776662466927) % 1) * 3000;
+      xy[2 * p + 1] = 6000000 + ((p * 0.5698402909980532) % 1) * 2000;
+    }
+    for (const placement of [{ u: 0.25, v: 0.75, angle: 0 }, { u: 0.1, v: 0.2, angle: 41 }]) {
+      const grid = placementCoverage(region, farOrigin, 50, placement);
+      const out = new Int32Array(grid.nx * grid.ny);
+      expect(createCellCounter(xy, farOrigin).count(grid, 50, placement, out)).toBe(2000);
+      expect(Array.from(out)).toEqual(Array.from(bruteForceCounts(xy, farOrigin, grid, 50, placement)));
+    }
+  });
+
+  it('rejects a too short output and a bad cell size', () => {
+    const grid = placementCoverage(square, origin, 100, { u: 0, v: 0, angle: 0 });
+    const counter = createCellCounter(new Float64Array([1, 1]), origin);
+    expect(() => counter.count(grid, 100, { u: 0, v: 0, angle: 0 }, new Int32Array(3))).toThrow(/output holds 3 cells/);
+    expect(() => counter.count(grid, 0, { u: 0, v: 0, angle: 0 }, new Int32Array(80))).toThrow(RangeError);
+  });
+});
+
+function nextUp(x: number): number {
+  const buffer = new Float64Array([x]);
+  const bits = new BigInt64Array(buffer.buffer);
+  if (x === 0) return Number.MIN_VALUE;
+  bits[0] = bits[0]! + (x > 0 ? 1n : -1n);
+  return buffer[0]!;
+}
+
+function nextDown(x: number): number {
+  return -nextUp(-x);
+}
+
+describe('mortonSort', () => {
+  it('returns a permutation of the points ordered by Z-order code, and counts do not change', () => {
+    const n = 5000;
+    const xy = new Float64Array(2 * n);
+    for (let p = 0; p < n; p++) {
+      xy[2 * p] = ((p * 0.7548776662466927) % 1) * 1000;
+      xy[2 * p + 1] = ((p * 0.5698402909980532) % 1) * 800;
+    }
+    const sorted = mortonSort(xy);
+    const key = (a: Float64Array) => Array.from({ length: n }, (_, p) => `${a[2 * p]},${a[2 * p + 1]}`).sort();
+    expect(key(sorted)).toEqual(key(xy));
+    const codes = mortonCodes(sorted);
+    for (let p = 1; p < n; p++) expect(codes[p]!).toBeGreaterThanOrEqual(codes[p - 1]!);
+    const placement = { u: 0.3, v: 0.1, angle: 17 };
+    const grid = placementCoverage(square, origin, 40, placement);
+    const a = new Int32Array(grid.nx * grid.ny);
+    const b = new Int32Array(grid.nx * grid.ny);
+    createCellCounter(xy, origin).count(grid, 40, placement, a);
+    createCellCounter(sorted, origin).count(grid, 40, placement, b);
+    expect(Array.from(b)).toEqual(Array.from(a));
+  });
+
+  it('interleaves bits: x in even, y in odd positions (hand-worked corners of the box)', () => {
+    // points (0,0), (max,0), (0,max), (max,max): codes 0, 0x55555555, 0xaaaaaaaa, 0xffffffff
+    const codes = mortonCodes(Float64Array.from([0, 0, 1, 0, 0, 1, 1, 1]));
+    expect(Array.from(codes)).toEqual([0, 0x55555555, 0xaaaaaaaa, 0xffffffff]);
+  });
+});
