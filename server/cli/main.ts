@@ -7,9 +7,13 @@ import { isGridshakeError } from '../errors.js';
 import { optionHelp, parseOptions, UsageError } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { countCommand } from './count-command.js';
+import { serveCommand } from './serve-command.js';
+import { sweepCommand } from './sweep-command.js';
 
 const COMMANDS: CliCommand[] = [
+  serveCommand,
   countCommand,
+  sweepCommand,
 ];
 
 const PROCESS_IO: CliIo = {

@@ -6,6 +6,8 @@ export interface HealthInfo {
   version: string;
   databasePath: string;
   poolSize: number;
+  /** datasets in the store */
+  datasets?: number;
   /** work budget of one sweep in point-placements, for the page's live cost estimate */
   workBudget?: number;
 }

@@ -1,0 +1,97 @@
+/**
+ * `gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR]`: the local server with the page.
+ * Binds to loopback unless --host says otherwise (then warns), prints the URL, loads the demo scenarios into an
+ * empty store, and shuts down cleanly on SIGINT / SIGTERM (running sweeps are marked interrupted).
+ */
+import type { AddressInfo } from 'node:net';
+import { buildApp, DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../app.js';
+import { GridshakeError } from '../errors.js';
+import { loadDemoScenarios } from '../services/demo-loader.js';
+import { SAMPLES_DIR } from '../services/project-paths.js';
+import { optionalString, parseChecked, parseWholeNumber, type OptionSpecs, type OptionValues } from './args.js';
+import type { CliCommand, CliIo } from './cli-command.js';
+
+export const DEFAULT_PORT = 5178;
+export const DEFAULT_HOST = '127.0.0.1';
+export const DEFAULT_DATA_DIR = './.gridshake';
+
+const LOOPBACK = new Set(['127.0.0.1', 'localhost', '::1']);
+
+const OPTIONS: OptionSpecs = {
+  host: { type: 'string', value: 'ADDRESS', description: `address to bind; default ${DEFAULT_HOST} (this computer only)` },
+  port: { type: 'string', value: 'PORT', description: `port; default ${DEFAULT_PORT} (0 picks a free one)` },
+  data: { type: 'string', value: 'DIR', description: `data folder of the database; default ${DEFAULT_DATA_DIR}` },
+  'body-limit': { type: 'string', value: 'MB', description: `largest upload in MB; default ${DEFAULT_BODY_LIMIT / 1048576}` },
+  'max-points': { type: 'string', value: 'N', description: `most points in one dataset; default ${DEFAULT_MAX_POINTS}` },
+  threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
+  'no-demo': { type: 'boolean', description: 'do not load the demo scenarios into an empty database' },
+};
+
+function urlHost(host: string): string {
+  if (host === '0.0.0.0' || host === '::') return '127.0.0.1';
+  return host.includes(':') ? `[${host}]` : host;
+}
+
+/** Resolves on the first SIGINT or SIGTERM. */
+function untilSignal(): Promise<string> {
+  return new Promise((resolve) => {
+    const stop = (signal: string): void => {
+      process.off('SIGINT', onInt);
+      process.off('SIGTERM', onTerm);
+      resolve(signal);
+    };
+    const onInt = (): void => stop('SIGINT');
+    const onTerm = (): void => stop('SIGTERM');
+    process.on('SIGINT', onInt);
+    process.on('SIGTERM', onTerm);
+  });
+}
+
+async function run(values: OptionValues, io: CliIo): Promise<number> {
+  const host = optionalString(values, 'host') ?? DEFAULT_HOST;
+  const portText = optionalString(values, 'port');
+  const port = portText === undefined ? DEFAULT_PORT : parseChecked(portText, 'port', 'a port from 0 to 65535', (v) => Number.isInteger(v) && v >= 0 && v <= 65535);
+  const dataDir = optionalString(values, 'data') ?? DEFAULT_DATA_DIR;
+  const limitText = optionalString(values, 'body-limit');
+  const bodyLimit = limitText === undefined ? DEFAULT_BODY_LIMIT : Math.round(parseChecked(limitText, 'body-limit', 'a positive number of MB', (v) => v > 0) * 1048576);
+  const pointsText = optionalString(values, 'max-points');
+  const maxPoints = pointsText === undefined ? DEFAULT_MAX_POINTS : parseWholeNumber(pointsText, 'max-points', 1);
+  const threadsText = optionalString(values, 'threads');
+  const threads = threadsText === undefined ? undefined : parseWholeNumber(threadsText, 'threads', 1);
+
+  if (!LOOPBACK.has(host)) {
+    io.stderr(
+      `gridshake: warning: binding to ${host} makes the server reachable from other computers; it has no login. ` +
+        'Use it only on a network you trust.\n',
+    );
+  }
+  const app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, logger: { level: 'error' } });
+  const services = app.gridshake;
+  if (services.interruptedAtStart.length > 0) {
+    io.stderr(`gridshake: ${services.interruptedAtStart.length} sweep(s) stopped by the last shutdown are marked interrupted; rerun them from the page\n`);
+  }
+  if (values['no-demo'] !== true && services.store.datasets.count() === 0) {
+    const loaded = loadDemoScenarios(services, SAMPLES_DIR);
+    io.stderr(`gridshake: loaded ${loaded.length} invented demo scenarios from ${SAMPLES_DIR}\n`);
+  }
+  try {
+    await app.listen({ host, port });
+  } catch (error) {
+    await app.close();
+    throw new GridshakeError('GS_ERR_LISTEN', 500, `cannot listen on ${host}:${port}: ${(error as Error).message}`);
+  }
+  const address = app.server.address() as AddressInfo;
+  io.stdout(`gridshake serving at http://${urlHost(host)}:${address.port}/  (database ${services.store.path})\n`);
+  const signal = await untilSignal();
+  io.stderr(`gridshake: ${signal}: stopping\n`);
+  await app.close();
+  return 0;
+}
+
+export const serveCommand: CliCommand = {
+  name: 'serve',
+  summary: 'start the local server and open the page in a browser',
+  usage: 'Usage: gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR]',
+  options: OPTIONS,
+  run,
+};

@@ -1,0 +1,56 @@
+/**
+ * Loads the invented demo scenarios of samples/ (listed in samples/scenarios.json) into an empty store and queues
+ * one small demo sweep for each, so that a newcomer sees data and results at once.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Plan } from '../contracts.js';
+import type { DatasetService } from './dataset-service.js';
+import type { SweepService } from './sweep-service.js';
+
+export interface ScenarioEntry {
+  folder: string;
+  name: string;
+  crs: string;
+  points: number;
+  demoPlan: Partial<Plan>;
+}
+
+export interface LoadedScenario {
+  folder: string;
+  datasetId: string;
+  sweepId: string | null;
+}
+
+function readFile(folder: string, name: string): { name: string; content: Uint8Array } {
+  return { name, content: new Uint8Array(readFileSync(join(folder, name))) };
+}
+
+export function readScenarioIndex(samplesDir: string): ScenarioEntry[] {
+  const indexFile = join(samplesDir, 'scenarios.json');
+  if (!existsSync(indexFile)) return [];
+  return JSON.parse(readFileSync(indexFile, 'utf8')) as ScenarioEntry[];
+}
+
+/** Load every scenario; with `sweeps` false only the datasets are stored. */
+export function loadDemoScenarios(
+  services: { datasets: DatasetService; sweeps: SweepService },
+  samplesDir: string,
+  options: { sweeps?: boolean } = {},
+): LoadedScenario[] {
+  return readScenarioIndex(samplesDir).map((entry) => {
+    const folder = join(samplesDir, entry.folder);
+    const noDataFile = join(folder, 'no-data.geojson');
+    const summary = services.datasets.create(
+      {
+        points: readFile(folder, 'points.csv'),
+        area: readFile(folder, 'area.geojson'),
+        noData: existsSync(noDataFile) ? [readFile(folder, 'no-data.geojson')] : [],
+      },
+      { crs: entry.crs, name: entry.name },
+      entry.folder,
+    );
+    const sweepId = options.sweeps === false ? null : services.sweeps.start(summary.id, entry.demoPlan).id;
+    return { folder: entry.folder, datasetId: summary.id, sweepId };
+  });
+}
