@@ -142,7 +142,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       io.stderr('gridshake sweep: cancelled; nothing was written\n');
       return 130;
     }
-    throw error;
+    throw asFlagError(error);
   } finally {
     process.removeListener('SIGINT', onInterrupt);
     await pool.destroy();
