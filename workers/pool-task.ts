@@ -4,6 +4,7 @@
  */
 import { move } from 'piscina';
 import { createCellCounter } from './placement/index.js';
+import { createCsrSampler, type CsrSampler } from './random/index.js';
 import type { Region } from './types.js';
 import { evaluateChunk, type PatternCounter } from './sweep/evaluate-chunk.js';
 import { unpackRegion } from './sweep/region-buffer.js';
@@ -17,7 +18,7 @@ interface DatasetEntry {
 }
 
 const datasets = new TaskCache<DatasetEntry>();
-const regions = new TaskCache<Region>();
+const samplers = new TaskCache<CsrSampler>();
 const simulations = new TaskCache<PatternCounter[]>();
 
 function runChunk(task: ChunkTask): Float64Array {
@@ -40,8 +41,8 @@ function runChunk(task: ChunkTask): Float64Array {
 }
 
 function runSimulate(task: SimulateTask): number {
-  const region = regions.get(task.regionKey, () => unpackRegion(task.region));
-  simulatePatterns(region, task.pointCount, task.seed, task.first, task.count, new Float64Array(task.simulated));
+  const sampler = samplers.get(task.regionKey, () => createCsrSampler(unpackRegion(task.region)));
+  simulatePatterns(sampler, task.pointCount, task.seed, task.first, task.count, new Float64Array(task.simulated));
   return task.count;
 }
 

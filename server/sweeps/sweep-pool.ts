@@ -3,6 +3,7 @@
  * pattern and on R simulated CSR patterns) and summarises them. Points and simulated patterns live in shared
  * memory; tasks are small chunks of placements of one cell size; results come back moved, not cloned.
  */
+import { setMaxListeners } from 'node:events';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { Piscina } from 'piscina';
@@ -75,6 +76,8 @@ export class SweepPool {
     const shared = this.share(dataset);
     const placements = planPlacements(plan);
     const controller = new AbortController();
+    // every queued task listens to the signal
+    setMaxListeners(estimateSweep(plan, dataset.inside.length, this.budget).tasks + plan.sims + 16, controller.signal);
     const onAbort = (): void => controller.abort();
     options.signal?.addEventListener('abort', onAbort, { once: true });
     let failure: unknown = null;

@@ -4,16 +4,15 @@
  * whatever the thread that drew it.
  */
 import { mortonSort } from '../placement/index.js';
-import { createCsrSampler, createRandom, deriveSeed } from '../random/index.js';
-import type { Region } from '../types.js';
+import { createRandom, deriveSeed, type CsrSampler } from '../random/index.js';
 
 /**
  * Writes patterns first .. first + count - 1 into `out` (pattern r at r * n * 2, interleaved x, y).
+ * The sampler (workers/random createCsrSampler) is built once per region by the caller.
  * Cost O(count n log n) (sampling plus the Morton sort).
  * Reference: J. Besag and P. J. Diggle (1977), Applied Statistics 26:327-333 (CSR patterns given n).
  */
-export function simulatePatterns(region: Region, pointCount: number, seed: number, first: number, count: number, out: Float64Array): void {
-  const sampler = createCsrSampler(region);
+export function simulatePatterns(sampler: CsrSampler, pointCount: number, seed: number, first: number, count: number, out: Float64Array): void {
   const length = pointCount * 2;
   for (let r = first; r < first + count; r++) {
     const xy = sampler.sample(pointCount, createRandom(deriveSeed(seed, r)));

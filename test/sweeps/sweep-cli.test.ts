@@ -1,0 +1,83 @@
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync, existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { describe, it, expect } from 'vitest';
+import { parse } from 'csv-parse/sync';
+import { runCli } from '../../server/cli/main.js';
+import type { SweepSummary } from '../../server/contracts.js';
+import { AREA_RING, RESERVOIR_RING, pointsCsv, polygonGeoJson } from './sweep-fixtures.js';
+
+const run = promisify(execFile);
+
+function scenarioFiles(): { folder: string; points: string; area: string; reservoir: string } {
+  const folder = mkdtempSync(join(tmpdir(), 'gridshake-sweep-'));
+  const write = (name: string, content: string): string => {
+    const path = join(folder, name);
+    writeFileSync(path, content);
+    return path;
+  };
+  return {
+    folder,
+    points: write('incidents.csv', pointsCsv(1500, true, 5)),
+    area: write('district.geojson', polygonGeoJson(AREA_RING)),
+    reservoir: write('reservoir.geojson', polygonGeoJson(RESERVOIR_RING)),
+  };
+}
+
+async function inProcess(argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+  let stdout = '';
+  let stderr = '';
+  const code = await runCli(argv, { stdout: (t) => (stdout += t), stderr: (t) => (stderr += t) });
+  return { code, stdout, stderr };
+}
+
+describe('gridshake sweep (compiled command)', () => {
+  it('writes placements.csv, summary.json and report.html for a polygon with a no-data zone', async () => {
+    const files = scenarioFiles();
+    const out = join(files.folder, 'out');
+    const { stdout, stderr } = await run(process.execPath, [
+      'bin/gridshake.js', 'sweep', '--points', files.points, '--area', files.area, '--no-data', files.reservoir,
+      '--crs', 'planar', '--cells', '80,140', '--placements', '40', '--sims', '19', '--seed', '4', '--out', out, '--threads', '2',
+    ]);
+    // stdout: one conclusion per size, then the overall conclusion
+    expect(stdout).toMatch(/^80 m cells: clustered in 100 % of 40 placements; Monte Carlo p = 0\.05 on the median chi2\/df/m);
+    expect(stdout).toMatch(/^140 m cells: clustered/m);
+    expect(stdout).toContain('finds clustering at 2 of 2 cell sizes at alpha 0.05');
+    expect(stderr).toMatch(/\[#+\] 100 % 80\/80 placements/);
+
+    const rows = parse(readFileSync(join(out, 'placements.csv'), 'utf8'), { columns: true }) as Record<string, string>[];
+    expect(rows).toHaveLength(80);
+    expect(rows[0]).toMatchObject({ sizeIndex: '0', cellSize: '80', placementIndex: '0', u: '0', v: '0', angle: '0', verdict: 'clustered' });
+    expect(Number(rows[0].chi2) / Number(rows[0].df)).toBeCloseTo(Number(rows[0].chi2PerDf), 12);
+
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8')) as SweepSummary;
+    expect(summary.plan).toMatchObject({ cells: [80, 140], placements: 40, sims: 19, seed: 4, rotation: true, design: 'halton' });
+    expect(summary.dataset.n).toBe(1500);
+    expect(summary.dataset.nInside + summary.dataset.nOutside).toBe(1500);
+    expect(summary.sizes.map((size) => size.monteCarlo?.pMedianClustered)).toEqual([0.05, 0.05]);
+    expect(summary.versions.gridshake).toMatch(/^\d+\.\d+\.\d+/);
+    expect(summary.timings.seconds).toBeGreaterThan(0);
+    expect(readFileSync(join(out, 'report.html'), 'utf8')).toMatch(/^<!doctype html>/i);
+  });
+});
+
+describe('gridshake sweep (flags)', () => {
+  it('says which flags are wrong in command-line words', async () => {
+    const files = scenarioFiles();
+    const out = join(files.folder, 'never');
+    const both = await inProcess(['sweep', '--points', files.points, '--crs', 'planar', '--cells', '50', '--per-cell', '5', '--out', out]);
+    expect(both.code).toBe(1);
+    expect(both.stderr).toContain('give exactly one of --cells (cell sides in metres) or --per-cell (expected points per cell)');
+    const placements = await inProcess(['sweep', '--points', files.points, '--crs', 'planar', '--cells', '50', '--placements', '70000', '--out', out]);
+    expect(placements.code).toBe(1);
+    expect(placements.stderr).toContain('--placements must be an integer from 1 to 65536, got 70000');
+    const large = await inProcess(['sweep', '--points', files.points, '--area', files.area, '--crs', 'planar', '--cells', '5000', '--out', out]);
+    expect(large.code).toBe(1);
+    expect(large.stderr).toMatch(/--cells\[0\] gives cells of 5000 m, which leave fewer than 2 cells/);
+    const missing = await inProcess(['sweep', '--points', files.points, '--cells', '50']);
+    expect(missing.code).toBe(2);
+    expect(existsSync(out)).toBe(false);
+  });
+});

@@ -1,0 +1,79 @@
+/**
+ * Invented test scenarios for sweeps: a five-sided study area in planar metres (an invented district) with an
+ * invented reservoir as a no-data zone, and seeded point patterns (uniform, or clustered around a few invented
+ * sites). Demo data only: the checks compare against independent computations, not against these numbers.
+ */
+import type { Dataset } from '../../server/contracts.js';
+import { loadDataset } from '../../server/inputs/index.js';
+
+export const AREA_RING: number[][] = [
+  [500000, 4000000],
+  [501200, 4000000],
+  [501400, 4000700],
+  [500600, 4001100],
+  [499900, 4000600],
+  [500000, 4000000],
+];
+
+/** The reservoir, inside the study area. */
+export const RESERVOIR_RING: number[][] = [
+  [500500, 4000300],
+  [500800, 4000300],
+  [500800, 4000550],
+  [500500, 4000550],
+  [500500, 4000300],
+];
+
+/** Mulberry32 (T. Ettinger, public domain): a small seeded generator for fixtures. */
+export function fixtureRandom(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+export function polygonGeoJson(ring: number[][]): string {
+  return JSON.stringify({
+    type: 'FeatureCollection',
+    features: [{ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [ring] } }],
+  });
+}
+
+/** n points uniform in the bounding box of the study area, or (clustered) around 6 sites with sd 25 m. */
+export function pointsCsv(n: number, clustered: boolean, seed: number): string {
+  const random = fixtureRandom(seed);
+  const lines = ['id,x,y'];
+  const sites = Array.from({ length: 6 }, () => [500150 + random() * 1000, 4000100 + random() * 700]);
+  for (let k = 0; k < n; k++) {
+    let x: number;
+    let y: number;
+    if (clustered) {
+      const site = sites[k % sites.length];
+      const radius = 25 * Math.sqrt(-2 * Math.log(1 - random()));
+      const turn = 2 * Math.PI * random();
+      x = site[0] + radius * Math.cos(turn);
+      y = site[1] + radius * Math.sin(turn);
+    } else {
+      x = 499900 + random() * 1500;
+      y = 4000000 + random() * 1100;
+    }
+    lines.push(`r${k + 1},${x.toFixed(3)},${y.toFixed(3)}`);
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+/** The scenario as a Dataset (planar metres): study area, reservoir as no-data zone, seeded points. */
+export function fixtureDataset(n: number, clustered: boolean, seed = 7): Dataset {
+  return loadDataset(
+    {
+      points: { name: 'incidents.csv', content: pointsCsv(n, clustered, seed) },
+      area: { name: 'district.geojson', content: polygonGeoJson(AREA_RING) },
+      noData: [{ name: 'reservoir.geojson', content: polygonGeoJson(RESERVOIR_RING) }],
+    },
+    { crs: 'planar' },
+  );
+}
