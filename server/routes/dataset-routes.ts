@@ -85,7 +85,8 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
     {
       // before the multipart parser runs: the parser limits each file, this limits the whole request
       onRequest: async (request) => {
-        if (!request.isMultipart()) {
+        const type = (request.headers['content-type'] ?? '').toLowerCase();
+        if (!type.startsWith('multipart/form-data')) {
           throw new GridshakeError('GS_ERR_CONTENT_TYPE', 415, 'POST /api/datasets needs a multipart/form-data upload');
         }
         const length = Number(request.headers['content-length'] ?? Number.NaN);

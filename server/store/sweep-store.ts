@@ -70,7 +70,9 @@ export class SweepStore {
 
   create(input: { datasetId: string; plan: Plan; estimate: SweepEstimate; rerunOf?: string | null }): SweepRecord {
     const id = randomUUID();
-    const progress: SweepProgress = { done: 0, total: input.estimate.tasks, elapsedSeconds: 0, remainingSeconds: null };
+    // progress counts placements (sizes x placements), as the pool reports them
+    const sizes = (input.plan.cells ?? input.plan.perCell ?? []).length;
+    const progress: SweepProgress = { done: 0, total: sizes * input.plan.placements, elapsedSeconds: 0, remainingSeconds: null };
     this.db
       .prepare(
         `INSERT INTO sweeps (id, dataset_id, plan_json, estimate_json, status, progress_json, rerun_of, created_at)
