@@ -1,6 +1,6 @@
 /** Points from a GeoJSON FeatureCollection of Point and MultiPoint features (each point of a MultiPoint a record). */
 import { inputError } from '../errors.js';
-import { readGeoJsonFeatures } from './geojson-features.js';
+import { readGeoJsonFeatures, type LabelledFeature } from './geojson-features.js';
 import { parseCoordinate } from './parse-coordinate.js';
 import type { RawPoints } from './raw-points.js';
 
@@ -20,7 +20,11 @@ function position(value: unknown, where: string): [number, number] {
 }
 
 export function readGeoJsonPoints(fileName: string, text: string): RawPoints {
-  const features = readGeoJsonFeatures(fileName, text);
+  return pointsFromFeatures(fileName, readGeoJsonFeatures(fileName, text), 'geojson');
+}
+
+/** Points of already-read features (GeoJSON or GeoPackage): each Point a record, each part of a MultiPoint one. */
+export function pointsFromFeatures(fileName: string, features: LabelledFeature[], format: RawPoints['format']): RawPoints {
   const coordinates: number[] = [];
   const ids: string[] = [];
   const labels: string[] = [];
@@ -48,7 +52,7 @@ export function readGeoJsonPoints(fileName: string, text: string): RawPoints {
   if (ids.length === 0) throw inputError(`${fileName}: the file holds no point features`);
   return {
     fileName,
-    format: 'geojson',
+    format,
     coordinates: Float64Array.from(coordinates),
     ids,
     kind: 'lonlat',

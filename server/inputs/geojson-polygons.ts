@@ -3,7 +3,7 @@
  * bare geometry. Each polygon keeps a label naming the file, the feature and the part, for messages.
  */
 import { inputError } from '../errors.js';
-import { readGeoJsonFeatures } from './geojson-features.js';
+import { readGeoJsonFeatures, type LabelledFeature } from './geojson-features.js';
 
 export interface RawPolygon {
   /** e.g. "area.geojson: feature 1, polygon 2" */
@@ -20,8 +20,13 @@ function polygonRings(value: unknown, label: string): unknown[] {
 }
 
 export function readGeoJsonPolygons(fileName: string, text: string): RawPolygon[] {
+  return polygonsFromFeatures(fileName, readGeoJsonFeatures(fileName, text));
+}
+
+/** Polygons of already-read features (GeoJSON or GeoPackage), one per Polygon or MultiPolygon part. */
+export function polygonsFromFeatures(fileName: string, features: LabelledFeature[]): RawPolygon[] {
   const polygons: RawPolygon[] = [];
-  for (const feature of readGeoJsonFeatures(fileName, text)) {
+  for (const feature of features) {
     const geometry = feature.geometry;
     if (geometry === null) throw inputError(`${feature.label}: the feature has no geometry`);
     if (geometry.type === 'Polygon') {

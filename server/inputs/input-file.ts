@@ -21,7 +21,7 @@ export function readText(file: InputFile): string {
   if (text.startsWith(BYTE_ORDER_MARK)) text = text.slice(1);
   if (text.trim() === '') throw inputError(`${file.name}: the file is empty`);
   if (text.startsWith(SQLITE_MAGIC)) {
-    throw inputError(`${file.name}: this is a SQLite/GeoPackage file; give the points as CSV or GeoJSON`);
+    throw inputError(`${file.name}: this is an SQLite file that is not read as a GeoPackage here; give CSV, GeoJSON or a GeoPackage`);
   }
   if (text.slice(0, 4096).includes('\u0000')) {
     throw inputError(`${file.name}: the file is binary, not text; give CSV or GeoJSON`);

@@ -6,10 +6,11 @@ import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
 import type { Dataset, InputWarning } from '../contracts.js';
 import { inputError, tooLargeError } from '../errors.js';
 import { checkPolygon } from './check-polygon.js';
-import { resolveCoordinateSystem } from './coordinate-system.js';
+import { resolveCoordinateSystem, type CoordinateSystem } from './coordinate-system.js';
+import { isSqliteFile, readGeoPackageFeatures } from './geopackage/read-geopackage.js';
 import { defaultStudyArea } from './default-study-area.js';
 import { findDuplicates } from './find-duplicates.js';
-import { readGeoJsonPolygons } from './geojson-polygons.js';
+import { polygonsFromFeatures, readGeoJsonPolygons, type RawPolygon } from './geojson-polygons.js';
 import { readText, type InputFile } from './input-file.js';
 import { duplicateWarning, outsideWarning, projectionWarning } from './input-warnings.js';
 import { projectInputs } from './project-inputs.js';
@@ -32,8 +33,20 @@ export interface DatasetOptions {
   maxPoints?: number;
 }
 
-function readPolygons(file: InputFile, geographic: boolean): LabelledRings[] {
-  return readGeoJsonPolygons(file.name, readText(file)).map((polygon) => ({
+/** Polygons of a GeoJSON or GeoPackage file; a GeoPackage must declare the same system as the points, or none. */
+function readPolygons(file: InputFile, system: CoordinateSystem): LabelledRings[] {
+  let polygons: RawPolygon[];
+  if (isSqliteFile(file)) {
+    const layer = readGeoPackageFeatures(file);
+    if (layer.crs !== undefined && system.crs !== 'planar' && layer.crs !== system.crs) {
+      throw inputError(`${file.name}: the layer is in ${layer.crs} but the points are in ${system.crs}; give every file in one coordinate system`);
+    }
+    polygons = polygonsFromFeatures(file.name, layer.features);
+  } else {
+    polygons = readGeoJsonPolygons(file.name, readText(file));
+  }
+  const geographic = system.geographic;
+  return polygons.map((polygon) => ({
     label: polygon.label,
     rings: checkPolygon(polygon, geographic),
   }));
@@ -50,9 +63,13 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   if (options.maxPoints !== undefined && n > options.maxPoints) {
     throw tooLargeError(`${input.points.name}: ${n} points, more than the limit of ${options.maxPoints}`);
   }
-  const system = resolveCoordinateSystem(options.crs, raw.kind, input.points.name);
-  const area = input.area ? readPolygons(input.area, system.geographic) : [];
-  const zones = (input.noData ?? []).flatMap((file) => readPolygons(file, system.geographic));
+  const crs = options.crs ?? raw.declaredCrs;
+  if (crs === undefined && raw.format === 'geopackage') {
+    throw inputError(`${input.points.name}: the GeoPackage layer declares no EPSG coordinate system; give --crs planar or --crs EPSG:n`);
+  }
+  const system = resolveCoordinateSystem(crs, raw.kind, input.points.name);
+  const area = input.area ? readPolygons(input.area, system) : [];
+  const zones = (input.noData ?? []).flatMap((file) => readPolygons(file, system));
   const projected = projectInputs(system, raw, area, zones);
   const warnings: InputWarning[] = system.warnings.map(projectionWarning);
 

@@ -3,7 +3,9 @@ import type { CoordinateKind } from './column-names.js';
 
 export interface RawPoints {
   fileName: string;
-  format: 'csv' | 'geojson';
+  format: 'csv' | 'geojson' | 'geopackage';
+  /** the coordinate system the file itself declares (a GeoPackage layer's EPSG code), if any */
+  declaredCrs?: string;
   /** raw coordinates as written in the file, interleaved x,y (or lon,lat) */
   coordinates: Float64Array;
   ids: string[];
