@@ -1,0 +1,98 @@
+/**
+ * The page's only network access: the local server's /api (shared/design.md, HTTP API). Errors arrive as
+ * { statusCode, code, message } and are thrown as ApiError with that code.
+ */
+import type { DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../server/contracts.js';
+
+export class ApiError extends Error {
+  constructor(readonly code: string, readonly statusCode: number, message: string) {
+    super(message);
+    this.name = 'ApiError';
+  }
+}
+
+export interface HealthInfo {
+  version: string;
+  poolSize: number;
+  workBudget?: number;
+}
+
+export interface StoredDataset extends DatasetSummary {
+  id: string;
+  /** the demo scenario this dataset was loaded from, or null for an upload */
+  sample?: string | null;
+}
+
+export interface DatasetGeometry {
+  points: number[];
+  pointInside: number[];
+  totalPoints: number;
+  stride: number;
+  studyArea: number[][][][];
+  noDataZones: number[][][][];
+  bbox: { minX: number; minY: number; maxX: number; maxY: number };
+}
+
+export interface SweepRecord {
+  id: string;
+  datasetId: string;
+  status: SweepStatus;
+  plan: Plan;
+  estimate: SweepEstimate;
+  progress: SweepProgress;
+  summary?: SweepSummary | null;
+  error?: string | null;
+}
+
+export interface GridFeature {
+  type: 'Feature';
+  properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean };
+  geometry: { type: 'Polygon'; coordinates: number[][][] };
+}
+
+export interface GridCollection {
+  type: 'FeatureCollection';
+  features: GridFeature[];
+  gridshake?: { cellSize: number; u: number; v: number; angle: number; sizeIndex: number; placementIndex: number };
+}
+
+async function request<T>(path: string, init?: RequestInit): Promise<T> {
+  const response = await fetch(path, { ...init, headers: { accept: 'application/json', ...(init?.headers ?? {}) } });
+  if (!response.ok) {
+    let body: { code?: string; message?: string } = {};
+    try {
+      body = (await response.json()) as { code?: string; message?: string };
+    } catch {
+      body = { message: response.statusText };
+    }
+    throw new ApiError(body.code ?? 'GS_ERR_HTTP', response.status, body.message ?? `HTTP ${response.status} from ${path}`);
+  }
+  if (response.status === 204) return undefined as T;
+  return (await response.json()) as T;
+}
+
+function jsonBody(value: unknown): RequestInit {
+  return { method: 'POST', body: JSON.stringify(value), headers: { 'content-type': 'application/json' } };
+}
+
+export const api = {
+  health: () => request<HealthInfo>('/api/health'),
+  datasets: () => request<StoredDataset[]>('/api/datasets'),
+  dataset: (id: string) => request<StoredDataset>(`/api/datasets/${id}`),
+  geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry`),
+  upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
+  startSweep: (datasetId: string, plan: Plan) =>
+    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
+  sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
+  cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
+  placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
+  grid: (id: string, size: number, placement: number) =>
+    request<GridCollection>(`/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}`),
+};
+
+/** URLs for the downloads (same origin, so the browser saves them directly). */
+export const downloads = {
+  placementsCsv: (id: string) => `/api/sweeps/${id}/placements.csv`,
+  report: (id: string) => `/api/sweeps/${id}/report.html?download=1`,
+  grid: (id: string, size: number, placement: number) => `/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}`,
+};

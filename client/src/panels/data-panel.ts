@@ -1,0 +1,64 @@
+/** Step 1: choose a demo scenario or an earlier upload, or upload new files; then see the summary and warnings. */
+import { api, type StoredDataset } from '../api/api-client.js';
+import type { Store } from '../app-state.js';
+import { clear, el, field, message } from '../ui/dom.js';
+import { datasetSummaryView } from './dataset-summary-view.js';
+import { uploadForm } from './upload-form.js';
+
+export function initDataPanel(container: HTMLElement, store: Store): void {
+  const select = el('select', { id: 'dataset-select' });
+  const useButton = el('button', { type: 'button', class: 'button', id: 'use-dataset' }, 'Use this dataset');
+  const status = el('div', { 'aria-live': 'polite' });
+  const summary = el('div', { id: 'dataset-summary' });
+  const upload = el('details', { class: 'upload' }, el('summary', {}, 'Upload your own data'), uploadForm((dataset) => void choose(dataset)));
+
+  async function choose(dataset: StoredDataset): Promise<void> {
+    clear(status, message('info', `Loading ${dataset.name}...`));
+    try {
+      const geometry = await api.geometry(dataset.id);
+      store.update({ dataset, geometry, sweepId: null, summary: null, rows: [], sizeIndex: null, placement: null });
+      clear(status);
+      await refreshList(dataset.id);
+    } catch (error) {
+      clear(status, message('error', error instanceof Error ? error.message : String(error)));
+    }
+  }
+
+  async function refreshList(selectedId?: string): Promise<void> {
+    const datasets = await api.datasets();
+    const demos = datasets.filter((dataset) => dataset.sample);
+    const uploads = datasets.filter((dataset) => !dataset.sample);
+    const option = (dataset: StoredDataset) =>
+      el('option', { value: dataset.id, selected: dataset.id === selectedId }, `${dataset.name} (${dataset.n} points)`);
+    clear(
+      select,
+      demos.length > 0 ? el('optgroup', { label: 'Demo scenarios' }, ...demos.map(option)) : null,
+      uploads.length > 0 ? el('optgroup', { label: 'Your uploads' }, ...uploads.map(option)) : null,
+    );
+    useButton.disabled = datasets.length === 0;
+    if (datasets.length === 0) clear(status, message('info', 'No datasets yet: upload your own files below.'));
+  }
+
+  useButton.addEventListener('click', async () => {
+    if (!select.value) return;
+    try {
+      await choose(await api.dataset(select.value));
+    } catch (error) {
+      clear(status, message('error', error instanceof Error ? error.message : String(error)));
+    }
+  });
+
+  store.subscribe((state, changed) => {
+    if (changed.has('dataset')) clear(summary, state.dataset ? datasetSummaryView(state.dataset) : null);
+  });
+
+  clear(
+    container,
+    el('p', {}, 'Start from an invented demo scenario, or bring your own points with a study area and no-data zones.'),
+    el('div', { class: 'field-row' }, field('Dataset', select), useButton),
+    status,
+    upload,
+    summary,
+  );
+  refreshList().catch((error: unknown) => clear(status, message('error', error instanceof Error ? error.message : String(error))));
+}

@@ -1,0 +1,28 @@
+/** The dataset summary and every input warning, as a definition list and a list. */
+import type { StoredDataset } from '../api/api-client.js';
+import { formatArea, formatMetres, formatNumber } from '../charts/format.js';
+import { el } from '../ui/dom.js';
+
+export function datasetSummaryView(dataset: StoredDataset): HTMLElement {
+  const entries: [string, string][] = [
+    ['Name', dataset.name],
+    ['Coordinates', dataset.crs],
+    ['Points', String(dataset.n)],
+    ['Inside the valid region', String(dataset.nInside)],
+    ['Outside (never counted)', String(dataset.nOutside)],
+    ['Study area', `${formatArea(dataset.studyAreaArea)}${dataset.areaIsDefault ? ' (bounding box of the points)' : ''}`],
+    ['Valid region', formatArea(dataset.validArea)],
+    ['Suggested cell sides', dataset.suggestedCellSizes.map((size) => `${formatMetres(size.cellSize)} (${formatNumber(size.perCell)} per cell)`).join(', ')],
+  ];
+  const list = el('dl', { class: 'summary-list', 'data-testid': 'dataset-summary' }, ...entries.flatMap(([term, value]) => [el('dt', {}, term), el('dd', {}, value)]));
+  const warnings = dataset.warnings.length === 0
+    ? el('p', { class: 'hint' }, 'The inputs raised no warnings.')
+    : el(
+        'ul',
+        { class: 'warning-list', 'aria-label': 'Input warnings' },
+        ...dataset.warnings.map((warning) =>
+          el('li', {}, el('code', {}, warning.code), ' ', warning.message, warning.ids && warning.ids.length > 0 ? ` (records ${warning.ids.join(', ')})` : ''),
+        ),
+      );
+  return el('div', { class: 'dataset-summary' }, el('h3', {}, 'Summary'), list, el('h3', {}, `Warnings (${dataset.warnings.length})`), warnings);
+}

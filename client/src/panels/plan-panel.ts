@@ -1,0 +1,122 @@
+/**
+ * Step 2: the plan. Cell sides suggested from the dataset's rules of thumb (each labelled with its rule, editable,
+ * with room for more), placements, design, rotation, minCoverage, alpha, sims and seed; a live cost estimate and
+ * the budget refusal before anything starts.
+ */
+import { api, ApiError } from '../api/api-client.js';
+import type { Store } from '../app-state.js';
+import { formatNumber } from '../charts/format.js';
+import { planCost } from '../plan/plan-estimate.js';
+import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues } from '../plan/plan-values.js';
+import { clear, el, field, message } from '../ui/dom.js';
+
+export function initPlanPanel(container: HTMLElement, store: Store): void {
+  store.subscribe((state, changed) => {
+    if (changed.has('dataset') && state.dataset) buildForm(container, store);
+  });
+}
+
+function buildForm(container: HTMLElement, store: Store): void {
+  const dataset = store.state.dataset!;
+  const sizeRows = dataset.suggestedCellSizes.map((suggestion, k) => {
+    const include = el('input', { type: 'checkbox', id: `size-include-${k}`, checked: true });
+    const side = el('input', { type: 'number', id: `size-side-${k}`, min: 0, step: 'any', value: String(Math.round(suggestion.cellSize)), 'aria-label': `Cell side in metres for ${formatNumber(suggestion.perCell)} expected points per cell` });
+    const row = el(
+      'div',
+      { class: 'size-row' },
+      include,
+      el('label', { for: include.id }, `${formatNumber(suggestion.perCell)} points per cell`),
+      side,
+      el('span', {}, 'm'),
+      el('span', { class: 'field-hint' }, suggestion.rule),
+    );
+    return { include, side, label: `${formatNumber(suggestion.perCell)} per cell`, row };
+  });
+  const extra = el('input', { type: 'text', id: 'plan-extra-sides', placeholder: 'e.g. 150, 400' });
+  const placements = el('input', { type: 'number', id: 'plan-placements', min: 1, max: 65536, step: 1, value: PLAN_FORM_DEFAULTS.placements });
+  const design = el('select', { id: 'plan-design' }, el('option', { value: 'halton' }, 'Halton sequence (spread evenly, any count)'), el('option', { value: 'lattice' }, 'regular lattice'));
+  const rotation = el('input', { type: 'checkbox', id: 'plan-rotation', checked: PLAN_FORM_DEFAULTS.rotation });
+  const minCoverage = el('input', { type: 'number', id: 'plan-min-coverage', min: 0.05, max: 1, step: 'any', value: PLAN_FORM_DEFAULTS.minCoverage });
+  const alpha = el('input', { type: 'number', id: 'plan-alpha', min: 0.001, max: 0.5, step: 'any', value: PLAN_FORM_DEFAULTS.alpha });
+  const sims = el('input', { type: 'number', id: 'plan-sims', min: 0, max: 9999, step: 1, value: PLAN_FORM_DEFAULTS.sims });
+  const seed = el('input', { type: 'number', id: 'plan-seed', step: 1, value: PLAN_FORM_DEFAULTS.seed });
+  const estimate = el('div', { id: 'plan-estimate', class: 'estimate', 'aria-live': 'polite' });
+  const start = el('button', { type: 'submit', class: 'button button-primary', id: 'start-sweep' }, 'Start the sweep');
+  const feedback = el('div', { 'aria-live': 'assertive' });
+
+  const values = (): PlanFormValues => ({
+    sizes: sizeRows.map((row) => ({ text: row.side.value, include: row.include.checked, label: row.label })),
+    extraSides: extra.value,
+    placements: placements.value,
+    design: design.value === 'lattice' ? 'lattice' : 'halton',
+    rotation: rotation.checked,
+    minCoverage: minCoverage.value,
+    alpha: alpha.value,
+    sims: sims.value,
+    seed: seed.value,
+  });
+
+  const refresh = () => {
+    const reading = readPlan(values());
+    if (!reading.plan) {
+      clear(estimate, ...reading.errors.map((text) => message('error', text)));
+      start.disabled = true;
+      return null;
+    }
+    const budget = store.state.health?.workBudget ?? null;
+    const cost = planCost(reading.plan, dataset.nInside, budget);
+    const share = cost.shareOfBudget === null ? '' : ` (${formatNumber(100 * cost.shareOfBudget, 2)} % of the budget of ${budget!.toExponential(1)})`;
+    clear(
+      estimate,
+      el('p', {}, `Cost: ${dataset.nInside} points x ${reading.plan.placements} placements x ${reading.plan.cells!.length} cell sides x (1 + ${reading.plan.sims}) patterns = ${cost.work.toExponential(2)} point-placements${share}.`),
+      cost.refusal ? message('error', cost.refusal) : null,
+    );
+    start.disabled = cost.refusal !== null;
+    return reading.plan;
+  };
+
+  const form = el(
+    'form',
+    { class: 'plan-form', 'aria-label': 'Sweep plan', novalidate: true },
+    el('fieldset', {}, el('legend', {}, 'Cell sides (suggested from the rules of thumb; edit freely)'), ...sizeRows.map((row) => row.row), field('More cell sides (m)', extra, 'Comma separated.')),
+    el(
+      'fieldset',
+      {},
+      el('legend', {}, 'Placements and test'),
+      el('div', { class: 'field-grid' },
+        field('Placements per cell side', placements),
+        field('Placement design', design),
+        field('minCoverage (0-1)', minCoverage, 'Cells with less of their area in the valid region are left out; 1 = whole cells only.'),
+        field('alpha (two-sided)', alpha),
+        field('CSR simulations', sims, '0 = no Monte Carlo calibration.'),
+        field('Seed', seed),
+      ),
+      el('div', { class: 'check-row' }, rotation, el('label', { for: rotation.id }, 'Rotate the grids (angles 0 to 90 degrees)')),
+    ),
+    estimate,
+    start,
+    feedback,
+  );
+  form.addEventListener('input', () => void refresh());
+  form.addEventListener('change', () => void refresh());
+  form.addEventListener('submit', async (event) => {
+    event.preventDefault();
+    const plan = refresh();
+    if (!plan) return;
+    start.disabled = true;
+    clear(feedback);
+    try {
+      const started = await api.startSweep(dataset.id, plan);
+      store.update({ sweepId: started.id, summary: null, rows: [], sizeIndex: null, placement: null });
+      document.getElementById('step-run')?.scrollIntoView({ behavior: 'smooth', block: 'start' });
+    } catch (error) {
+      const refusal = error instanceof ApiError && error.code === 'GS_ERR_BUDGET' ? 'The server refused the plan: ' : '';
+      clear(feedback, message('error', `${refusal}${error instanceof Error ? error.message : String(error)}`));
+    } finally {
+      start.disabled = false;
+      refresh();
+    }
+  });
+  clear(container, form);
+  refresh();
+}

@@ -1,0 +1,116 @@
+/**
+ * Step 4: results. The overall conclusion, the cell-size and verdict charts, then for a chosen size the VMR
+ * against angle, the offset heat map and the Monte Carlo histogram, with the conclusion and its numbers. Clicking
+ * a placement in any chart (or the buttons) shows its grid on the map.
+ */
+import type { SweepSummary } from '../../../server/contracts.js';
+import type { Store } from '../app-state.js';
+import { overviewBundles, sizeBundles } from '../charts/chart-bundles.js';
+import { cellSizeSeries, type SpreadMeasure } from '../charts/cell-size-data.js';
+import { formatMetres } from '../charts/format.js';
+import { sizeNumbers } from '../charts/size-numbers.js';
+import { ChartView, type ChartClick } from '../ui/chart-view.js';
+import { clear, el, field } from '../ui/dom.js';
+import { heatmapLegend } from './heatmap-legend.js';
+import { placementPicker } from './placement-picker.js';
+
+export type PickPlacement = (sizeIndex: number, placementIndex: number) => void;
+
+export function initResultsPanel(container: HTMLElement, store: Store, pick: PickPlacement): void {
+  let views: ChartView[] = [];
+  let detailViews: ChartView[] = [];
+  let measure: SpreadMeasure = 'chi2PerDf';
+  const overviewBox = el('div', { class: 'chart-grid' });
+  const detailBox = el('div', { id: 'size-detail' });
+
+  const renderOverview = (summary: SweepSummary) => {
+    views.forEach((view) => view.destroy());
+    const series = cellSizeSeries(summary.sizes, measure);
+    const clickCellSize: ChartClick = (datasetIndex, index) => {
+      // any element of a size column selects that size; the reference triangle also shows the reference grid
+      const sizeIndex = series.sizeIndex[index];
+      store.update({ sizeIndex });
+      const bundle = overviewBundles(summary, measure)[0];
+      if (bundle.spec.data.datasets[datasetIndex]?.label === 'reference placement') pick(sizeIndex, series.referencePlacementIndex[index]);
+    };
+    const [cellSize, verdicts] = overviewBundles(summary, measure);
+    views = [new ChartView(cellSize, clickCellSize), new ChartView(verdicts)];
+    clear(overviewBox, ...views.map((view) => view.element));
+    views.forEach((view) => view.render());
+  };
+
+  const renderDetail = (summary: SweepSummary, sizeIndex: number) => {
+    detailViews.forEach((view) => view.destroy());
+    const size = summary.sizes.find((candidate) => candidate.sizeIndex === sizeIndex);
+    if (!size) return;
+    const bundles = sizeBundles(summary, store.state.rows, sizeIndex);
+    detailViews = bundles.map((bundle) => {
+      if (bundle.id.startsWith('angle-')) {
+        return new ChartView(bundle, (datasetIndex, index) => {
+          const point = (bundle.spec.data.datasets[datasetIndex]?.data as { placementIndex?: number }[] | undefined)?.[index];
+          if (point?.placementIndex !== undefined) pick(sizeIndex, point.placementIndex);
+        });
+      }
+      if (bundle.id.startsWith('offsets-')) {
+        return new ChartView(bundle, (datasetIndex, index) => {
+          const placement = (bundle.spec.data.datasets[datasetIndex]?.placementOf as (number | null)[] | undefined)?.[index];
+          if (placement !== null && placement !== undefined) pick(sizeIndex, placement);
+        });
+      }
+      return new ChartView(bundle);
+    });
+    const heatmapIndex = bundles.findIndex((bundle) => bundle.id.startsWith('offsets-'));
+    clear(
+      detailBox,
+      el('h4', {}, `Cell side ${formatMetres(size.cellSize)}`),
+      el('p', { class: 'conclusion', 'data-testid': 'size-conclusion' }, size.conclusion),
+      el('ul', { class: 'numbers', 'data-testid': 'size-numbers' }, ...sizeNumbers(size).map((line) => el('li', {}, line))),
+      placementPicker(size, (placementIndex) => pick(sizeIndex, placementIndex)),
+      el('div', { class: 'chart-grid' }, ...detailViews.flatMap((view, k) => (k === heatmapIndex ? [el('div', {}, view.element, heatmapLegend(bundles[k]))] : [view.element]))),
+    );
+    detailViews.forEach((view) => view.render());
+  };
+
+  store.subscribe((state, changed) => {
+    if (changed.has('summary') || changed.has('sweepId')) {
+      if (!state.summary) {
+        views.forEach((view) => view.destroy());
+        detailViews.forEach((view) => view.destroy());
+        views = [];
+        detailViews = [];
+        clear(container, el('p', { class: 'hint' }, 'Results appear here when a sweep has finished.'));
+        return;
+      }
+      buildLayout(state.summary);
+    }
+    if ((changed.has('sizeIndex') || changed.has('summary')) && state.summary && state.sizeIndex !== null) {
+      const select = container.querySelector<HTMLSelectElement>('#size-select');
+      if (select) select.value = String(state.sizeIndex);
+      renderDetail(state.summary, state.sizeIndex);
+    }
+  });
+
+  function buildLayout(summary: SweepSummary): void {
+    const measureSelect = el('select', { id: 'measure-select' }, el('option', { value: 'chi2PerDf' }, 'chi-square / df'), el('option', { value: 'vmr' }, 'VMR'));
+    measureSelect.value = measure;
+    measureSelect.addEventListener('change', () => {
+      measure = measureSelect.value === 'vmr' ? 'vmr' : 'chi2PerDf';
+      renderOverview(summary);
+    });
+    const ordered = [...summary.sizes].sort((a, b) => a.cellSize - b.cellSize);
+    const sizeSelect = el('select', { id: 'size-select' }, ...ordered.map((size) => el('option', { value: String(size.sizeIndex) }, formatMetres(size.cellSize))));
+    sizeSelect.addEventListener('change', () => store.update({ sizeIndex: Number(sizeSelect.value) }));
+    clear(
+      container,
+      el('div', { class: 'conclusion-box' }, el('h3', {}, 'In plain words'), el('p', { class: 'conclusion', 'data-testid': 'overall-conclusion' }, summary.conclusion),
+        summary.warnings.length > 0 ? el('ul', { class: 'warning-list', 'aria-label': 'Warnings about this run' }, ...summary.warnings.map((warning) => el('li', {}, warning))) : null),
+      el('h3', {}, 'All cell sides'),
+      field('Spread shown', measureSelect),
+      overviewBox,
+      el('h3', {}, 'One cell side in detail'),
+      field('Cell side', sizeSelect),
+      detailBox,
+    );
+    renderOverview(summary);
+  }
+}

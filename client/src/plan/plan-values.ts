@@ -1,0 +1,66 @@
+/**
+ * Reading the plan form: the raw field texts become a Plan (shared/design.md: `{ cells, placements, rotation,
+ * design, minCoverage, alpha, sims, seed }`) or a list of messages naming the field at fault. The server checks
+ * the plan again; this only lets the page refuse early and say why.
+ */
+import type { Plan, PlacementDesign } from '../../../server/contracts.js';
+
+export interface PlanFormValues {
+  /** suggested or typed cell sides: text of the number field and whether it is included */
+  sizes: { text: string; include: boolean; label: string }[];
+  /** more cell sides, comma or space separated, metres */
+  extraSides: string;
+  placements: string;
+  design: PlacementDesign;
+  rotation: boolean;
+  minCoverage: string;
+  alpha: string;
+  sims: string;
+  seed: string;
+}
+
+export interface PlanReading {
+  plan: Plan | null;
+  errors: string[];
+}
+
+function numberIn(name: string, text: string, test: (value: number) => boolean, range: string, errors: string[]): number {
+  const value = Number(text.trim());
+  if (text.trim() === '' || !Number.isFinite(value) || !test(value)) errors.push(`${name} must be ${range}, got "${text}"`);
+  return value;
+}
+
+/** Parses and checks the plan form; cell sides are de-duplicated and sorted. */
+export function readPlan(values: PlanFormValues): PlanReading {
+  const errors: string[] = [];
+  const sides: number[] = [];
+  for (const size of values.sizes) {
+    if (!size.include) continue;
+    sides.push(numberIn(`Cell side (${size.label})`, size.text, (value) => value > 0, 'a positive number of metres', errors));
+  }
+  for (const token of values.extraSides.split(/[\s,;]+/).filter((part) => part !== '')) {
+    sides.push(numberIn('More cell sides', token, (value) => value > 0, 'positive numbers of metres', errors));
+  }
+  const cells = [...new Set(sides.filter((side) => side > 0))].sort((a, b) => a - b);
+  if (cells.length === 0 && errors.length === 0) errors.push('Choose at least one cell side');
+  if (cells.length > 16) errors.push(`At most 16 cell sides, got ${cells.length}`);
+  const integer = (value: number) => Number.isInteger(value);
+  const placements = numberIn('Placements', values.placements, (value) => integer(value) && value >= 1 && value <= 65536, 'a whole number from 1 to 65536', errors);
+  const minCoverage = numberIn('minCoverage', values.minCoverage, (value) => value > 0 && value <= 1, 'a number above 0 and at most 1', errors);
+  const alpha = numberIn('alpha', values.alpha, (value) => value > 0 && value <= 0.5, 'a number above 0 and at most 0.5', errors);
+  const sims = numberIn('CSR simulations', values.sims, (value) => integer(value) && value >= 0 && value <= 9999, 'a whole number from 0 to 9999', errors);
+  const seed = numberIn('Seed', values.seed, (value) => Number.isSafeInteger(value), 'a whole number', errors);
+  if (errors.length > 0) return { plan: null, errors };
+  return { plan: { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed }, errors };
+}
+
+/** The form's starting values: the server's DEFAULT_PLAN (server/contracts.ts), as field texts. */
+export const PLAN_FORM_DEFAULTS = {
+  placements: '256',
+  design: 'halton' as PlacementDesign,
+  rotation: true,
+  minCoverage: '0.5',
+  alpha: '0.05',
+  sims: '99',
+  seed: '1',
+};
