@@ -30,6 +30,9 @@ function megabytes(bytes: number): string {
   return `${Number((bytes / 1048576).toPrecision(3))} MB`;
 }
 
+/** Messages of the multipart parser (@fastify/busboy) for a body that breaks off or is malformed. */
+const MALFORMED_MULTIPART = /unexpected end of (multipart|form)|malformed part header|boundary not found|part terminated early/i;
+
 /** Turn any thrown value into the coded error body sent to the client. */
 export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBody {
   if (isGridshakeError(error)) return { statusCode: error.statusCode, code: error.code, message: error.message };
@@ -49,6 +52,13 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
   }
   if (code === 'FST_ERR_CTP_INVALID_MEDIA_TYPE' || code === 'FST_INVALID_MULTIPART_CONTENT_TYPE') {
     return { statusCode: 415, code: 'GS_ERR_CONTENT_TYPE', message: `unsupported content type: ${fastifyError.message ?? ''}` };
+  }
+  if (fastifyError.statusCode === undefined && MALFORMED_MULTIPART.test(fastifyError.message ?? '')) {
+    return {
+      statusCode: 400,
+      code: 'GS_ERR_UPLOAD',
+      message: `the upload is not a complete multipart/form-data body (${fastifyError.message ?? ''}); send it again`,
+    };
   }
   const status = fastifyError.statusCode ?? 500;
   if (status >= 400 && status < 500) {

@@ -27,6 +27,11 @@ export class GridshakeStore {
     return new GridshakeStore(db, path);
   }
 
+  /** Copy the write-ahead log into the main database file (e.g. before a backup or a checksum). */
+  checkpoint(): void {
+    this.db.pragma('wal_checkpoint(TRUNCATE)');
+  }
+
   close(): void {
     if (this.db.open) this.db.close();
   }
