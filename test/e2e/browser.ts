@@ -55,3 +55,20 @@ export function watchForeignRequests(page: Page, allowedOrigin: string | null): 
   });
   return foreign;
 }
+
+/** Share of a canvas's pixels with a strong colour (max - min channel > 60): grid shading, not grey or black ink. */
+export async function canvasColourShare(page: Page, selector: string): Promise<number> {
+  return page.$eval(selector, (element) => {
+    const canvas = element as HTMLCanvasElement;
+    const context = canvas.getContext('2d');
+    if (!context || canvas.width === 0 || canvas.height === 0) return 0;
+    const { data } = context.getImageData(0, 0, canvas.width, canvas.height);
+    let coloured = 0;
+    for (let offset = 0; offset < data.length; offset += 4) {
+      const high = Math.max(data[offset], data[offset + 1], data[offset + 2]);
+      const low = Math.min(data[offset], data[offset + 1], data[offset + 2]);
+      if (data[offset + 3] > 0 && high - low > 60) coloured += 1;
+    }
+    return coloured / (data.length / 4);
+  });
+}
