@@ -196,13 +196,20 @@ describe('the analyst page in Chromium', () => {
       return box !== null && box.getAttribute('data-sweep') !== previous && !box.hasAttribute('data-status');
     }, sweepId);
     const secondId = (await page.getAttribute('.run-box', 'data-sweep'))!;
+    // let it make some progress first, then cancel
+    await page.waitForFunction(() => (document.getElementById('run-progress') as HTMLProgressElement).value > 0, undefined, { timeout: 30_000 });
     await page.click('#cancel-sweep');
     await page.waitForSelector('.run-box[data-status=cancelled]', { timeout: 30_000 });
     expect(await page.innerText('#run-outcome')).toContain('cancelled');
     const record = await getJson<SweepRecord>(server, `/api/sweeps/${secondId}`);
     expect(record.status).toBe('cancelled');
+    expect(record.progress.done).toBeGreaterThan(0);
     expect(record.progress.done).toBeLessThan(record.progress.total);
     await page.locator('#step-run').screenshot({ path: join(ARTIFACTS, 'page-3-cancelled.png') });
+    // the finished sweep stays listed with the dataset and opens again
+    await page.click(`[data-open-sweep="${sweepId}"]`);
+    await page.waitForSelector('.run-box[data-status=done]');
+    await expect.poll(() => page.innerText('[data-testid=overall-conclusion]')).toBe(summary.conclusion);
   });
 
   it('made no request outside the local server and raised no script error', () => {

@@ -42,6 +42,7 @@ export interface SweepRecord {
   progress: SweepProgress;
   summary?: SweepSummary | null;
   error?: string | null;
+  createdAt?: string;
 }
 
 export interface GridFeature {
@@ -83,6 +84,7 @@ export const api = {
   upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
   startSweep: (datasetId: string, plan: Plan) =>
     request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
+  sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),
   sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
   cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),

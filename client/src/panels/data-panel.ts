@@ -3,6 +3,7 @@ import { api, type StoredDataset } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
 import { clear, el, field, message } from '../ui/dom.js';
 import { datasetSummaryView } from './dataset-summary-view.js';
+import { initEarlierSweeps } from './earlier-sweeps.js';
 import { uploadForm } from './upload-form.js';
 
 export function initDataPanel(container: HTMLElement, store: Store): void {
@@ -10,6 +11,8 @@ export function initDataPanel(container: HTMLElement, store: Store): void {
   const useButton = el('button', { type: 'button', class: 'button', id: 'use-dataset' }, 'Use this dataset');
   const status = el('div', { 'aria-live': 'polite' });
   const summary = el('div', { id: 'dataset-summary' });
+  const earlier = el('div', { id: 'earlier-sweeps' });
+  initEarlierSweeps(earlier, store);
   const upload = el('details', { class: 'upload' }, el('summary', {}, 'Upload your own data'), uploadForm((dataset) => void choose(dataset)));
 
   async function choose(dataset: StoredDataset): Promise<void> {
@@ -59,6 +62,7 @@ export function initDataPanel(container: HTMLElement, store: Store): void {
     status,
     upload,
     summary,
+    earlier,
   );
   refreshList().catch((error: unknown) => clear(status, message('error', error instanceof Error ? error.message : String(error))));
 }

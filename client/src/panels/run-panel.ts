@@ -65,7 +65,7 @@ function follow(container: HTMLElement, store: Store, sweepId: string): () => vo
       cancel.disabled = true;
       container.querySelector('.run-box')?.setAttribute('data-status', status);
       if (status !== 'done') {
-        clear(outcome, message(status === 'cancelled' ? 'info' : 'error', status === 'cancelled' ? 'The sweep was cancelled; nothing was kept.' : `The sweep ended: ${STATUS_WORDS[status]}${error ? `: ${error}` : ''}`));
+        clear(outcome, message(status === 'cancelled' ? 'info' : 'error', status === 'cancelled' ? 'The sweep was cancelled; it has no results.' : `The sweep ended: ${STATUS_WORDS[status]}${error ? `: ${error}` : ''}`));
         return;
       }
       bar.value = bar.max;

@@ -1,0 +1,37 @@
+/** The sweeps already run on the chosen dataset (the demo scenarios come with one), to open their results. */
+import { api, type SweepRecord } from '../api/api-client.js';
+import type { Store } from '../app-state.js';
+import { formatMetres } from '../charts/format.js';
+import { clear, el } from '../ui/dom.js';
+
+function describePlan(record: SweepRecord): string {
+  const sides = record.plan.cells ? record.plan.cells.map(formatMetres).join(', ') : `${record.plan.perCell?.join(', ')} points per cell`;
+  return `${sides}; ${record.plan.placements} placements; ${record.plan.sims} simulations; seed ${record.plan.seed}`;
+}
+
+export function initEarlierSweeps(container: HTMLElement, store: Store): void {
+  const render = async (datasetId: string) => {
+    const records = (await api.sweeps(datasetId)).filter((record) => record.status === 'done');
+    if (records.length === 0) {
+      clear(container);
+      return;
+    }
+    clear(
+      container,
+      el('h3', {}, 'Sweeps already run on this dataset'),
+      el(
+        'ul',
+        { class: 'sweep-list' },
+        ...records.map((record) => {
+          const open = el('button', { type: 'button', class: 'button button-small', 'data-open-sweep': record.id }, 'Open the results');
+          open.addEventListener('click', () => store.update({ sweepId: record.id, summary: null, rows: [], sizeIndex: null, placement: null }));
+          return el('li', {}, open, ' ', describePlan(record));
+        }),
+      ),
+    );
+  };
+  store.subscribe((state, changed) => {
+    if (changed.has('dataset') && state.dataset) render(state.dataset.id).catch(() => clear(container));
+    if (changed.has('summary') && state.summary && state.dataset) render(state.dataset.id).catch(() => clear(container));
+  });
+}

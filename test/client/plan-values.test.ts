@@ -1,0 +1,78 @@
+import { describe, it, expect } from 'vitest';
+import { DEFAULT_PLAN } from '../../server/contracts.js';
+import { estimateSweep } from '../../server/sweeps/sweep-budget.js';
+import { normalizePlan } from '../../server/sweeps/plan.js';
+import { planCost } from '../../client/src/plan/plan-estimate.js';
+import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues } from '../../client/src/plan/plan-values.js';
+
+function form(overrides: Partial<PlanFormValues>): PlanFormValues {
+  return {
+    sizes: [
+      { text: '190', include: true, label: '1.6 per cell' },
+      { text: '213', include: false, label: '2 per cell' },
+    ],
+    extraSides: '400, 150 400',
+    ...PLAN_FORM_DEFAULTS,
+    ...overrides,
+  };
+}
+
+describe('readPlan(values)', () => {
+  it('collects included and extra sides, sorted without repeats, and the other fields as numbers', () => {
+    const reading = readPlan(form({}));
+    expect(reading.errors).toEqual([]);
+    expect(reading.plan).toEqual({ cells: [150, 190, 400], placements: 256, rotation: true, design: 'halton', minCoverage: 0.5, alpha: 0.05, sims: 99, seed: 1 });
+    // the server's own validation accepts what the page sends
+    expect(normalizePlan(reading.plan)).toEqual(reading.plan);
+  });
+
+  it('starts from the server defaults', () => {
+    const plan = readPlan(form({})).plan!;
+    const { cells: _cells, ...rest } = plan;
+    expect(rest).toEqual({ ...DEFAULT_PLAN });
+  });
+
+  it('names every field at fault', () => {
+    const reading = readPlan(form({ extraSides: 'ten', placements: '2.5', minCoverage: '0', alpha: '0.7', sims: '-1', seed: 'x' }));
+    expect(reading.plan).toBeNull();
+    expect(reading.errors).toEqual([
+      'More cell sides must be positive numbers of metres, got "ten"',
+      'Placements must be a whole number from 1 to 65536, got "2.5"',
+      'minCoverage must be a number above 0 and at most 1, got "0"',
+      'alpha must be a number above 0 and at most 0.5, got "0.7"',
+      'CSR simulations must be a whole number from 0 to 9999, got "-1"',
+      'Seed must be a whole number, got "x"',
+    ]);
+  });
+
+  it('asks for at least one cell side', () => {
+    const reading = readPlan(form({ sizes: [{ text: '190', include: false, label: 'a' }], extraSides: '' }));
+    expect(reading.errors).toEqual(['Choose at least one cell side']);
+  });
+});
+
+describe('planCost(plan, nInside, budget)', () => {
+  const plan = { cells: [100, 200, 300], placements: 64, rotation: true, design: 'halton' as const, minCoverage: 0.5, alpha: 0.05, sims: 19, seed: 1 };
+
+  it('equals the server estimate: points x placements x sizes x (1 + sims)', () => {
+    const cost = planCost(plan, 564, 2e10);
+    // 564 x 64 x 3 x 20 = 2165760
+    expect(cost.work).toBe(2165760);
+    expect(cost.work).toBe(estimateSweep(plan, 564, 2e10).work);
+    expect(cost.evaluations).toBe(estimateSweep(plan, 564, 2e10).evaluations);
+    expect(cost.shareOfBudget).toBeCloseTo(2165760 / 2e10, 15);
+    expect(cost.refusal).toBeNull();
+  });
+
+  it('refuses above the budget with the shrink factor, and above the evaluation limit', () => {
+    const large = { ...plan, placements: 65536, sims: 9999 };
+    const cost = planCost(large, 564, 2e10);
+    // 564 x 65536 x 3 x 10000 = 1.1088e12 -> 55.4 times 2e10, shrink at least 56-fold
+    expect(cost.refusal).toContain('55.4 times the budget');
+    expect(cost.refusal).toContain('at least 56-fold');
+    const manyEvaluations = planCost({ ...plan, placements: 65536, sims: 199 }, 1, 2e10);
+    // 3 x 65536 x 200 = 39321600 > 2e7
+    expect(manyEvaluations.refusal).toContain('grid evaluations');
+    expect(planCost(large, 564, null).shareOfBudget).toBeNull();
+  });
+});
