@@ -2,7 +2,8 @@
  * buildApp(options): the gridshake HTTP app (Fastify), apart from listen (server/cli/serve-command.ts listens).
  * Opens the store, marks sweeps left running by an earlier process `interrupted`, builds the services and the sweep
  * queue on one worker pool, installs the request guards and the one error handler, and registers the routes.
- * Closing the app stops the queue (running sweeps become `interrupted`), the pool and the store.
+ * Closing the app stops the queue (running sweeps become `interrupted`, event streams get their end), then the
+ * connections, the pool and the store.
  */
 import fastifyMultipart from '@fastify/multipart';
 import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
@@ -81,6 +82,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     ajv: { customOptions: { removeAdditional: false, allErrors: false } },
     schemaErrorFormatter: formatValidationErrors,
     return503OnClosing: true,
+    // event streams and idle keep-alive sockets must not hold a shutdown
+    forceCloseConnections: true,
   });
   const queue = new SweepQueue(store, runner, app.log);
   const datasets = new DatasetService(store, queue, maxPoints);
@@ -119,6 +122,10 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   registerSweepExportRoutes(app, new SweepExports(store, datasets, sweeps));
   await registerClientStatic(app, options.clientDir ?? DEFAULT_CLIENT_DIR);
 
+  // before the server stops accepting: stop the queue, so that open event streams get their `end` event
+  app.addHook('preClose', async () => {
+    await queue.close();
+  });
   app.addHook('onClose', async () => {
     await queue.close();
     await runner.destroy();
