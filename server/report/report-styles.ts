@@ -17,7 +17,7 @@ th, td { border: 1px solid var(--line); padding: 4px 8px; text-align: left; vert
 thead th { background: var(--soft); }
 tbody th { white-space: nowrap; }
 figure { margin: 12px 0 20px; break-inside: avoid; page-break-inside: avoid; }
-figure canvas { width: 100%; max-width: 920px; height: auto; border: 1px solid var(--line); }
+figure canvas { width: 100% !important; max-width: 920px; height: auto !important; border: 1px solid var(--line); }
 figcaption { color: var(--muted); font-size: 13px; }
 details { margin: 4px 0 12px; }
 ul.warnings code { background: var(--soft); padding: 0 4px; }
@@ -25,7 +25,9 @@ ul.warnings code { background: var(--soft); padding: 0 4px; }
 footer { margin-top: 32px; color: var(--muted); font-size: 13px; }
 @media print {
   @page { size: A4; margin: 14mm; }
-  body { font-size: 11pt; }
+  body { font-size: 10.5pt; }
+  table { font-size: 8.5pt; table-layout: fixed; }
+  th, td { padding: 2px 4px; overflow-wrap: anywhere; }
   main { max-width: none; padding: 0; }
   h2 { break-after: avoid; page-break-after: avoid; }
   details { display: none; }

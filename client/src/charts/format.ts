@@ -46,3 +46,9 @@ export function formatDuration(seconds: number | null | undefined): string {
   if (minutes < 60) return `${minutes} min ${String(whole % 60).padStart(2, '0')} s`;
   return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`;
 }
+
+/** "p = 0.012" or "p < 0.001". */
+export function pPhrase(p: number | null | undefined): string {
+  const text = formatP(p);
+  return text.startsWith('<') ? `p ${text}` : `p = ${text}`;
+}

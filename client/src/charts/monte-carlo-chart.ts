@@ -1,6 +1,6 @@
 import type { MonteCarloResult } from '../../../server/contracts.js';
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
-import { formatNumber, formatP } from './format.js';
+import { formatNumber, formatP, pPhrase } from './format.js';
 import type { MonteCarloHistograms } from './histogram-data.js';
 import { stepPoints } from './histogram-data.js';
 import { NEUTRAL, OKABE_ITO, withAlpha } from './palette.js';
@@ -39,8 +39,8 @@ export function monteCarloChartSpec(histograms: MonteCarloHistograms, result: Mo
     marker(`observed maximum ${formatNumber(result.observedMax)}`, histograms.observedMax, OKABE_ITO.vermillion, [6, 4]),
   ];
   const subtitle = [
-    `Cell side ${cellSizeLabel}. Median across placements: p = ${formatP(result.pMedianClustered)} for clustering, ${formatP(result.pMedianRegular)} for regularity.`,
-    `Maximum across placements (worst-case choice of grid): p = ${formatP(result.pMaxClustered)} for clustering.`,
+    `Cell side ${cellSizeLabel}. Median across placements: ${pPhrase(result.pMedianClustered)} for clustering, ${formatP(result.pMedianRegular)} for regularity.`,
+    `Maximum across placements (worst-case choice of grid): ${pPhrase(result.pMaxClustered)} for clustering.`,
   ];
   const options = baseOptions('Monte Carlo test against CSR: chi-square / df across placements', subtitle, {
     x: axis('chi-square / df, median or maximum over placements (ratio)', { type: 'linear', grace: '4%' }),
