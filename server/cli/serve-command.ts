@@ -27,6 +27,15 @@ const OPTIONS: OptionSpecs = {
   'no-demo': { type: 'boolean', description: 'do not load the demo scenarios into an empty database' },
 };
 
+/** The warning printed when the server binds to an address other computers can reach; null for loopback. */
+export function bindWarning(host: string): string | null {
+  if (LOOPBACK.has(host.toLowerCase())) return null;
+  return (
+    `gridshake: warning: binding to ${host} makes the server reachable from other computers; it has no login. ` +
+    'Use it only on a network you trust.\n'
+  );
+}
+
 function urlHost(host: string): string {
   if (host === '0.0.0.0' || host === '::') return '127.0.0.1';
   return host.includes(':') ? `[${host}]` : host;
@@ -59,12 +68,8 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   const threadsText = optionalString(values, 'threads');
   const threads = threadsText === undefined ? undefined : parseWholeNumber(threadsText, 'threads', 1);
 
-  if (!LOOPBACK.has(host)) {
-    io.stderr(
-      `gridshake: warning: binding to ${host} makes the server reachable from other computers; it has no login. ` +
-        'Use it only on a network you trust.\n',
-    );
-  }
+  const warning = bindWarning(host);
+  if (warning !== null) io.stderr(warning);
   const app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, logger: { level: 'error' } });
   const services = app.gridshake;
   if (services.interruptedAtStart.length > 0) {
