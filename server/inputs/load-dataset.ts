@@ -82,6 +82,12 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   const geometry = buildValidRegion(studyRings, projected.zones);
   const region = toRegion(geometry.valid);
   const studyRegion = toRegion(geometry.studyArea);
+  if (!Number.isFinite(region.area) || !Number.isFinite(studyRegion.area)) {
+    throw inputError(
+      `${input.area?.name ?? input.points.name}: the coordinates are too large: the study area's size overflows ` +
+        '(are they metres in a projected system? check --crs)',
+    );
+  }
 
   const inStudyArea = partitionByRegion(projected.xy, studyRegion).inside;
   if (inStudyArea.length === 0) {
