@@ -3,12 +3,21 @@
  * the HTTP layer sends `{ statusCode, code, message }`, the CLI prints the message and exits non-zero.
  * Messages say what is wrong and where (file, line, feature), with no trailing period.
  */
+/** Longest message kept whole; longer ones (e.g. echoing a 20 MB field) keep their start and end. */
+export const MAX_ERROR_MESSAGE_LENGTH = 2000;
+
+function shortenMessage(message: string): string {
+  if (message.length <= MAX_ERROR_MESSAGE_LENGTH) return message;
+  const omitted = message.length - 1800;
+  return `${message.slice(0, 1400)} ... (${omitted} characters left out) ... ${message.slice(-400)}`;
+}
+
 export class GridshakeError extends Error {
   readonly code: string;
   readonly statusCode: number;
 
   constructor(code: string, statusCode: number, message: string) {
-    super(message);
+    super(shortenMessage(message));
     this.name = 'GridshakeError';
     this.code = code;
     this.statusCode = statusCode;
