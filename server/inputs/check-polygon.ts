@@ -1,13 +1,18 @@
 /**
  * Validation of one raw GeoJSON polygon before it is projected: numeric finite positions, rings of at least four
- * positions that are closed, non-zero area, no self-intersections (turf.kinks, reported with their location),
- * holes inside their shell, and longitude/latitude ranges when the coordinates are geographic.
+ * positions that are closed, non-zero area, no self-intersections (an R-tree edge search, reported with their
+ * location), holes inside their shell, longitude/latitude ranges when the coordinates are geographic, and at most
+ * MAX_POLYGON_VERTICES vertices (the overlay of larger polygons would hold a request for minutes).
  */
 import * as turf from '@turf/turf';
-import { inputError } from '../errors.js';
+import { inputError, tooLargeError } from '../errors.js';
 import { checkLonLat } from './parse-coordinate.js';
 import type { RawPolygon } from './geojson-polygons.js';
 import { signedRingArea } from './planar-rings.js';
+import { selfIntersections } from './self-intersections.js';
+
+/** Most vertices of one polygon (all its rings); larger ones get GS_ERR_TOO_LARGE and a hint to simplify. */
+export const MAX_POLYGON_VERTICES = 100_000;
 
 const ringName = (index: number): string => (index === 0 ? 'outer ring' : `hole ${index}`);
 
@@ -38,20 +43,40 @@ function checkRing(value: unknown, where: string, lonLat: boolean): number[][] {
 }
 
 function extentSquared(ring: number[][]): number {
-  const xs = ring.map((p) => p[0]);
-  const ys = ring.map((p) => p[1]);
-  const extent = Math.max(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys));
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const [x, y] of ring) {
+    minX = Math.min(minX, x);
+    maxX = Math.max(maxX, x);
+    minY = Math.min(minY, y);
+    maxY = Math.max(maxY, y);
+  }
+  const extent = Math.max(maxX - minX, maxY - minY);
   return extent * extent;
+}
+
+function checkVertexCount(polygon: RawPolygon): void {
+  let vertices = 0;
+  for (const ring of polygon.rings) vertices += Array.isArray(ring) ? ring.length : 0;
+  if (vertices > MAX_POLYGON_VERTICES) {
+    throw tooLargeError(
+      `${polygon.label}: the polygon has ${vertices} vertices, more than the limit of ${MAX_POLYGON_VERTICES}; ` +
+        'simplify it (for example to a tolerance of 1 m) before loading',
+    );
+  }
 }
 
 /** The polygon's checked rings (GeoJSON order, closed), or a GS_ERR_INPUT naming the polygon and what is wrong. */
 export function checkPolygon(polygon: RawPolygon, lonLat: boolean): number[][][] {
+  checkVertexCount(polygon);
   const rings = polygon.rings.map((ring, index) => checkRing(ring, `${polygon.label}, ${ringName(index)}`, lonLat));
-  const kinks = turf.kinks(turf.polygon(rings));
-  if (kinks.features.length > 0) {
-    const where = kinks.features
+  const kinks = selfIntersections(rings);
+  if (kinks.length > 0) {
+    const where = kinks
       .slice(0, 3)
-      .map((kink) => `(${kink.geometry.coordinates.join(', ')})`)
+      .map((kink) => `(${kink.join(', ')})`)
       .join(', ');
     throw inputError(`${polygon.label}: the polygon intersects itself at ${where}`);
   }
