@@ -6,6 +6,7 @@ import type { SweepSummary } from '../../server/contracts.js';
 import { formatNumber } from '../../client/src/charts/format.js';
 import { ARTIFACTS, canvasColourShare, canvasInk, launchBrowser, watchForeignRequests } from './browser.js';
 import { getJson, startPageServer, type PageServer } from './page-server.js';
+import { SAMPLES_DIR } from '../../server/services/project-paths.js';
 
 // The way through the page (issue 5) in real headless Chromium against the real server: demo scenario, plan,
 // progress to the end, every chart drawn, numbers equal to the API's, a placement's grid on the map, the report,
@@ -53,6 +54,33 @@ describe('the analyst page in Chromium', () => {
     expect(summaryText).toContain(String(demo.nInside));
     expect(await canvasInk(page, '#map')).toBeGreaterThan(0.02);
     await page.screenshot({ path: join(ARTIFACTS, 'page-1-data.png') });
+  });
+
+  it('1 Data: uploads points, a study area and a no-data zone with the CRS choice, and reports a bad file clearly', async () => {
+    const folder = join(SAMPLES_DIR, 'port-calverin');
+    await page.click('.upload summary');
+    await page.setInputFiles('input[name=points]', join(SAMPLES_DIR, 'port-calverin', 'points.csv'));
+    await page.setInputFiles('input[name=area]', join(folder, 'area.geojson'));
+    await page.setInputFiles('input[name=noData]', [join(folder, 'no-data.geojson')]);
+    await page.selectOption('select[name=crsChoice]', 'planar');
+    await page.fill('input[name=name]', 'Uploaded <copy> of Port Calverin');
+    await page.click('.upload-form button[type=submit]');
+    await expect.poll(() => page.innerText('[data-testid=dataset-summary]').catch(() => '')).toContain('Uploaded <copy> of Port Calverin');
+    const uploads = (await getJson<StoredDataset[]>(server, '/api/datasets')).filter((dataset) => !dataset.sample);
+    expect(uploads).toHaveLength(1);
+    expect(await page.innerText('[data-testid=dataset-summary]')).toContain(String(uploads[0].n));
+    // a points file without coordinates: the server's coded message is shown as an alert
+    await page.setInputFiles('input[name=points]', { name: 'broken.csv', mimeType: 'text/csv', buffer: Buffer.from('id,colour\n1,red\n') });
+    await page.setInputFiles('input[name=area]', []);
+    await page.setInputFiles('input[name=noData]', []);
+    await page.click('.upload-form button[type=submit]');
+    await page.waitForSelector('.upload-form [role=alert]');
+    expect(await page.innerText('.upload-form [role=alert]')).toMatch(/broken\.csv/);
+    await page.locator('#step-data').screenshot({ path: join(ARTIFACTS, 'page-1-upload-error.png') });
+    // back to the demo scenario for the rest of the way
+    await page.selectOption('#dataset-select', demo.id);
+    await page.click('#use-dataset');
+    await expect.poll(() => page.innerText('[data-testid=dataset-summary]')).toContain(demo.name);
   });
 
   it('2 Plan: suggests labelled cell sides, estimates the cost live and shows the budget refusal', async () => {
@@ -214,6 +242,9 @@ describe('the analyst page in Chromium', () => {
 
   it('made no request outside the local server and raised no script error', () => {
     expect(foreign).toEqual([]);
-    expect(errors).toEqual([]);
+    // the one refused request is the deliberately broken upload
+    const refused = errors.filter((text) => text.includes('status of 400'));
+    expect(refused).toHaveLength(1);
+    expect(errors.filter((text) => !refused.includes(text))).toEqual([]);
   });
 }, 240_000);

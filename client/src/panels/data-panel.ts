@@ -13,7 +13,10 @@ export function initDataPanel(container: HTMLElement, store: Store): void {
   const summary = el('div', { id: 'dataset-summary' });
   const earlier = el('div', { id: 'earlier-sweeps' });
   initEarlierSweeps(earlier, store);
-  const upload = el('details', { class: 'upload' }, el('summary', {}, 'Upload your own data'), uploadForm((dataset) => void choose(dataset)));
+  const upload = el('details', { class: 'upload' }, el('summary', {}, 'Upload your own data'), uploadForm((dataset) => {
+    upload.open = false;
+    void choose(dataset);
+  }));
 
   async function choose(dataset: StoredDataset): Promise<void> {
     clear(status, message('info', `Loading ${dataset.name}...`));
