@@ -2,6 +2,8 @@
  * The piscina task entry: one function of one task object. It only builds (and caches per dataset) the engine's
  * counters from shared memory and calls the pure chunk and simulation kernels of workers/sweep.
  */
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import { move } from 'piscina';
 import { createCellCounter } from './placement/index.js';
 import { createCsrSampler, type CsrSampler } from './random/index.js';
@@ -46,8 +48,21 @@ function runSimulate(task: SimulateTask): number {
   return task.count;
 }
 
+/** Points from which a chunk's garbage (coverage grids of millions of cells) is collected at once. */
+const COLLECT_FROM_POINTS = 2e6;
+
+/**
+ * A full garbage collection, for chunks over very large datasets: their per-placement grids are external memory
+ * that V8 would otherwise keep for a while, in every worker at once. Enabled once per thread.
+ */
+function collectGarbage(): void {
+  setFlagsFromString('--expose-gc');
+  (runInNewContext('gc') as () => void)();
+}
+
 export default function poolTask(task: SweepTask): unknown {
   if (task.kind === 'simulate') return runSimulate(task);
   const result = runChunk(task);
+  if (task.points.byteLength / 16 >= COLLECT_FROM_POINTS) collectGarbage();
   return move(result);
 }

@@ -3,7 +3,7 @@
  * (the only ones ever counted), Morton-sorted once so that the count array stays in cache, and the packed region.
  */
 import type { Dataset } from '../contracts.js';
-import { mortonSort } from '../../workers/placement/index.js';
+import { mortonCodes, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
 import type { Origin } from '../../workers/types.js';
 
@@ -28,16 +28,35 @@ export function insideCoordinates(dataset: Dataset): Float64Array {
   return result;
 }
 
-/** Copies the inside points (Morton-sorted) and the region into shared memory. Cost O(n log n). */
+/**
+ * True when the dataset's coordinates can be shared as they are: the whole of a SharedArrayBuffer, every point
+ * inside the valid region in storage order, and already in Morton order. Cost O(n).
+ */
+export function isShareableAsIs(dataset: Dataset): boolean {
+  const { xy, inside } = dataset;
+  if (!(xy.buffer instanceof SharedArrayBuffer) || xy.byteOffset !== 0 || xy.byteLength !== xy.buffer.byteLength) return false;
+  if (inside.length * 2 !== xy.length) return false;
+  for (let k = 0; k < inside.length; k++) if (inside[k] !== k) return false;
+  const codes = mortonCodes(xy);
+  for (let k = 1; k < codes.length; k++) if (codes[k] < codes[k - 1]) return false;
+  return true;
+}
+
+/**
+ * Puts the inside points (Morton-sorted) and the region into shared memory. Zero-copy when the dataset's
+ * coordinates are already shared, all inside and sorted (isShareableAsIs); otherwise one sorted copy.
+ * Cost O(n) (radix sort).
+ */
 export function shareDataset(dataset: Dataset): SharedDataset {
-  const sorted = mortonSort(insideCoordinates(dataset));
-  const points = new SharedArrayBuffer(sorted.length * 8);
-  new Float64Array(points).set(sorted);
-  return {
+  const shared = {
     key: `dataset-${process.pid}-${nextKey++}`,
-    points,
-    pointCount: sorted.length / 2,
+    pointCount: dataset.inside.length,
     region: packRegion(dataset.region),
     origin: { x: dataset.origin.x, y: dataset.origin.y },
   };
+  if (isShareableAsIs(dataset)) return { ...shared, points: dataset.xy.buffer as SharedArrayBuffer };
+  const sorted = mortonSort(insideCoordinates(dataset));
+  const points = new SharedArrayBuffer(sorted.length * 8);
+  new Float64Array(points).set(sorted);
+  return { ...shared, points };
 }

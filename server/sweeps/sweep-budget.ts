@@ -18,7 +18,7 @@ export const MAX_EVALUATIONS = 2e7;
 export const MAX_SIMULATED_BYTES = 1024 * 1024 * 1024;
 
 /** Work of one chunk task, in point-placements: small enough that a cancelled sweep stops within a second. */
-export const CHUNK_WORK = 2e7;
+export const CHUNK_WORK = 1e7;
 
 /** Most placements in one chunk task. */
 export const MAX_CHUNK_PLACEMENTS = 64;

@@ -92,7 +92,7 @@ describe('estimateSweep and assertWithinBudget', () => {
     expect(estimate.work).toBe(1000 * 128 * 3 * 20);
     expect(estimate.budget).toBe(1e9);
     expect(estimate.evaluations).toBe(128 * 3 * 20);
-    // 2e7 / (1000 * 20) = 1000 placements per chunk, capped at 64: 2 chunks per size
+    // 1e7 / (1000 * 20) = 500 placements per chunk, capped at 64: 2 chunks per size
     expect(chunkPlacements(1000, 19)).toBe(64);
     expect(estimate.tasks).toBe(6);
     expect(() => assertWithinBudget(estimate)).not.toThrow();

@@ -7,7 +7,9 @@ import { booleanPointInPolygon, point, polygon } from '@turf/turf';
 import type { Dataset, SweepProgress } from '../../server/contracts.js';
 import { GridshakeError } from '../../server/errors.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
+import { insideCoordinates, isShareableAsIs } from '../../server/sweeps/shared-dataset.js';
 import { POOL_TASK_FILE, SweepPool } from '../../server/sweeps/sweep-pool.js';
+import { mortonSort } from '../../workers/placement/index.js';
 import { AREA_RING, RESERVOIR_RING, fixtureDataset } from './sweep-fixtures.js';
 
 // The pool runs dist/workers/pool-task.js: build first (npm test does; or npx tsc -p tsconfig.json).
@@ -42,6 +44,20 @@ describe('SweepPool.runSweep', () => {
     const other = await double.runSweep(uniform, { ...plan, seed: 12 });
     expect(other.rows).toEqual(a.rows);
     expect(other.summary.sizes[0].monteCarlo?.simulatedMedians).not.toEqual(a.summary.sizes[0].monteCarlo?.simulatedMedians);
+  });
+
+  it('shares coordinates that are already shared and Morton-sorted as they are, with the same results', async () => {
+    const sorted = mortonSort(insideCoordinates(uniform));
+    const xy = new Float64Array(new SharedArrayBuffer(sorted.byteLength));
+    xy.set(sorted);
+    const inside = Uint32Array.from({ length: xy.length / 2 }, (_, k) => k);
+    const asIs: Dataset = { ...uniform, xy, inside, ids: Array.from({ length: inside.length }, (_, k) => `s${k}`), outsideIds: [] };
+    expect(isShareableAsIs(asIs)).toBe(true);
+    expect(isShareableAsIs(uniform)).toBe(false);
+    const plan = normalizePlan({ cells: [90], placements: 40, sims: 5 });
+    const [copied, shared] = await Promise.all([double.runSweep(uniform, plan), double.runSweep(asIs, plan)]);
+    expect(shared.rows).toEqual(copied.rows);
+    expect(shared.summary.sizes[0].monteCarlo).toEqual(copied.summary.sizes[0].monteCarlo);
   });
 
   it('counts the reference placement like a brute-force count with turf point-in-polygon (whole cells only)', async () => {
