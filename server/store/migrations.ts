@@ -42,4 +42,7 @@ export const MIGRATIONS: readonly string[] = [
     PRIMARY KEY (sweep_id, chunk)
   );
   `,
+  // 2: placement rows as v8-serialised BLOBs (exact doubles, NaN and infinities, fast to read); older chunks
+  // written as JSON text stay readable
+  `ALTER TABLE placement_chunks RENAME COLUMN rows_json TO rows_data;`,
 ];
