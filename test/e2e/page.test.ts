@@ -69,7 +69,9 @@ describe('the analyst page in Chromium', () => {
     const uploads = (await getJson<StoredDataset[]>(server, '/api/datasets')).filter((dataset) => !dataset.sample);
     expect(uploads).toHaveLength(1);
     expect(await page.innerText('[data-testid=dataset-summary]')).toContain(String(uploads[0].n));
-    // a points file without coordinates: the server's coded message is shown as an alert
+    // the form folds away after a good upload; a points file without coordinates gets the server's message
+    expect(await page.getAttribute('details.upload', 'open')).toBeNull();
+    await page.click('.upload summary');
     await page.setInputFiles('input[name=points]', { name: 'broken.csv', mimeType: 'text/csv', buffer: Buffer.from('id,colour\n1,red\n') });
     await page.setInputFiles('input[name=area]', []);
     await page.setInputFiles('input[name=noData]', []);
@@ -142,6 +144,10 @@ describe('the analyst page in Chromium', () => {
     expect(tableRows.map((row) => row[1])).toEqual(ordered.map((size) => formatNumber(size.chi2PerDf.p5)));
     const verdictRows = await page.$$eval('#table-verdicts tbody tr', (rows) => rows.map((row) => Array.from(row.children, (cell) => cell.textContent ?? '')));
     expect(verdictRows.map((row) => row[1])).toEqual(ordered.map((size) => formatNumber(100 * size.verdictShares.clustered)));
+    await page.selectOption('#measure-select', 'vmr');
+    await expect.poll(() => page.$$eval('#table-cell-size tbody tr td:nth-child(4)', (cells) => cells.map((cell) => cell.textContent))).toEqual(ordered.map((size) => formatNumber(size.vmr.p50)));
+    expect(await canvasInk(page, '#chart-cell-size')).toBeGreaterThan(0.01);
+    await page.selectOption('#measure-select', 'chi2PerDf');
     const first = ordered[0];
     expect(await page.innerText('[data-testid=size-conclusion]')).toBe(first.conclusion);
     const numbers = await page.innerText('[data-testid=size-numbers]');

@@ -26,14 +26,13 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
   const renderOverview = (summary: SweepSummary) => {
     views.forEach((view) => view.destroy());
     const series = cellSizeSeries(summary.sizes, measure);
+    const [cellSize, verdicts] = overviewBundles(summary, measure);
     const clickCellSize: ChartClick = (datasetIndex, index) => {
       // any element of a size column selects that size; the reference triangle also shows the reference grid
       const sizeIndex = series.sizeIndex[index];
       store.update({ sizeIndex });
-      const bundle = overviewBundles(summary, measure)[0];
-      if (bundle.spec.data.datasets[datasetIndex]?.label === 'reference placement') pick(sizeIndex, series.referencePlacementIndex[index]);
+      if (cellSize.spec.data.datasets[datasetIndex]?.label === 'reference placement') pick(sizeIndex, series.referencePlacementIndex[index]);
     };
-    const [cellSize, verdicts] = overviewBundles(summary, measure);
     views = [new ChartView(cellSize, clickCellSize), new ChartView(verdicts)];
     clear(overviewBox, ...views.map((view) => view.element));
     views.forEach((view) => view.render());
