@@ -178,6 +178,14 @@ describe('the analyst page in Chromium', () => {
     await heatmap.click({ position: { x: box.width * 0.55, y: box.height * 0.5 } });
     await expect.poll(() => page.innerText('#map-caption')).not.toBe(caption);
     expect(await page.innerText('#map-caption')).toMatch(/^Placement \d+ at/);
+    // click the bar of the largest cell side in the verdict chart: the detail charts follow
+    const largest = [...summary.sizes].sort((a, b) => a.cellSize - b.cellSize)[2];
+    const verdicts = page.locator('#chart-verdicts');
+    await verdicts.scrollIntoViewIfNeeded();
+    const verdictBox = (await verdicts.boundingBox())!;
+    await verdicts.click({ position: { x: 50 + (verdictBox.width - 60) * (5 / 6), y: verdictBox.height * 0.45 } });
+    await expect.poll(() => page.inputValue('#size-select')).toBe(String(largest.sizeIndex));
+    await expect.poll(() => page.innerText('[data-testid=size-conclusion]')).toBe(largest.conclusion);
   });
 
   it('5 Report: downloads a PNG with a white background, the grid, and the HTML report with its content', async () => {

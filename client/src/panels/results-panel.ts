@@ -33,7 +33,11 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
       store.update({ sizeIndex });
       if (cellSize.spec.data.datasets[datasetIndex]?.label === 'reference placement') pick(sizeIndex, series.referencePlacementIndex[index]);
     };
-    views = [new ChartView(cellSize, clickCellSize), new ChartView(verdicts)];
+    const clickVerdicts: ChartClick = (_datasetIndex, index) => store.update({ sizeIndex: series.sizeIndex[index] });
+    views = [
+      new ChartView(cellSize, clickCellSize, 'Click a cell side to see it in detail; click a triangle to show the reference grid on the map.'),
+      new ChartView(verdicts, clickVerdicts, 'Click a bar to see that cell side in detail.'),
+    ];
     clear(overviewBox, ...views.map((view) => view.element));
     views.forEach((view) => view.render());
   };
@@ -48,13 +52,13 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
         return new ChartView(bundle, (datasetIndex, index) => {
           const point = (bundle.spec.data.datasets[datasetIndex]?.data as { placementIndex?: number }[] | undefined)?.[index];
           if (point?.placementIndex !== undefined) pick(sizeIndex, point.placementIndex);
-        });
+        }, 'Click a dot to show that placement on the map.');
       }
       if (bundle.id.startsWith('offsets-')) {
         return new ChartView(bundle, (datasetIndex, index) => {
           const placement = (bundle.spec.data.datasets[datasetIndex]?.placementOf as (number | null)[] | undefined)?.[index];
           if (placement !== null && placement !== undefined) pick(sizeIndex, placement);
-        });
+        }, 'Click a cell to show the placement nearest its centre on the map.');
       }
       return new ChartView(bundle);
     });

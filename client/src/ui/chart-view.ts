@@ -21,7 +21,7 @@ export class ChartView {
   private readonly canvas: HTMLCanvasElement;
   private readonly tableBox: HTMLElement;
 
-  constructor(private bundle: ChartBundle, private readonly onClick?: ChartClick) {
+  constructor(private bundle: ChartBundle, private readonly onClick?: ChartClick, clickHint?: string) {
     this.canvas = el('canvas', { id: `chart-${bundle.id}`, role: 'img', 'aria-label': bundle.title });
     this.tableBox = el('div', { class: 'chart-table sr-only', id: `table-${bundle.id}` });
     const toggle = el('button', { type: 'button', class: 'button button-small', 'aria-controls': this.tableBox.id, 'aria-expanded': 'false' }, 'Show the numbers');
@@ -36,7 +36,7 @@ export class ChartView {
       'figure',
       { class: 'chart-figure', 'data-chart': bundle.id },
       el('div', { class: 'chart-box' }, this.canvas),
-      el('figcaption', { class: 'chart-actions' }, png, toggle, onClick ? el('span', { class: 'field-hint' }, 'Click a point or cell to show that grid on the map.') : null),
+      el('figcaption', { class: 'chart-actions' }, png, toggle, clickHint ? el('span', { class: 'field-hint' }, clickHint) : null),
       this.tableBox,
     );
     chartViews.set(bundle.id, this);
