@@ -8,6 +8,7 @@ import { buildApp, DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../app.js';
 import { GridshakeError } from '../errors.js';
 import { loadDemoScenarios } from '../services/demo-loader.js';
 import { SAMPLES_DIR } from '../services/project-paths.js';
+import { lockDataFolder } from '../store/data-folder-lock.js';
 import { optionalString, parseChecked, parseWholeNumber, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 
@@ -70,26 +71,37 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
 
   const warning = bindWarning(host);
   if (warning !== null) io.stderr(warning);
-  const app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, logger: { level: 'error' } });
+  const unlock = lockDataFolder(dataDir);
+  let app: Awaited<ReturnType<typeof buildApp>>;
+  try {
+    app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, logger: { level: 'error' } });
+  } catch (error) {
+    unlock();
+    throw error;
+  }
   const services = app.gridshake;
   if (services.interruptedAtStart.length > 0) {
     io.stderr(`gridshake: ${services.interruptedAtStart.length} sweep(s) stopped by the last shutdown are marked interrupted; rerun them from the page\n`);
   }
-  if (values['no-demo'] !== true && services.store.datasets.count() === 0) {
-    const loaded = loadDemoScenarios(services, SAMPLES_DIR);
-    io.stderr(`gridshake: loaded ${loaded.length} invented demo scenarios from ${SAMPLES_DIR}\n`);
-  }
   try {
-    await app.listen({ host, port });
+    if (values['no-demo'] !== true && services.store.datasets.count() === 0) {
+      const loaded = loadDemoScenarios(services, SAMPLES_DIR);
+      io.stderr(`gridshake: loaded ${loaded.length} invented demo scenarios from ${SAMPLES_DIR}\n`);
+    }
+    await app.listen({ host, port }).catch((error: unknown) => {
+      throw new GridshakeError('GS_ERR_LISTEN', 500, `cannot listen on ${host}:${port}: ${(error as Error).message}`);
+    });
   } catch (error) {
     await app.close();
-    throw new GridshakeError('GS_ERR_LISTEN', 500, `cannot listen on ${host}:${port}: ${(error as Error).message}`);
+    unlock();
+    throw error;
   }
   const address = app.server.address() as AddressInfo;
   io.stdout(`gridshake serving at http://${urlHost(host)}:${address.port}/  (database ${services.store.path})\n`);
   const signal = await untilSignal();
   io.stderr(`gridshake: ${signal}: stopping\n`);
   await app.close();
+  unlock();
   return 0;
 }
 

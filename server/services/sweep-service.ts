@@ -51,7 +51,8 @@ export class SweepService {
   }
 
   list(datasetId?: string): SweepView[] {
-    return this.store.sweeps.list(datasetId).map((record) => this.view(record, false));
+    const names = new Map<string, string | null>();
+    return this.store.sweeps.list(datasetId).map((record) => this.view(record, false, names));
   }
 
   get(id: string): SweepView {
@@ -89,14 +90,15 @@ export class SweepService {
     this.store.sweeps.delete(id);
   }
 
-  private view(record: SweepRecord, withSummary: boolean): SweepView {
+  private view(record: SweepRecord, withSummary: boolean, names = new Map<string, string | null>()): SweepView {
     const { summary, ...rest } = record;
+    if (!names.has(record.datasetId)) names.set(record.datasetId, this.store.datasets.summary(record.datasetId)?.name ?? null);
     const position = this.queue.position(record.id);
     const live = this.queue.liveProgress(record.id);
     const view: SweepView = {
       ...rest,
       progress: live ?? record.progress,
-      datasetName: this.store.datasets.summary(record.datasetId)?.name ?? null,
+      datasetName: names.get(record.datasetId) ?? null,
       queuePosition: position >= 0 ? position : null,
       conclusion: record.conclusion,
     };

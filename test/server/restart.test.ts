@@ -101,6 +101,13 @@ describe('gridshake serve across a hard kill', () => {
     const third = await startServer();
     const afterStop = await json(`${third.base}/api/sweeps/${rerun.body.id as string}`);
     expect(afterStop.body.status).toBe('interrupted');
+    // a second server on the same data folder is refused while the first runs (it would mark its sweeps interrupted)
+    const rival = spawn(process.execPath, [BIN, 'serve', '--port', '0', '--data', data.path], { stdio: ['ignore', 'pipe', 'pipe'] });
+    children.push(rival);
+    let rivalErr = '';
+    rival.stderr!.on('data', (chunk: Buffer) => (rivalErr += chunk.toString()));
+    expect((await exited(rival)).code).toBe(1);
+    expect(rivalErr).toContain('another gridshake server');
     third.child.kill('SIGINT');
     expect(await exited(third.child)).toEqual({ code: 0, signal: null });
   });
