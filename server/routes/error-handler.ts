@@ -50,6 +50,9 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
           : `the upload has too many files or fields (${fastifyError.message ?? code})`;
     return { statusCode: 413, code: 'GS_ERR_TOO_LARGE', message: what };
   }
+  if (code === 'FST_ERR_CTP_INVALID_JSON_BODY' || code === 'FST_ERR_CTP_EMPTY_JSON_BODY' || error instanceof SyntaxError) {
+    return { statusCode: 400, code: 'GS_ERR_VALIDATION', message: `the body is not valid JSON: ${fastifyError.message ?? ''}` };
+  }
   if (code === 'FST_ERR_CTP_INVALID_MEDIA_TYPE' || code === 'FST_INVALID_MULTIPART_CONTENT_TYPE') {
     return { statusCode: 415, code: 'GS_ERR_CONTENT_TYPE', message: `unsupported content type: ${fastifyError.message ?? ''}` };
   }

@@ -82,6 +82,14 @@ describe('POST /api/sweeps', () => {
     expect((await app.inject({ method: 'GET', url: '/api/sweeps' })).json().length).toBe(before);
   });
 
+  it('refuses a body that is not JSON, or empty, with GS_ERR_VALIDATION', async () => {
+    for (const payload of ['{"datasetId": ', '']) {
+      const response = await app.inject({ method: 'POST', url: '/api/sweeps', headers: { 'content-type': 'application/json' }, payload });
+      expect(response.statusCode).toBe(400);
+      expect(response.json().code).toBe('GS_ERR_VALIDATION');
+    }
+  });
+
   it('answers 404 for an unknown dataset', async () => {
     const response = await app.inject({
       method: 'POST',
