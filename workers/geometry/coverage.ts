@@ -34,9 +34,8 @@ export function ringsInCellUnits(region: Region, origin: Origin, cellSize: numbe
   });
 }
 
-/** Exact coverage of all cells that the transformed region's bounding box touches. */
-export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
-  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+/** Bounding box [minX, minY, maxX, maxY] of rings in cell units. */
+function ringsExtent(rings: Float64Array[]): [number, number, number, number] {
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
@@ -51,6 +50,35 @@ export function placementCoverage(region: Region, origin: Origin, cellSize: numb
       if (y > maxY) maxY = y;
     }
   }
+  return [minX, minY, maxX, maxY];
+}
+
+/** Accumulate every edge of one ring (cell units) into the grid whose lower-left cell is (i0, j0). */
+function accumulateRing(coverage: Float64Array, ring: Float64Array, i0: number, j0: number, nx: number, ny: number): void {
+  const vertexCount = ring.length >> 1;
+  let previous = vertexCount - 1;
+  for (let k = 0; k < vertexCount; k++) {
+    accumulateEdge(coverage, nx, ny, ring[2 * previous]! - i0, ring[2 * previous + 1]! - j0, ring[2 * k]! - i0, ring[2 * k + 1]! - j0);
+    previous = k;
+  }
+}
+
+/** Prefix sums along each row turn accumulated signed areas into coverages; float noise is clamped. */
+function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
+  for (let row = 0; row < ny; row++) {
+    let running = 0;
+    const offset = row * nx;
+    for (let column = 0; column < nx; column++) {
+      running += coverage[offset + column]!;
+      coverage[offset + column] = running < NOISE ? 0 : running > 1 - NOISE ? 1 : running;
+    }
+  }
+}
+
+/** Exact coverage of all cells that the transformed region's bounding box touches. */
+export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
+  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+  const [minX, minY, maxX, maxY] = ringsExtent(rings);
   if (!(maxX >= minX && maxY >= minY)) throw new RangeError('region has no vertices: cannot compute cell coverage');
   const i0 = Math.floor(minX);
   const j0 = Math.floor(minY);
@@ -62,32 +90,7 @@ export function placementCoverage(region: Region, origin: Origin, cellSize: numb
     );
   }
   const coverage = new Float64Array(nx * ny);
-  for (const ring of rings) {
-    const vertexCount = ring.length >> 1;
-    let previous = vertexCount - 1;
-    for (let k = 0; k < vertexCount; k++) {
-      accumulateEdge(
-        coverage,
-        nx,
-        ny,
-        ring[2 * previous]! - i0,
-        ring[2 * previous + 1]! - j0,
-        ring[2 * k]! - i0,
-        ring[2 * k + 1]! - j0,
-      );
-      previous = k;
-    }
-  }
-  for (let row = 0; row < ny; row++) {
-    let running = 0;
-    const offset = row * nx;
-    for (let column = 0; column < nx; column++) {
-      running += coverage[offset + column]!;
-      let value = running;
-      if (value < NOISE) value = 0;
-      else if (value > 1 - NOISE) value = 1;
-      coverage[offset + column] = value;
-    }
-  }
+  for (const ring of rings) accumulateRing(coverage, ring, i0, j0, nx, ny);
+  prefixSumRows(coverage, nx, ny);
   return { i0, j0, nx, ny, coverage };
 }
