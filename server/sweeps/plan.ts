@@ -18,6 +18,11 @@ export const PLAN_LIMITS = Object.freeze({
   maxCellSizes: 16,
   /** a cell size must leave at least this many whole cells' worth of area in the valid region */
   minCellsInRegion: 2,
+  /**
+   * and at most this many: the work budget counts point-placements only, while coverage costs O(cells) time and
+   * memory per placement (1e8 cells took 50 s and 4 GB for one placement)
+   */
+  maxCellsInRegion: 1 << 22,
 });
 
 const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed']);
@@ -109,9 +114,17 @@ export function resolveCellSizes(plan: Plan, validArea: number, nInside: number)
     sizes = (plan.perCell ?? []).map((k) => cellSizeForExpected(k, validArea, nInside));
   }
   const largest = Math.sqrt(validArea / PLAN_LIMITS.minCellsInRegion);
+  const smallest = Math.sqrt(validArea / PLAN_LIMITS.maxCellsInRegion);
   sizes.forEach((size, index) => {
+    const field = plan.cells ? `plan.cells[${index}]` : `plan.perCell[${index}]`;
+    if (size < smallest) {
+      throw parameterError(
+        `${field} gives cells of ${formatMetres(size)} m, about ${formatMetres(validArea / (size * size))} cells in the ` +
+          `valid region of ${formatMetres(validArea)} m^2, more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
+          `${formatMetres(smallest)} m`,
+      );
+    }
     if (size > largest) {
-      const field = plan.cells ? `plan.cells[${index}]` : `plan.perCell[${index}]`;
       throw parameterError(
         `${field} gives cells of ${formatMetres(size)} m, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
           `valid region of ${formatMetres(validArea)} m^2; use cells of at most ${formatMetres(largest)} m`,
