@@ -85,7 +85,7 @@ export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter
     const nx = integers[2]!;
     const ny = integers[3]!;
     const near = reals[10]!;
-    const far = 1 - near;
+    const halfBand = 0.5 - near;
     const upperX = nx + near;
     const upperY = ny + near;
     let deferredCount = 0;
@@ -97,9 +97,8 @@ export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter
       if (x > -near && x < upperX && y > -near && y < upperY) {
         const i = x | 0;
         const j = y | 0;
-        const fx = x - i;
-        const fy = y - j;
-        if (fx < near || fx > far || fy < near || fy > far) deferred[deferredCount++] = p;
+        // |f - 0.5| > 0.5 - near  <=>  f < near or f > 1 - near (f the fractional part): two compares, not four
+        if (Math.abs(x - i - 0.5) > halfBand || Math.abs(y - j - 0.5) > halfBand) deferred[deferredCount++] = p;
         else out[j * nx + i]!++;
       }
     }
