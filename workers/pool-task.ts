@@ -21,7 +21,8 @@ interface DatasetEntry {
 
 const datasets = new TaskCache<DatasetEntry>();
 const samplers = new TaskCache<CsrSampler>();
-const simulations = new TaskCache<PatternCounter[]>();
+// one simulation at a time: its patterns can be large, and a sweep's patterns are not reused by the next
+const simulations = new TaskCache<PatternCounter[]>(1);
 
 function runChunk(task: ChunkTask): Float64Array {
   const dataset = datasets.get(task.datasetKey, () => ({
