@@ -6,6 +6,7 @@ import { availableParallelism, cpus, loadavg, totalmem } from 'node:os';
 import { runKernelBench } from './kernel-bench.js';
 import { runMemoryBench } from './memory-bench.js';
 import { runNaiveBench } from './naive-bench.js';
+import { runPhaseBench } from './phase-bench.js';
 import { runSweepBench } from './sweep-bench.js';
 
 const only = process.argv[2];
@@ -17,5 +18,6 @@ process.stdout.write(
 if (only === undefined || only === 'kernel') runKernelBench();
 let twoThreadNs = Number.NaN;
 if (only === undefined || only === 'sweep') twoThreadNs = (await runSweepBench()).twoThreadNs;
+if (only === undefined || only === 'sweep' || only === 'phases') runPhaseBench();
 if (only === undefined || only === 'naive') await runNaiveBench(twoThreadNs);
 if (only === undefined || only === 'memory') runMemoryBench();
