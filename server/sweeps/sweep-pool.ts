@@ -6,6 +6,7 @@
 import { setMaxListeners } from 'node:events';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
+import type { ResourceLimits } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../contracts.js';
 import { summarizeDataset } from '../inputs/index.js';
@@ -32,6 +33,8 @@ export interface SweepPoolOptions {
   filename?: string;
   /** work budget in point-placements; default GRIDSHAKE_WORK_BUDGET or DEFAULT_WORK_BUDGET */
   budget?: number;
+  /** heap limits of each worker thread: a worker over them ends with ERR_WORKER_OUT_OF_MEMORY, failing its sweep only */
+  resourceLimits?: ResourceLimits;
 }
 
 export interface SweepRunOptions {
@@ -59,6 +62,7 @@ export class SweepPool {
       minThreads: this.threads,
       maxThreads: this.threads,
       idleTimeout: 60_000,
+      resourceLimits: options.resourceLimits,
     });
   }
 
