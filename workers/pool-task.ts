@@ -53,8 +53,9 @@ function runSimulate(task: SimulateTask): number {
 const COLLECT_FROM_POINTS = 2e6;
 
 /**
- * A full garbage collection, for chunks over very large datasets: their per-placement grids are external memory
- * that V8 would otherwise keep for a while, in every worker at once. Enabled once per thread.
+ * A full garbage collection after a chunk over a very large dataset: its per-placement grids are external memory
+ * that V8 would otherwise keep a while, in every worker at once (server/sweeps/collect-garbage.ts does the same on
+ * the main thread).
  */
 function collectGarbage(): void {
   setFlagsFromString('--expose-gc');

@@ -5,6 +5,7 @@
 import type { Dataset } from '../contracts.js';
 import { mortonCodes, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
+import { collectGarbage, COLLECT_FROM_POINTS } from './collect-garbage.js';
 import type { Origin } from '../../workers/types.js';
 
 export interface SharedDataset {
@@ -55,8 +56,10 @@ export function shareDataset(dataset: Dataset): SharedDataset {
     origin: { x: dataset.origin.x, y: dataset.origin.y },
   };
   if (isShareableAsIs(dataset)) return { ...shared, points: dataset.xy.buffer as SharedArrayBuffer };
-  const sorted = mortonSort(insideCoordinates(dataset));
+  let sorted: Float64Array | null = mortonSort(insideCoordinates(dataset));
   const points = new SharedArrayBuffer(sorted.length * 8);
   new Float64Array(points).set(sorted);
+  sorted = null;
+  if (shared.pointCount >= COLLECT_FROM_POINTS) collectGarbage();
   return { ...shared, points };
 }
