@@ -8,7 +8,11 @@
  * floor. A point whose shifted cell coordinate lies within 2^-20 of a grid line is deferred to an exact pass (the
  * contract's formula with division and Math.floor), so every point gets exactly the contract's cell. Float64 throughout:
  * float32 moves points across lines (issue 3, benchmark notes).
- * Cost O(n + cells) per placement, O(1) memory besides the output.
+ * Measured on the 2-core test machine, 1e6 uniform points, 5 per cell, 16 rotated placements, CPU time: about
+ * 4.6 to 5.5 ns per point-placement with Morton-sorted points against 8.2 to 8.7 for the plain loop (division,
+ * Math.floor). With several counters alive in one thread (closures of one function share optimized code) the
+ * kernel runs about 30 % slower.
+ * Cost O(n + cells) per placement; memory: a 32 KB buffer of deferred point indices besides the output.
  */
 import type { CoverageGrid, Origin, Placement } from '../types.js';
 import { cosSinDegrees } from '../geometry/grid-frame.js';
