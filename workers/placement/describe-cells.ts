@@ -6,8 +6,7 @@
  */
 import { cellCorners, createGridFrame } from '../geometry/grid-frame.js';
 import { placementCoverage } from '../geometry/coverage.js';
-import type { Origin, Placement, Region } from '../types.js';
-import type { CellCounter } from './cell-counter.js';
+import type { EvaluatePlacementInput } from './evaluate-placement.js';
 import { selectCells } from './select-cells.js';
 
 export interface CellDescription {
@@ -20,14 +19,8 @@ export interface CellDescription {
   corners: [number, number][];
 }
 
-export interface DescribeCellsInput {
-  counter: Pick<CellCounter, 'count'>;
-  region: Region;
-  origin: Origin;
-  cellSize: number;
-  placement: Placement;
-  minCoverage: number;
-}
+/** The same placement inputs as evaluatePlacement, without the statistics' alpha. */
+export type DescribeCellsInput = Omit<EvaluatePlacementInput, 'alpha' | 'scratch'>;
 
 export function describeCells(input: DescribeCellsInput): CellDescription[] {
   const { counter, region, origin, cellSize, placement, minCoverage } = input;
