@@ -2,6 +2,7 @@
  * The page's only network access: the local server's /api (shared/design.md, HTTP API). Errors arrive as
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
+import type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
 import type { DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../server/contracts.js';
 
 export class ApiError extends Error {
@@ -23,15 +24,7 @@ export interface StoredDataset extends DatasetSummary {
   sample?: string | null;
 }
 
-export interface DatasetGeometry {
-  points: number[];
-  pointInside: number[];
-  totalPoints: number;
-  stride: number;
-  studyArea: number[][][][];
-  noDataZones: number[][][][];
-  bbox: { minX: number; minY: number; maxX: number; maxY: number };
-}
+export type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
 
 export interface SweepRecord {
   id: string;
