@@ -21,7 +21,11 @@ function isRunning(pid: number): boolean {
 /** Take the folder's lock or throw GS_ERR_STORAGE naming the process that holds it; returns the release function. */
 export function lockDataFolder(dataDir: string): () => void {
   const folder = resolve(dataDir);
-  mkdirSync(folder, { recursive: true });
+  try {
+    mkdirSync(folder, { recursive: true });
+  } catch (error) {
+    throw storageError(`cannot create the data folder ${folder}: ${(error as Error).message}`);
+  }
   const path = join(folder, LOCK_FILE_NAME);
   try {
     writeFileSync(path, String(process.pid), { flag: 'wx' });
