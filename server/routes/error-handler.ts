@@ -63,6 +63,10 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
       message: `the upload is not a complete multipart/form-data body (${fastifyError.message ?? ''}); send it again`,
     };
   }
+  if (code === 'SQLITE_FULL' || code === 'SQLITE_READONLY' || code.startsWith('SQLITE_IOERR')) {
+    const why = code === 'SQLITE_FULL' ? 'the disk holding the data folder is full' : 'the data folder cannot be written';
+    return { statusCode: 507, code: 'GS_ERR_STORAGE', message: `the database could not be written: ${why} (${code}); nothing was stored` };
+  }
   const status = fastifyError.statusCode ?? 500;
   if (status >= 400 && status < 500) {
     return { statusCode: status, code: 'GS_ERR_REQUEST', message: fastifyError.message ?? 'bad request' };
@@ -98,6 +102,6 @@ export const ERROR_SCHEMA = {
 /** The error responses of a route, for its `response` schema. */
 export function errorResponses(...statuses: number[]): Record<number, { $ref: string }> {
   const responses: Record<number, { $ref: string }> = {};
-  for (const status of [...statuses, 421, 403, 415, 500]) responses[status] = { $ref: 'gsError#' };
+  for (const status of [...statuses, 421, 403, 415, 500, 507]) responses[status] = { $ref: 'gsError#' };
   return responses;
 }
