@@ -51,7 +51,7 @@ export interface RawResponse {
  * Send `head` (request line and headers, without the final blank line) and `body` over a fresh socket, exactly as
  * given, and read the whole response (Connection: close is added).
  */
-export function rawRequest(port: number, head: string, body: Buffer | string = ''): Promise<RawResponse> {
+export function rawRequest(port: number, head: string, body: Uint8Array | string = ''): Promise<RawResponse> {
   return new Promise((resolve, reject) => {
     const socket = connect({ host: '127.0.0.1', port });
     const chunks: Buffer[] = [];
@@ -98,14 +98,14 @@ export interface UploadPart {
 }
 
 /** A multipart/form-data body, serialised by the platform's FormData (as a browser would). */
-export async function multipartBody(parts: UploadPart[]): Promise<{ payload: Buffer; contentType: string }> {
+export async function multipartBody(parts: UploadPart[]): Promise<{ payload: Uint8Array<ArrayBuffer>; contentType: string }> {
   const form = new FormData();
   for (const part of parts) {
     if (part.filename === undefined) form.append(part.field, typeof part.value === 'string' ? part.value : Buffer.from(part.value).toString('utf8'));
-    else form.append(part.field, new Blob([part.value]), part.filename);
+    else form.append(part.field, new Blob([typeof part.value === 'string' ? part.value : new Uint8Array(part.value)]), part.filename);
   }
   const response = new Response(form);
-  return { payload: Buffer.from(await response.arrayBuffer()), contentType: response.headers.get('content-type') as string };
+  return { payload: new Uint8Array(await response.arrayBuffer()), contentType: response.headers.get('content-type') as string };
 }
 
 /** The multipart parts of a loadDataset call (points, area, noData files; crs, x, y, id fields). */
