@@ -55,11 +55,15 @@ export function shareDataset(dataset: Dataset): SharedDataset {
     region: packRegion(dataset.region),
     origin: { x: dataset.origin.x, y: dataset.origin.y },
   };
-  if (isShareableAsIs(dataset)) return { ...shared, points: dataset.xy.buffer as SharedArrayBuffer };
-  let sorted: Float64Array | null = mortonSort(insideCoordinates(dataset));
-  const points = new SharedArrayBuffer(sorted.length * 8);
-  new Float64Array(points).set(sorted);
-  sorted = null;
+  const points = isShareableAsIs(dataset) ? (dataset.xy.buffer as SharedArrayBuffer) : sortedCopy(dataset);
+  // the Morton codes and the sorted temporaries are garbage now; an idle main thread would keep them
   if (shared.pointCount >= COLLECT_FROM_POINTS) collectGarbage();
   return { ...shared, points };
+}
+
+function sortedCopy(dataset: Dataset): SharedArrayBuffer {
+  const sorted = mortonSort(insideCoordinates(dataset));
+  const points = new SharedArrayBuffer(sorted.length * 8);
+  new Float64Array(points).set(sorted);
+  return points;
 }
