@@ -81,9 +81,8 @@ export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter
 
   /** The fast pass over points [start, end), then the exact pass over the points it deferred. */
   function countBlock(out: Int32Array, start: number, end: number): void {
-    const cos = reals[2]!;
-    const sin = reals[3]!;
-    const inverseSize = reals[4]!;
+    const cosOverSize = reals[2]! * reals[4]!;
+    const sinOverSize = reals[3]! * reals[4]!;
     const shiftX = reals[5]!;
     const shiftY = reals[6]!;
     const nx = integers[2]!;
@@ -96,8 +95,8 @@ export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter
     for (let p = start; p < end; p++) {
       const dx = points[2 * p]! - originX;
       const dy = points[2 * p + 1]! - originY;
-      const x = (dx * cos + dy * sin) * inverseSize - shiftX;
-      const y = (dy * cos - dx * sin) * inverseSize - shiftY;
+      const x = dx * cosOverSize + dy * sinOverSize - shiftX;
+      const y = dy * cosOverSize - dx * sinOverSize - shiftY;
       if (x > -near && x < upperX && y > -near && y < upperY) {
         const i = x | 0;
         const j = y | 0;

@@ -11,6 +11,45 @@ export interface CountClass {
 }
 
 /**
+ * Adds `cells` times the Poisson probabilities of classes 0..K-1 and of the open class P(X >= K) for mean
+ * lambda = cellExpected. Probabilities by the recurrence p_k = p_(k-1) * lambda / k from p_0 = exp(-lambda) (in
+ * logarithms when exp(-lambda) would underflow); the open class P(X >= K) is summed directly from its own terms
+ * (K > lambda here, since K is above the largest count, so they fall geometrically) or, when K <= lambda, taken
+ * as the regularized lower incomplete gamma P(K, lambda); never as 1 - cdf. Cost O(K) plus a few tail terms.
+ */
+function addPoissonRow(expected: Float64Array, cellExpected: number, cells: number, openClassFrom: number): void {
+  if (cellExpected === 0) {
+    expected[0]! += cells;
+    return;
+  }
+  const useLogs = cellExpected > 700;
+  const logExpected = Math.log(cellExpected);
+  let logProbability = -cellExpected;
+  let probability = Math.exp(-cellExpected);
+  for (let k = 0; k < openClassFrom; k++) {
+    if (k > 0) {
+      if (useLogs) logProbability += logExpected - Math.log(k);
+      else probability *= cellExpected / k;
+    }
+    expected[k]! += cells * (useLogs ? Math.exp(logProbability) : probability);
+  }
+  expected[openClassFrom]! += cells * openClassProbability(cellExpected, openClassFrom, useLogs ? Number.NaN : probability);
+}
+
+/** P(X >= K) for X ~ Poisson(lambda), given p_(K-1) (NaN when unknown). */
+function openClassProbability(lambda: number, openClassFrom: number, previousProbability: number): number {
+  if (openClassFrom === 0) return 1;
+  if (openClassFrom <= lambda || !(previousProbability > 0)) return gammainc(lambda, openClassFrom);
+  let term = (previousProbability * lambda) / openClassFrom;
+  let tail = 0;
+  for (let k = openClassFrom; term > tail * 1e-17; k++) {
+    tail += term;
+    term *= lambda / (k + 1);
+  }
+  return tail;
+}
+
+/**
  * Poisson frequency table of cell counts: classes 0, 1, ..., K-1 and the open class ">=K".
  *
  * Formula: observed f_k = #{cells with count k} (f_>=K for counts >= K); expected frequency of class k is
@@ -37,24 +76,19 @@ export function poissonFrequencyTable(counts: ArrayLike<number>, coverage: Array
     coverageSum += coverage[c]!;
     observed[Math.min(counts[c]!, openClassFrom)]! += 1;
   }
-  const cellsByExpected = new Map<number, number>();
+  // Whole cells share one expected count: one Poisson row for all of them, without hashing each cell.
+  let wholeCells = 0;
+  const partialCellsByExpected = new Map<number, number>();
   for (let c = 0; c < counts.length; c++) {
-    const cellExpected = (points * coverage[c]!) / coverageSum;
-    cellsByExpected.set(cellExpected, (cellsByExpected.get(cellExpected) ?? 0) + 1);
-  }
-  for (const [cellExpected, cells] of cellsByExpected) {
-    if (cellExpected === 0) {
-      expected[0]! += cells;
+    if (coverage[c] === 1) {
+      wholeCells += 1;
       continue;
     }
-    const logExpected = Math.log(cellExpected);
-    let logProbability = -cellExpected;
-    for (let k = 0; k < openClassFrom; k++) {
-      if (k > 0) logProbability += logExpected - Math.log(k);
-      expected[k]! += cells * Math.exp(logProbability);
-    }
-    expected[openClassFrom]! += cells * (openClassFrom === 0 ? 1 : gammainc(cellExpected, openClassFrom));
+    const cellExpected = (points * coverage[c]!) / coverageSum;
+    partialCellsByExpected.set(cellExpected, (partialCellsByExpected.get(cellExpected) ?? 0) + 1);
   }
+  if (wholeCells > 0) addPoissonRow(expected, points / coverageSum, wholeCells, openClassFrom);
+  for (const [cellExpected, cells] of partialCellsByExpected) addPoissonRow(expected, cellExpected, cells, openClassFrom);
   const classes: CountClass[] = [];
   for (let k = 0; k < classCount; k++) {
     classes.push({ lowest: k, highest: k === openClassFrom ? Number.POSITIVE_INFINITY : k,
