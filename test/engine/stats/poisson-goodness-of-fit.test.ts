@@ -1,3 +1,4 @@
+import gammainc from '@stdlib/math-base-special-gammainc';
 import { describe, expect, it } from 'vitest';
 import {
   classLabel, mergeSmallClasses, poissonFrequencyTable, poissonGoodnessOfFit,
@@ -71,4 +72,27 @@ describe('mergeSmallClasses: adjacent pooling until every expected count is >= 5
     expect(poissonGoodnessOfFit([0, 1, 0, 1, 0, 1, 0, 1, 0, 1], new Array<number>(10).fill(1))).toBeNull();
     expect(poissonGoodnessOfFit([0, 0, 0], [1, 1, 1])).toBeNull();
   });
+});
+
+describe('poissonFrequencyTable class probabilities against stdlib', () => {
+  // Reference: @stdlib/math-base-special-gammainc (regularized lower incomplete gamma): for X ~ Poisson(lambda),
+  // P(X >= K) = P(K, lambda) (Abramowitz & Stegun 1964, 26.4.21), and P(X = k) = P(k, lambda) - P(k + 1, lambda).
+  const cases: [number, number][] = [[0.3, 2], [0.93, 6], [5, 12], [5, 40], [42.5, 60], [750, 800], [750, 900]];
+  for (const [lambda, openClassFrom] of cases) {
+    it(`lambda ${lambda}, open class >= ${openClassFrom}: every class within 1e-12 relative of the gamma form`, () => {
+      // m whole cells with N = m * lambda points: every cell's expected count is lambda
+      const m = 4;
+      const counts = [Math.round(lambda * m), 0, 0, 0];
+      const table = poissonFrequencyTable(counts, [1, 1, 1, 1], openClassFrom);
+      const lambdaUsed = counts[0]! / m;
+      const open = table[openClassFrom]!.expected / m;
+      const reference = gammainc(lambdaUsed, openClassFrom);
+      expect(Math.abs(open - reference)).toBeLessThanOrEqual(1e-12 * reference + 1e-300);
+      for (const k of [0, 1, Math.floor(openClassFrom / 2), openClassFrom - 1]) {
+        const pointProbability = table[k]!.expected / m;
+        const fromGamma = (k === 0 ? 1 : gammainc(lambdaUsed, k)) - gammainc(lambdaUsed, k + 1);
+        expect(Math.abs(pointProbability - fromGamma)).toBeLessThanOrEqual(1e-9 * Math.max(pointProbability, 1e-300) + 1e-15);
+      }
+    });
+  }
 });
