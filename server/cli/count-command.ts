@@ -4,41 +4,33 @@
  */
 import { DEFAULT_PLAN } from '../contracts.js';
 import { parameterError } from '../errors.js';
-import { loadDataset, summarizeDataset } from '../inputs/index.js';
+import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import {
-  optionalString,
   parseAlpha,
   parseAngle,
   parseMinCoverage,
   parseOffset,
   parsePositiveMetres,
   requireString,
-  stringList,
   type OptionSpecs,
   type OptionValues,
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import type { CountResult } from './count-result.js';
 import { formatCount } from './format-count.js';
-import { readInputFile } from './read-input-file.js';
+import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 
 /** Defaults of a single count: the sweep plan's, so that count and a sweep's reference placement agree. */
 export const COUNT_DEFAULTS = Object.freeze({ minCoverage: DEFAULT_PLAN.minCoverage, alpha: DEFAULT_PLAN.alpha });
 
 const OPTIONS: OptionSpecs = {
-  points: { type: 'string', value: 'FILE', description: 'points: CSV with a header row, or GeoJSON Point features' },
-  area: { type: 'string', value: 'FILE', description: "study area (GeoJSON polygons); default: the points' bounding box" },
-  'no-data': { type: 'string', multiple: true, value: 'FILE', description: 'no-data zones (GeoJSON polygons)' },
-  crs: { type: 'string', value: 'CRS', description: "'planar' (metres already) or EPSG:n; default: longitude/latitude" },
+  ...DATASET_OPTIONS,
   cell: { type: 'string', value: 'M', description: 'cell side in metres' },
   angle: { type: 'string', value: 'DEG', description: 'grid rotation, degrees counter-clockwise in [0, 90); default 0' },
   offset: { type: 'string', value: 'U,V', description: 'grid offset in cell units, each in [0, 1); default 0,0' },
   'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
   alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
-  x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
-  y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
-  id: { type: 'string', value: 'COL', description: 'CSV column of record ids; default: id, fid, record, ... or the record number' },
   json: { type: 'boolean', description: 'print one JSON object instead of text' },
 };
 
@@ -54,30 +46,12 @@ function countParameters(values: OptionValues) {
   };
 }
 
-/** Coordinates of the points inside the valid region only: the engine never sees the others. */
-function insideCoordinates(xy: Float64Array, inside: Uint32Array): Float64Array {
-  const result = new Float64Array(inside.length * 2);
-  inside.forEach((index, k) => {
-    result[2 * k] = xy[2 * index];
-    result[2 * k + 1] = xy[2 * index + 1];
-  });
-  return result;
-}
 
 async function runCount(values: OptionValues, io: CliIo): Promise<number> {
-  const pointsPath = requireString(values, 'points');
   const parameters = countParameters(values);
-  const areaPath = optionalString(values, 'area');
-  const dataset = loadDataset(
-    {
-      points: readInputFile(pointsPath),
-      area: areaPath === undefined ? undefined : readInputFile(areaPath),
-      noData: stringList(values, 'no-data').map(readInputFile),
-    },
-    { crs: optionalString(values, 'crs'), x: optionalString(values, 'x'), y: optionalString(values, 'y'), id: optionalString(values, 'id') },
-  );
+  const dataset = loadDatasetFromFlags(values);
   const summary = summarizeDataset(dataset);
-  const counter = createCellCounter(insideCoordinates(dataset.xy, dataset.inside), dataset.origin);
+  const counter = createCellCounter(insideCoordinates(dataset), dataset.origin);
   const keptCells = (): never => {
     throw parameterError(
       `--cell ${parameters.cellSize} m leaves fewer than 2 cells with coverage >= ${parameters.minCoverage} in the ` +

@@ -7,7 +7,6 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Plan, SweepProgress } from '../contracts.js';
 import { GridshakeError, parameterError } from '../errors.js';
-import { loadDataset } from '../inputs/index.js';
 import { renderReport } from '../report/render-report.js';
 import { normalizePlan } from '../sweeps/plan.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
@@ -21,19 +20,15 @@ import {
   parsePositiveList,
   parseWholeNumber,
   requireString,
-  stringList,
   type OptionSpecs,
   type OptionValues,
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
-import { readInputFile } from './read-input-file.js';
+import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 import { progressLine } from './sweep-progress.js';
 
 const OPTIONS: OptionSpecs = {
-  points: { type: 'string', value: 'FILE', description: 'points: CSV with a header row, or GeoJSON Point features' },
-  area: { type: 'string', value: 'FILE', description: "study area (GeoJSON polygons); default: the points' bounding box" },
-  'no-data': { type: 'string', multiple: true, value: 'FILE', description: 'no-data zones (GeoJSON polygons)' },
-  crs: { type: 'string', value: 'CRS', description: "'planar' (metres already) or EPSG:n; default: longitude/latitude" },
+  ...DATASET_OPTIONS,
   cells: { type: 'string', value: 'M,M,...', description: 'cell sides in metres (up to 16)' },
   'per-cell': { type: 'string', value: 'K,K,...', description: 'expected points per cell, turned into sides sqrt(K A / n)' },
   placements: { type: 'string', value: 'N', description: 'placements per cell size, 1..65536; default 256' },
@@ -45,9 +40,6 @@ const OPTIONS: OptionSpecs = {
   seed: { type: 'string', value: 'S', description: 'seed of the simulations, an integer; default 1' },
   out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
-  x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
-  y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
-  id: { type: 'string', value: 'COL', description: 'CSV column of record ids' },
 };
 
 const FLAG_NAMES: Record<string, string> = {
@@ -106,19 +98,10 @@ function progressWriter(io: CliIo): { update(progress: SweepProgress): void; end
 }
 
 async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number> {
-  const pointsPath = requireString(values, 'points');
   const outDir = requireString(values, 'out');
   const plan = planFromFlags(values);
   const threads = optionalString(values, 'threads');
-  const areaPath = optionalString(values, 'area');
-  const dataset = loadDataset(
-    {
-      points: readInputFile(pointsPath),
-      area: areaPath === undefined ? undefined : readInputFile(areaPath),
-      noData: stringList(values, 'no-data').map(readInputFile),
-    },
-    { crs: optionalString(values, 'crs'), x: optionalString(values, 'x'), y: optionalString(values, 'y'), id: optionalString(values, 'id') },
-  );
+  const dataset = loadDatasetFromFlags(values);
   const pool = new SweepPool({ threads: threads === undefined ? undefined : parseWholeNumber(threads, 'threads', 1) });
   const controller = new AbortController();
   const onInterrupt = (): void => controller.abort();

@@ -3,3 +3,4 @@ export { summarizeDataset, cellSideFor, CELL_SIZE_RULES } from './summarize-data
 export type { InputFile } from './input-file.js';
 export { laeaDefinition } from './coordinate-system.js';
 export { signedRingArea, polygonArea, multiPolygonArea } from './planar-rings.js';
+export { insideCoordinates } from './inside-coordinates.js';

@@ -4,6 +4,7 @@
  * kept. Coordinates are planar, not longitude/latitude, so the collection carries a note of its coordinate system
  * (and the legacy `crs` member when the system is an EPSG one in metres, which GIS programs read).
  */
+import { insideCoordinates } from '../inputs/inside-coordinates.js';
 import type { Dataset } from '../contracts.js';
 import { createCellCounter, describeCells } from '../../workers/placement/index.js';
 import type { Placement } from '../../workers/types.js';
@@ -16,15 +17,6 @@ export interface GridRequest {
   placementIndex: number;
 }
 
-/** The coordinates of the points inside the valid region: the only ones ever counted. */
-function insidePoints(dataset: Dataset): Float64Array {
-  const xy = new Float64Array(dataset.inside.length * 2);
-  dataset.inside.forEach((index, k) => {
-    xy[2 * k] = dataset.xy[2 * index] as number;
-    xy[2 * k + 1] = dataset.xy[2 * index + 1] as number;
-  });
-  return xy;
-}
 
 function coordinateNote(dataset: Dataset): { note: string; crsMember?: unknown } {
   const projection = dataset.projection;
@@ -42,7 +34,7 @@ function coordinateNote(dataset: Dataset): { note: string; crsMember?: unknown }
 }
 
 export function placementGrid(dataset: Dataset, request: GridRequest): Record<string, unknown> {
-  const counter = createCellCounter(insidePoints(dataset), dataset.origin);
+  const counter = createCellCounter(insideCoordinates(dataset), dataset.origin);
   const cells = describeCells({
     counter,
     region: dataset.region,

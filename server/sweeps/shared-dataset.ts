@@ -2,6 +2,7 @@
  * A dataset's points and region in shared memory, built once per dataset: the points inside the valid region
  * (the only ones ever counted), Morton-sorted once so that the count array stays in cache, and the packed region.
  */
+import { insideCoordinates } from '../inputs/inside-coordinates.js';
 import type { Dataset } from '../contracts.js';
 import { mortonCodes, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
@@ -17,17 +18,6 @@ export interface SharedDataset {
 }
 
 let nextKey = 1;
-
-/** Coordinates (interleaved x, y) of the points inside the valid region. Cost O(n). */
-export function insideCoordinates(dataset: Dataset): Float64Array {
-  const { xy, inside } = dataset;
-  const result = new Float64Array(inside.length * 2);
-  for (let k = 0; k < inside.length; k++) {
-    result[2 * k] = xy[2 * inside[k]];
-    result[2 * k + 1] = xy[2 * inside[k] + 1];
-  }
-  return result;
-}
 
 /**
  * True when the dataset's coordinates can be shared as they are: the whole of a SharedArrayBuffer, every point

@@ -1,0 +1,13 @@
+/** The coordinates (interleaved x, y) of a dataset's points inside the valid region: the only ones ever counted. */
+import type { Dataset } from '../contracts.js';
+
+/** Gathers xy[inside[k]] in the order of `inside`. Cost O(n inside). */
+export function insideCoordinates(dataset: Pick<Dataset, 'xy' | 'inside'>): Float64Array {
+  const { xy, inside } = dataset;
+  const result = new Float64Array(inside.length * 2);
+  for (let k = 0; k < inside.length; k++) {
+    result[2 * k] = xy[2 * inside[k]!]!;
+    result[2 * k + 1] = xy[2 * inside[k]! + 1]!;
+  }
+  return result;
+}
