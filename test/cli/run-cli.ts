@@ -26,17 +26,7 @@ export function tempFolder(): (name: string, content: string) => string {
   };
 }
 
-/** Mulberry32, a small seeded generator (T. Ettinger, public domain), so fixtures are the same on every run. */
-export function seededRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom } from '../fixtures/seeded-random.js';
 
 export function polygonGeoJson(...polygons: number[][][][]): string {
   return JSON.stringify({

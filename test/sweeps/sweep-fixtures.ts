@@ -24,17 +24,7 @@ export const RESERVOIR_RING: number[][] = [
   [500500, 4000300],
 ];
 
-/** Mulberry32 (T. Ettinger, public domain): a small seeded generator for fixtures. */
-export function fixtureRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom as fixtureRandom } from '../fixtures/seeded-random.js';
 
 export function polygonGeoJson(ring: number[][]): string {
   return JSON.stringify({
