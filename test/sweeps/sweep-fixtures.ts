@@ -24,7 +24,9 @@ export const RESERVOIR_RING: number[][] = [
   [500500, 4000300],
 ];
 
-export { seededRandom as fixtureRandom } from '../fixtures/seeded-random.js';
+import { seededRandom } from '../fixtures/seeded-random.js';
+
+export const fixtureRandom = seededRandom;
 
 export function polygonGeoJson(ring: number[][]): string {
   return JSON.stringify({
