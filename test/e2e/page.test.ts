@@ -177,7 +177,8 @@ describe('the analyst page in Chromium', () => {
     const box = (await heatmap.boundingBox())!;
     await heatmap.click({ position: { x: box.width * 0.55, y: box.height * 0.5 } });
     await expect.poll(() => page.innerText('#map-caption')).not.toBe(caption);
-    expect(await page.innerText('#map-caption')).toMatch(/^Placement \d+ at/);
+    // the caption passes through "Loading the grid of placement J..." while the grid is fetched
+    await expect.poll(() => page.innerText('#map-caption')).toMatch(/^Placement \d+ at/);
     // click the bar of the largest cell side in the verdict chart: the detail charts follow
     const largest = [...summary.sizes].sort((a, b) => a.cellSize - b.cellSize)[2];
     const verdicts = page.locator('#chart-verdicts');

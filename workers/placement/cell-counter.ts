@@ -88,20 +88,26 @@ export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter
     const nx = integers[2]!;
     const ny = integers[3]!;
     const near = reals[10]!;
+    // locals, not closure slots, in the hot loop: V8 then keeps them in registers even when several counters
+    // (closures of this function) are alive and the optimized code cannot be specialized to one closure
+    const xy = points;
+    const pending = deferred;
+    const ox = originX;
+    const oy = originY;
     const halfBand = 0.5 - near;
     const upperX = nx + near;
     const upperY = ny + near;
     let deferredCount = 0;
     for (let p = start; p < end; p++) {
-      const dx = points[2 * p]! - originX;
-      const dy = points[2 * p + 1]! - originY;
+      const dx = xy[2 * p]! - ox;
+      const dy = xy[2 * p + 1]! - oy;
       const x = dx * cosOverSize + dy * sinOverSize - shiftX;
       const y = dy * cosOverSize - dx * sinOverSize - shiftY;
       if (x > -near && x < upperX && y > -near && y < upperY) {
         const i = x | 0;
         const j = y | 0;
         // |f - 0.5| > 0.5 - near  <=>  f < near or f > 1 - near (f the fractional part): two compares, not four
-        if (Math.abs(x - i - 0.5) > halfBand || Math.abs(y - j - 0.5) > halfBand) deferred[deferredCount++] = p;
+        if (Math.abs(x - i - 0.5) > halfBand || Math.abs(y - j - 0.5) > halfBand) pending[deferredCount++] = p;
         else out[j * nx + i]!++;
       }
     }
