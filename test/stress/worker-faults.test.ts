@@ -52,7 +52,8 @@ beforeAll(async () => {
   const runner = new SweepPool({ threads: 2, filename: taskFile, resourceLimits: { maxOldGenerationSizeMb: 48, maxYoungGenerationSizeMb: 8 } });
   app = await buildApp({ dataDir: join(folder, 'data'), runner });
   const upload = await multipartBody(smallDatasetParts(11));
-  const response = await app.inject({ method: 'POST', url: '/api/datasets', payload: upload.payload, headers: { 'content-type': upload.contentType } });
+  // fastify.inject sends Buffers and strings as raw bodies, not bare Uint8Arrays
+  const response = await app.inject({ method: 'POST', url: '/api/datasets', payload: Buffer.from(upload.payload), headers: { 'content-type': upload.contentType } });
   expect(response.statusCode).toBe(201);
   datasetId = response.json().id as string;
 });
