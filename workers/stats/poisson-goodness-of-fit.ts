@@ -31,7 +31,11 @@ function addPoissonRow(expected: Float64Array, cellExpected: number, cells: numb
       if (useLogs) logProbability += logExpected - Math.log(k);
       else probability *= cellExpected / k;
     }
-    expected[k]! += cells * (useLogs ? Math.exp(logProbability) : probability);
+    const term = useLogs ? Math.exp(logProbability) : probability;
+    // past the mode the terms fall at least geometrically: once below 1e-300 the rest of the row, open class
+    // included, adds less than 1e-299 per cell, far below the rounding of the merged classes (>= 5 expected)
+    if (k > cellExpected && term < 1e-300) return;
+    expected[k]! += cells * term;
   }
   expected[openClassFrom]! += cells * openClassProbability(cellExpected, openClassFrom, useLogs ? Number.NaN : probability);
 }
@@ -74,7 +78,7 @@ export function poissonFrequencyTable(counts: ArrayLike<number>, coverage: Array
   for (let c = 0; c < counts.length; c++) {
     points += counts[c]!;
     coverageSum += coverage[c]!;
-    observed[Math.min(counts[c]!, openClassFrom)]! += 1;
+    observed[Math.min(counts[c]!, openClassFrom) | 0]! += 1;
   }
   // Whole cells share one expected count: one Poisson row for all of them, without hashing each cell.
   let wholeCells = 0;
