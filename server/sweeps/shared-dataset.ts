@@ -51,9 +51,10 @@ export function shareDataset(dataset: Dataset): SharedDataset {
   return { ...shared, points };
 }
 
+/** The inside points sorted straight into shared memory; the dataset's own array serves when every point is inside. */
 function sortedCopy(dataset: Dataset): SharedArrayBuffer {
-  const sorted = mortonSort(insideCoordinates(dataset));
-  const points = new SharedArrayBuffer(sorted.length * 8);
-  new Float64Array(points).set(sorted);
+  const allInside = dataset.inside.length * 2 === dataset.xy.length && dataset.inside.every((index, k) => index === k);
+  const points = new SharedArrayBuffer(dataset.inside.length * 16);
+  mortonSort(allInside ? dataset.xy : insideCoordinates(dataset), new Float64Array(points));
   return points;
 }

@@ -42,8 +42,14 @@ export function mortonCodes(xy: Float64Array): Uint32Array {
   return codes;
 }
 
-/** A copy of the flat points xy sorted along the Morton curve (stable: equal codes keep input order). */
-export function mortonSort(xy: Float64Array): Float64Array {
+/**
+ * A copy of the flat points xy sorted along the Morton curve (stable: equal codes keep input order), written into
+ * `out` when given (length xy.length, e.g. a view of shared memory: no second copy) or into a new array.
+ */
+export function mortonSort(xy: Float64Array, out?: Float64Array): Float64Array {
+  if (out !== undefined && out.length !== xy.length) {
+    throw new RangeError(`mortonSort output holds ${out.length} numbers, the points ${xy.length}`);
+  }
   const n = xy.length >> 1;
   const codes = mortonCodes(xy);
   let order = new Uint32Array(n);
@@ -60,7 +66,7 @@ export function mortonSort(xy: Float64Array): Float64Array {
     }
     [order, scratch] = [scratch, order];
   }
-  const sorted = new Float64Array(2 * n);
+  const sorted = out ?? new Float64Array(2 * n);
   for (let k = 0; k < n; k++) {
     sorted[2 * k] = xy[2 * order[k]!]!;
     sorted[2 * k + 1] = xy[2 * order[k]! + 1]!;
