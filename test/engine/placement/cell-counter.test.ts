@@ -124,6 +124,14 @@ describe('mortonSort', () => {
     expect(Array.from(b)).toEqual(Array.from(a));
   });
 
+  it('writes into a given array (e.g. shared memory) exactly what it returns, and refuses a wrong length', () => {
+    const xy = Float64Array.from([5, 5, 0, 0, 9, 1, 1, 9, 3, 3]);
+    const into = new Float64Array(new SharedArrayBuffer(xy.length * 8));
+    expect(mortonSort(xy, into)).toBe(into);
+    expect(Array.from(into)).toEqual(Array.from(mortonSort(xy)));
+    expect(() => mortonSort(xy, new Float64Array(4))).toThrow('mortonSort output holds 4 numbers, the points 10');
+  });
+
   it('interleaves bits: x in even, y in odd positions (hand-worked corners of the box)', () => {
     // points (0,0), (max,0), (0,max), (max,max): codes 0, 0x55555555, 0xaaaaaaaa, 0xffffffff
     const codes = mortonCodes(Float64Array.from([0, 0, 1, 0, 0, 1, 1, 1]));
