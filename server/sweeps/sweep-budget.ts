@@ -6,8 +6,9 @@ import type { Plan, SweepEstimate } from '../contracts.js';
 import { budgetError } from '../errors.js';
 
 /**
- * Default work budget (point-placements). About 2.5 ns each on one core of the benchmark machine
- * (npm run bench), so the default allows roughly a minute of counting on two cores.
+ * Default work budget (point-placements). A whole sweep measured about 10 ns per point-placement on two threads
+ * of the benchmark machine at 1e6 points (npm run bench; simulated patterns cost less, the statistics of their cells
+ * being only the chi-square), so the default allows a few minutes of work on two cores.
  */
 export const DEFAULT_WORK_BUDGET = 2e10;
 
