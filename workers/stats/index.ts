@@ -10,3 +10,4 @@ export * from './green-index.js';
 export * from './negative-binomial-k.js';
 export * from './poisson-goodness-of-fit.js';
 export * from './placement-statistics.js';
+export * from './cell-sums.js';

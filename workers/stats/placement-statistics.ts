@@ -1,10 +1,9 @@
 import type { PlacementStatistics } from '../types.js';
-import { dispersionChiSquare } from './dispersion-chi-square.js';
+import { cellSums, chiSquareFromSums, varianceFromSums } from './cell-sums.js';
 import { dispersionVerdict } from './dispersion-verdict.js';
-import { expectedPointsPerCell, meetsRuleOf1_6, meetsRuleOf5 } from './expected-per-cell.js';
+import { meetsRuleOf1_6, meetsRuleOf5 } from './expected-per-cell.js';
 import { greenIndex } from './green-index.js';
 import { lloydCrowding } from './lloyd-crowding.js';
-import { countSums, sampleVariance } from './moments.js';
 import { morisitaIndex } from './morisita.js';
 import { negativeBinomialK } from './negative-binomial-k.js';
 import { poissonGoodnessOfFit } from './poisson-goodness-of-fit.js';
@@ -25,7 +24,8 @@ import { standardizedMorisitaIndex } from './standardized-morisita.js';
  * NaN means undefined: with N = 0 the ratio statistics (vmr, chi2, p-values, Morisita, Ip, Lloyd, Green) are
  * NaN and the verdict is 'csr'; with N = 1 Morisita, Ip and Green are NaN.
  *
- * Cost: O(m + D * K) (D distinct coverages, K largest count), a handful of passes over the counts.
+ * Cost: O(m + D * K) (D distinct coverages, K largest count): two passes over the cells (cellSums, then the
+ * Poisson frequency table), the rest from the sums.
  *
  * Throws RangeError when m < 2, the arrays differ in length, alpha is not in (0, 1), a count is not a
  * non-negative integer or a coverage is not in (0, 1 + 1e-9]; the message names the first bad cell.
@@ -45,24 +45,16 @@ export function placementStatistics(counts: ArrayLike<number>, coverage: ArrayLi
   if (!(alpha > 0 && alpha < 1)) {
     throw new RangeError(`placementStatistics requires alpha in (0, 1), got ${alpha}`);
   }
-  for (let c = 0; c < counts.length; c++) {
-    const count = counts[c]!;
-    const cellCoverage = coverage[c]!;
-    if (!(Number.isInteger(count) && count >= 0)) {
-      throw new RangeError(`placementStatistics requires non-negative integer counts: cell ${c} holds ${count}`);
-    }
-    if (!(cellCoverage > 0 && cellCoverage <= 1 + 1e-9)) {
-      throw new RangeError(`placementStatistics requires coverage in (0, 1]: cell ${c} has ${cellCoverage}`);
-    }
-  }
-  const sums = countSums(counts);
+  const sums = cellSums(counts, coverage);
+  if (sums.firstInvalid >= 0) throwInvalidCell(counts, coverage, sums.firstInvalid);
   const { cells, points } = sums;
   const mean = points / cells;
-  const variance = sampleVariance(counts);
+  const variance = varianceFromSums(sums);
   const vmr = points > 0 ? variance / mean : Number.NaN;
-  const { chi2, df } = dispersionChiSquare(counts, coverage);
+  const chi2 = chiSquareFromSums(sums);
+  const df = cells - 1;
   const { pClustered, pRegular, verdict } = dispersionVerdict(chi2, df, alpha);
-  const expectedPerCell = expectedPointsPerCell(points, coverage);
+  const expectedPerCell = sums.coverageSum > 0 ? points / sums.coverageSum : Number.NaN;
   const { meanCrowding, patchiness } = lloydCrowding(mean, vmr);
   return {
     cells,
@@ -85,6 +77,14 @@ export function placementStatistics(counts: ArrayLike<number>, coverage: ArrayLi
     patchiness,
     green: greenIndex(vmr, points),
     negativeBinomialK: negativeBinomialK(mean, variance),
-    poissonFit: poissonGoodnessOfFit(counts, coverage),
+    poissonFit: poissonGoodnessOfFit(counts, coverage, 5, sums),
   };
+}
+
+function throwInvalidCell(counts: ArrayLike<number>, coverage: ArrayLike<number>, c: number): never {
+  const count = counts[c]!;
+  if (!(Number.isInteger(count) && count >= 0)) {
+    throw new RangeError(`placementStatistics requires non-negative integer counts: cell ${c} holds ${count}`);
+  }
+  throw new RangeError(`placementStatistics requires coverage in (0, 1]: cell ${c} has ${coverage[c]!}`);
 }

@@ -1,5 +1,6 @@
 import gammainc from '@stdlib/math-base-special-gammainc';
 import type { FrequencyClass, PoissonFit } from '../types.js';
+import type { CellSums } from './cell-sums.js';
 import { chiSquareUpperTail } from './chi-square.js';
 
 /** A frequency class before labelling: counts lowest..highest, highest = Infinity for the open class. */
@@ -62,28 +63,34 @@ function openClassProbability(lambda: number, openClassFrom: number, previousPro
  * frequencies add up to m. When all cells are whole (coverage 1) every E_c is the mean and this reduces to the
  * classical m * Pois(k; mean). Cells with the same E_c are grouped, so whole cells cost one Poisson row.
  *
- * Cost: O(m + D * K) with D distinct expected counts (1 for whole cells) and K = openClassFrom.
+ * Cost: O(m + D * K) with D distinct expected counts (1 for whole cells) and K = openClassFrom; one pass over the
+ * cells when N and sum(a) come in `sums`, two otherwise.
  *
  * Reference: R. A. Fisher (1925), Statistical Methods for Research Workers, Oliver and Boyd (Poisson frequency
  * fits); R. D. Clarke (1946), "An application of the Poisson distribution", Journal of the Institute of Actuaries
  * 72:481 (the worked example the tests reproduce).
  */
 export function poissonFrequencyTable(counts: ArrayLike<number>, coverage: ArrayLike<number>,
-  openClassFrom: number): CountClass[] {
+  openClassFrom: number, sums?: Pick<CellSums, 'points' | 'coverageSum'>): CountClass[] {
   const classCount = openClassFrom + 1;
   const observed = new Float64Array(classCount);
   const expected = new Float64Array(classCount);
   let points = 0;
   let coverageSum = 0;
-  for (let c = 0; c < counts.length; c++) {
-    points += counts[c]!;
-    coverageSum += coverage[c]!;
-    observed[Math.min(counts[c]!, openClassFrom) | 0]! += 1;
+  if (sums === undefined) {
+    for (let c = 0; c < counts.length; c++) {
+      points += counts[c]!;
+      coverageSum += coverage[c]!;
+    }
+  } else {
+    ({ points, coverageSum } = sums);
   }
-  // Whole cells share one expected count: one Poisson row for all of them, without hashing each cell.
+  // One pass: the observed classes, and the partial cells grouped by expected count. Whole cells share one
+  // expected count: one Poisson row for all of them, without hashing each cell.
   let wholeCells = 0;
   const partialCellsByExpected = new Map<number, number>();
   for (let c = 0; c < counts.length; c++) {
+    observed[Math.min(counts[c]!, openClassFrom) | 0]! += 1;
     if (coverage[c] === 1) {
       wholeCells += 1;
       continue;
@@ -161,13 +168,18 @@ export function frequencyChiSquare(classes: readonly CountClass[], estimatedPara
  * Poisson frequency goodness of fit of one placement's counts: the table of poissonFrequencyTable with the open
  * class just above the largest count, merged by mergeSmallClasses (expected >= 5), then frequencyChiSquare with
  * df = classes - 2. Returns null when fewer than 3 classes remain (no degrees of freedom) or there are no points.
- * Cost O(m + D * K). Reference: as poissonFrequencyTable.
+ * `sums` (from cellSums) saves the passes for N, sum(a) and the largest count. Cost O(m + D * K).
+ * Reference: as poissonFrequencyTable.
  */
 export function poissonGoodnessOfFit(counts: ArrayLike<number>, coverage: ArrayLike<number>,
-  minExpected = 5): PoissonFit | null {
+  minExpected = 5, sums?: Pick<CellSums, 'points' | 'coverageSum' | 'largestCount'>): PoissonFit | null {
   let largestCount = 0;
-  for (let c = 0; c < counts.length; c++) largestCount = Math.max(largestCount, counts[c]!);
+  if (sums === undefined) {
+    for (let c = 0; c < counts.length; c++) largestCount = Math.max(largestCount, counts[c]!);
+  } else {
+    largestCount = sums.largestCount;
+  }
   if (largestCount === 0) return null;
-  const merged = mergeSmallClasses(poissonFrequencyTable(counts, coverage, largestCount + 1), minExpected);
+  const merged = mergeSmallClasses(poissonFrequencyTable(counts, coverage, largestCount + 1, sums), minExpected);
   return merged.length < 3 ? null : frequencyChiSquare(merged, 1);
 }
