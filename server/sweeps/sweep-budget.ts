@@ -6,7 +6,7 @@ import type { Plan, SweepEstimate } from '../contracts.js';
 import { budgetError } from '../errors.js';
 
 /**
- * Default work budget (point-placements). A whole sweep measured about 10 ns per point-placement on two threads
+ * Default work budget (point-placements). A whole sweep measured about 6 ns per point-placement on two threads
  * of the benchmark machine at 1e6 points (npm run bench; simulated patterns cost less, the statistics of their cells
  * being only the chi-square), so the default allows a few minutes of work on two cores.
  */
