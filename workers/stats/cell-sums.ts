@@ -1,3 +1,4 @@
+import { chiSquareFromTotals } from './dispersion-chi-square.js';
 import type { CountSums } from './moments.js';
 
 /**
@@ -36,7 +37,7 @@ export function cellSums(counts: ArrayLike<number>, coverage: ArrayLike<number>)
     points += x;
     sumOfSquares += square;
     coverageSum += a;
-    weightedSquares += square / a;
+    weightedSquares += square / a; // the order and arithmetic of dispersionChiSquare: bitwise the same chi2
     if (x > largestCount) largestCount = x;
   }
   return { cells, points, sumOfSquares, coverageSum, weightedSquares, largestCount, firstInvalid };
@@ -53,12 +54,7 @@ export function varianceFromSums(sums: CountSums): number {
   return Math.max(0, sums.sumOfSquares - (sums.points * sums.points) / sums.cells) / (sums.cells - 1);
 }
 
-/**
- * The area-weighted dispersion chi-square of dispersionChiSquare from the sums: with E_c = N a_c / A (A = sum(a)),
- * sum (O_c - E_c)^2 / E_c = sum O_c^2 / E_c - 2N + N = (A / N) sum(O_c^2 / a_c) - N. NaN with N = 0 (undefined).
- * Cost O(1). Reference: K. Pearson (1900), Philosophical Magazine 50:157-175 (expanding the square).
- */
+/** The area-weighted dispersion chi-square from the sums (chiSquareFromTotals: (A / N) S - N). Cost O(1). */
 export function chiSquareFromSums(sums: CellSums): number {
-  if (!(sums.points > 0)) return Number.NaN;
-  return Math.max(0, (sums.coverageSum / sums.points) * sums.weightedSquares - sums.points);
+  return chiSquareFromTotals(sums.points, sums.coverageSum, sums.weightedSquares);
 }

@@ -9,8 +9,10 @@ import type { DispersionResult } from '../types.js';
  * sum (O_c - mean)^2 / mean = (m - 1) * vmr, the classical index of dispersion. With N = 0 the expected counts
  * are 0 and chi2 is NaN (undefined). Coverages must be > 0 (kept cells); the hot path does not check.
  *
- * Cost: O(m), two passes over the arrays, no allocation besides the small result object. This is the function
- * run for every simulated CSR pattern and every placement.
+ * Computed in one pass through the identity of chiSquareFromTotals, the same arithmetic as placementStatistics, so
+ * that observed and simulated patterns are compared on exactly equal terms.
+ * Cost: O(m), one pass over the arrays, no allocation besides the small result object. This is the function run
+ * for every simulated CSR pattern and every placement.
  *
  * Reference: K. Pearson (1900), "On the criterion that a given system of deviations from the probable in the case
  * of a correlated system of variables is such that it can be reasonably supposed to have arisen from random
@@ -21,16 +23,25 @@ export function dispersionChiSquare(counts: ArrayLike<number>, coverage: ArrayLi
   const cells = counts.length;
   let points = 0;
   let coverageSum = 0;
+  let weightedSquares = 0;
   for (let c = 0; c < cells; c++) {
-    points += counts[c]!;
-    coverageSum += coverage[c]!;
+    const x = counts[c]!;
+    const a = coverage[c]!;
+    points += x;
+    coverageSum += a;
+    weightedSquares += (x * x) / a;
   }
-  const pointsPerCoverage = points / coverageSum;
-  let chi2 = 0;
-  for (let c = 0; c < cells; c++) {
-    const expected = pointsPerCoverage * coverage[c]!;
-    const residual = counts[c]! - expected;
-    chi2 += (residual * residual) / expected;
-  }
-  return { chi2, df: cells - 1, points };
+  return { chi2: chiSquareFromTotals(points, coverageSum, weightedSquares), df: cells - 1, points };
+}
+
+/**
+ * The area-weighted chi-square from three totals, N = sum(O_c), A = sum(a_c) and S = sum(O_c^2 / a_c): with
+ * E_c = N a_c / A, sum (O_c - E_c)^2 / E_c = sum O_c^2 / E_c - 2N + sum E_c = (A / N) S - N. NaN with N = 0
+ * (undefined); rounding below 0 is clamped to 0. Cost O(1).
+ * Reference: K. Pearson (1900), as above (expanding the square); the same identity gives X2 = (m - 1) vmr for
+ * whole cells.
+ */
+export function chiSquareFromTotals(points: number, coverageSum: number, weightedSquares: number): number {
+  if (!(points > 0)) return Number.NaN;
+  return Math.max(0, (coverageSum / points) * weightedSquares - points);
 }
