@@ -36,6 +36,7 @@ describe('grid frame (shared/design.md, grid contract)', () => {
           expect(Math.abs(y - py)).toBeLessThan(1e-6);
         },
       ),
+      { seed: 20261201 },
     );
   });
 

@@ -65,6 +65,16 @@ function keptPairs(result: ReturnType<typeof evaluate>): string[] {
   return Array.from(counts, (count, k) => `${(result.kept.coverage[k]! * 1e7).toFixed(0)}:${count}`).sort();
 }
 
+/**
+ * True when some cell's coverage lies within 1e-11 of the keep threshold (minCoverage - 1e-9): there, which side
+ * a cell falls on is decided by the last bits of rounding, and two grids that are equal in exact arithmetic may
+ * keep different cells. Such knife-edge cases (found by fast-check: a sliver of 1e-9 of a cell) are skipped.
+ */
+function onKnifeEdge(result: ReturnType<typeof evaluate>, minCoverage: number): boolean {
+  const threshold = minCoverage - 1e-9;
+  return result.grid.coverage.some((coverage) => Math.abs(coverage - threshold) < 1e-11);
+}
+
 describe('evaluatePlacement properties', () => {
   it('counts of kept cells sum to the points that fall in kept cells (brute force per the grid contract)', () => {
     fc.assert(
@@ -84,7 +94,7 @@ describe('evaluatePlacement properties', () => {
         expect(result.stats.points).toBe(inKept);
         expect(result.stats.cells).toBe(kept.size);
       }),
-      { numRuns: 25 },
+      { numRuns: 25, seed: 20261201 },
     );
   });
 
@@ -95,11 +105,12 @@ describe('evaluatePlacement properties', () => {
         const xy = clusteredPoints(region, seed);
         const a = evaluate(region, xy, { x: 0, y: 0 }, cellSize, { u, v, angle }, minCoverage);
         const b = evaluate(region, xy, { x: 0, y: 0 }, cellSize, { u: u + 1, v: v + 2, angle }, minCoverage);
+        fc.pre(!onKnifeEdge(a, minCoverage) && !onKnifeEdge(b, minCoverage));
         expect(keptPairs(b)).toEqual(keptPairs(a));
         expect(b.stats.chi2).toBeCloseTo(a.stats.chi2, 6);
         expect(b.stats.vmr).toBeCloseTo(a.stats.vmr, 9);
       }),
-      { numRuns: 20 },
+      { numRuns: 20, seed: 20261201 },
     );
   });
 
@@ -125,14 +136,34 @@ describe('evaluatePlacement properties', () => {
         // At offset 0 the origin is a cell corner: same placement. Otherwise the turned grid's offset is (1 - v, u).
         const a0 = evaluate(region, xy, origin, cellSize, { u: 0, v: 0, angle }, minCoverage);
         const b0 = evaluate(turned, turnedXy, origin, cellSize, { u: 0, v: 0, angle }, minCoverage);
+        fc.pre(!onKnifeEdge(a0, minCoverage) && !onKnifeEdge(b0, minCoverage));
         expect(keptPairs(b0)).toEqual(keptPairs(a0));
         expect(b0.stats.chi2).toBeCloseTo(a0.stats.chi2, 6);
         const a = evaluate(region, xy, origin, cellSize, { u, v, angle }, minCoverage);
         const b = evaluate(turned, turnedXy, origin, cellSize, { u: v === 0 ? 0 : 1 - v, v: u, angle }, minCoverage);
+        fc.pre(!onKnifeEdge(a, minCoverage) && !onKnifeEdge(b, minCoverage));
         expect(keptPairs(b)).toEqual(keptPairs(a));
       }),
-      { numRuns: 20 },
+      { numRuns: 20, seed: 20261201 },
     );
+  });
+
+  it('regression: a cell with a sliver of 1e-9 outside (the keep threshold) is not compared across turned grids', () => {
+    // fast-check counterexample (seed -2244812): coverage 1 - 1.00e-9 in the turned grid, minCoverage 1
+    const region = makeRegion(
+      [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0.23195919554214942, 0, 0, 0, 0, 0, 0, 0, 0.9524142329489045, 0, 0, 0, 0, 0, 0],
+      [0, 0, 0, 0, 0, 0, 0, 0.9989999999999554, 0, 0, 0, 0],
+    );
+    const turned = regionFromRings(
+      region.rings.map((ring) => {
+        const points: [number, number][] = [];
+        for (let k = 0; k < ring.length; k += 2) points.push([-ring[k + 1]!, ring[k]!]);
+        return points;
+      }),
+    );
+    const xy = clusteredPoints(region, 0);
+    const b = evaluate(turned, xy, { x: 0, y: 0 }, 259.9999999997711, { u: 1 - 0.00022428794377415961, v: 0.021218966475615664, angle: 0 }, 1);
+    expect(onKnifeEdge(b, 1)).toBe(true);
   });
 
   it('translating data, region and origin together changes nothing (dyadic shifts keep arithmetic exact)', () => {
@@ -164,7 +195,7 @@ describe('evaluatePlacement properties', () => {
         const b = evaluate(moved, movedXy, { x: dx, y: dy }, s.cellSize, placement, s.minCoverage);
         expect(b.stats).toEqual(a.stats);
       }),
-      { numRuns: 20 },
+      { numRuns: 20, seed: 20261201 },
     );
   });
 });
