@@ -107,7 +107,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
 
 export const serveCommand: CliCommand = {
   name: 'serve',
-  summary: 'start the local server and open the page in a browser',
+  summary: 'start the local server; open the address it prints in a browser',
   usage: 'Usage: gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR]',
   options: OPTIONS,
   run,
