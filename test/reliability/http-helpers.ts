@@ -10,6 +10,7 @@ import { connect } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { FastifyInstance } from 'fastify';
+import { multipartBody as formDataBody, type UploadPart } from '../server/server-helpers.js';
 import { buildApp, type AppOptions } from '../../server/app.js';
 import type { DatasetInput, DatasetOptions } from '../../server/inputs/index.js';
 
@@ -91,21 +92,12 @@ export function errorCode(body: string): string {
   }
 }
 
-export interface UploadPart {
-  field: string;
-  value: string | Uint8Array;
-  filename?: string;
-}
+export type { UploadPart };
 
-/** A multipart/form-data body, serialised by the platform's FormData (as a browser would). */
+/** The server tests' multipart body (test/server/server-helpers.ts) as bytes fetch accepts, with its content type. */
 export async function multipartBody(parts: UploadPart[]): Promise<{ payload: Uint8Array<ArrayBuffer>; contentType: string }> {
-  const form = new FormData();
-  for (const part of parts) {
-    if (part.filename === undefined) form.append(part.field, typeof part.value === 'string' ? part.value : Buffer.from(part.value).toString('utf8'));
-    else form.append(part.field, new Blob([typeof part.value === 'string' ? part.value : new Uint8Array(part.value)]), part.filename);
-  }
-  const response = new Response(form);
-  return { payload: new Uint8Array(await response.arrayBuffer()), contentType: response.headers.get('content-type') as string };
+  const body = await formDataBody(parts);
+  return { payload: new Uint8Array(body.payload), contentType: body.headers['content-type']! };
 }
 
 /** The multipart parts of a loadDataset call (points, area, noData files; crs, x, y, id fields). */

@@ -31,7 +31,7 @@ export async function testApp(options: AppOptions = {}): Promise<{ app: FastifyI
 
 export interface UploadPart {
   field: string;
-  value: string;
+  value: string | Uint8Array;
   filename?: string;
 }
 
@@ -39,8 +39,9 @@ export interface UploadPart {
 export async function multipartBody(parts: UploadPart[]): Promise<{ payload: Buffer; headers: Record<string, string> }> {
   const form = new FormData();
   for (const part of parts) {
-    if (part.filename === undefined) form.append(part.field, part.value);
-    else form.append(part.field, new Blob([part.value]), part.filename);
+    const bytes = typeof part.value === 'string' ? part.value : new Uint8Array(part.value);
+    if (part.filename === undefined) form.append(part.field, typeof bytes === 'string' ? bytes : Buffer.from(bytes).toString('utf8'));
+    else form.append(part.field, new Blob([bytes]), part.filename);
   }
   const response = new Response(form);
   return {

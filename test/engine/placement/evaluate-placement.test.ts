@@ -65,6 +65,17 @@ function keptPairs(result: ReturnType<typeof evaluate>): string[] {
   return Array.from(counts, (count, k) => `${(result.kept.coverage[k]! * 1e7).toFixed(0)}:${count}`).sort();
 }
 
+/** The region turned 90 degrees about the origin, (x, y) -> (-y, x): exact in float64, orientation preserved. */
+function quarterTurn(region: Region): Region {
+  return regionFromRings(
+    region.rings.map((ring) => {
+      const points: [number, number][] = [];
+      for (let k = 0; k < ring.length; k += 2) points.push([-ring[k + 1]!, ring[k]!]);
+      return points;
+    }),
+  );
+}
+
 /**
  * True when some cell's coverage lies within 1e-11 of the keep threshold (minCoverage - 1e-9): there, which side
  * a cell falls on is decided by the last bits of rounding, and two grids that are equal in exact arithmetic may
@@ -125,13 +136,7 @@ describe('evaluatePlacement properties', () => {
           turnedXy[2 * p] = -xy[2 * p + 1]!;
           turnedXy[2 * p + 1] = xy[2 * p]!;
         }
-        const turned = regionFromRings(
-          region.rings.map((ring) => {
-            const points: [number, number][] = [];
-            for (let k = 0; k < ring.length; k += 2) points.push([-ring[k + 1]!, ring[k]!]);
-            return points;
-          }),
-        );
+        const turned = quarterTurn(region);
         const origin = { x: 0, y: 0 };
         // At offset 0 the origin is a cell corner: same placement. Otherwise the turned grid's offset is (1 - v, u).
         const a0 = evaluate(region, xy, origin, cellSize, { u: 0, v: 0, angle }, minCoverage);
@@ -154,13 +159,7 @@ describe('evaluatePlacement properties', () => {
       [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0.23195919554214942, 0, 0, 0, 0, 0, 0, 0, 0.9524142329489045, 0, 0, 0, 0, 0, 0],
       [0, 0, 0, 0, 0, 0, 0, 0.9989999999999554, 0, 0, 0, 0],
     );
-    const turned = regionFromRings(
-      region.rings.map((ring) => {
-        const points: [number, number][] = [];
-        for (let k = 0; k < ring.length; k += 2) points.push([-ring[k + 1]!, ring[k]!]);
-        return points;
-      }),
-    );
+    const turned = quarterTurn(region);
     const xy = clusteredPoints(region, 0);
     const b = evaluate(turned, xy, { x: 0, y: 0 }, 259.9999999997711, { u: 1 - 0.00022428794377415961, v: 0.021218966475615664, angle: 0 }, 1);
     expect(onKnifeEdge(b, 1)).toBe(true);
