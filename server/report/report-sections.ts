@@ -1,24 +1,17 @@
 /** The text sections of the report: dataset, plan, per-size table, Monte Carlo results, versions. */
 import type { SweepSummary } from '../contracts.js';
-import { formatArea, formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
+import { formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
+import { datasetSummaryEntries, warningRecords } from '../../client/src/charts/dataset-entries.js';
 import { escapeHtml } from './html-escape.js';
 import { definitionTable, htmlTable } from './html-table.js';
 
 export function datasetSection(summary: SweepSummary): string {
   const dataset = summary.dataset;
-  const entries: [string, string][] = [
-    ['name', dataset.name],
-    ['coordinate system', dataset.crs],
-    ['points in the data', String(dataset.n)],
-    ['points inside the valid region', String(dataset.nInside)],
-    ['points outside (never counted)', String(dataset.nOutside)],
-    ['study area', `${formatArea(dataset.studyAreaArea)}${dataset.areaIsDefault ? ' (bounding box of the points: no area given)' : ''}`],
-    ['valid region (study area minus no-data zones)', formatArea(dataset.validArea)],
-  ];
+  const entries = datasetSummaryEntries(dataset);
   const warnings = dataset.warnings.length === 0
     ? '<p>The inputs raised no warnings.</p>'
     : `<ul class="warnings">${dataset.warnings
-        .map((warning) => `<li><code>${escapeHtml(warning.code)}</code> ${escapeHtml(warning.message)}${warning.ids && warning.ids.length > 0 ? ` (records ${escapeHtml(warning.ids.join(', '))})` : ''}</li>`)
+        .map((warning) => `<li><code>${escapeHtml(warning.code)}</code> ${escapeHtml(warning.message + warningRecords(warning))}</li>`)
         .join('')}</ul>`;
   return `<section><h2>Dataset</h2>${definitionTable('Dataset summary', entries)}<h3>Input warnings</h3>${warnings}</section>`;
 }

@@ -1,17 +1,12 @@
 /** The dataset summary and every input warning, as a definition list and a list. */
 import type { StoredDataset } from '../api/api-client.js';
-import { formatArea, formatMetres, formatNumber } from '../charts/format.js';
+import { datasetSummaryEntries, warningRecords } from '../charts/dataset-entries.js';
+import { formatMetres, formatNumber } from '../charts/format.js';
 import { el } from '../ui/dom.js';
 
 export function datasetSummaryView(dataset: StoredDataset): HTMLElement {
   const entries: [string, string][] = [
-    ['Name', dataset.name],
-    ['Coordinates', dataset.crs],
-    ['Points', String(dataset.n)],
-    ['Inside the valid region', String(dataset.nInside)],
-    ['Outside (never counted)', String(dataset.nOutside)],
-    ['Study area', `${formatArea(dataset.studyAreaArea)}${dataset.areaIsDefault ? ' (bounding box of the points)' : ''}`],
-    ['Valid region', formatArea(dataset.validArea)],
+    ...datasetSummaryEntries(dataset),
     ['Suggested cell sides', dataset.suggestedCellSizes.map((size) => `${formatMetres(size.cellSize)} (${formatNumber(size.perCell)} per cell)`).join(', ')],
   ];
   const list = el('dl', { class: 'summary-list', 'data-testid': 'dataset-summary' }, ...entries.flatMap(([term, value]) => [el('dt', {}, term), el('dd', {}, value)]));
@@ -21,7 +16,7 @@ export function datasetSummaryView(dataset: StoredDataset): HTMLElement {
         'ul',
         { class: 'warning-list', 'aria-label': 'Input warnings' },
         ...dataset.warnings.map((warning) =>
-          el('li', {}, el('code', {}, warning.code), ' ', warning.message, warning.ids && warning.ids.length > 0 ? ` (records ${warning.ids.join(', ')})` : ''),
+          el('li', {}, el('code', {}, warning.code), ' ', warning.message, warningRecords(warning)),
         ),
       );
   return el('div', { class: 'dataset-summary' }, el('h3', {}, 'Summary'), list, el('h3', {}, `Warnings (${dataset.warnings.length})`), warnings);
