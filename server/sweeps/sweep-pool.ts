@@ -75,13 +75,14 @@ export class SweepPool {
     const startedAt = new Date();
     const plan = normalizePlan(planInput);
     const cellSizes = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
-    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget));
+    const estimate = estimateSweep(plan, dataset.inside.length, this.budget);
+    assertWithinBudget(estimate);
     if (options.signal?.aborted) throw sweepCancelledError();
     const shared = this.share(dataset);
     const placements = planPlacements(plan);
     const controller = new AbortController();
     // every queued task listens to the signal
-    setMaxListeners(estimateSweep(plan, dataset.inside.length, this.budget).tasks + plan.sims + 16, controller.signal);
+    setMaxListeners(estimate.tasks + plan.sims + 16, controller.signal);
     const onAbort = (): void => controller.abort();
     options.signal?.addEventListener('abort', onAbort, { once: true });
     let failure: unknown = null;
