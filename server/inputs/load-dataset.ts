@@ -89,12 +89,12 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
     );
   }
 
-  const inStudyArea = partitionByRegion(projected.xy, studyRegion).inside;
-  if (inStudyArea.length === 0) {
-    throw inputError(`${input.area?.name ?? 'study area'}: the study area does not contain any point of ${input.points.name}`);
-  }
   const inside = partitionByRegion(projected.xy, region).inside;
   if (inside.length === 0) {
+    // which message: the study area is tested only here, when no point is left (one pass over the points otherwise)
+    if (partitionByRegion(projected.xy, studyRegion).inside.length === 0) {
+      throw inputError(`${input.area?.name ?? 'study area'}: the study area does not contain any point of ${input.points.name}`);
+    }
     throw inputError(`${input.points.name}: every point lies inside a no-data zone: none is left to count`);
   }
   const duplicates = findDuplicates(projected.xy);
