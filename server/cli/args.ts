@@ -91,6 +91,11 @@ export function parsePositiveMetres(raw: string, name: string): number {
   return parseChecked(raw, name, 'a positive number of metres', (v) => v > 0);
 }
 
+/** A size in MB (a positive number, fractions allowed) as bytes, e.g. --body-limit 64. */
+export function parseMegabytes(raw: string, name: string): number {
+  return Math.round(parseChecked(raw, name, 'a positive number of MB', (v) => v > 0) * 1048576);
+}
+
 /** A comma-separated list of positive numbers, e.g. --cells 250,500,1000. */
 export function parsePositiveList(raw: string, name: string, what = 'a comma-separated list of positive numbers'): number[] {
   const parts = raw.split(',');

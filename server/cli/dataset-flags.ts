@@ -2,10 +2,19 @@
  * The input-file options that `count` and `sweep` share (points, study area, no-data zones, coordinate system,
  * CSV columns) and the dataset they describe, read from disk and loaded through server/inputs.
  */
+import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../app.js';
 import type { Dataset } from '../contracts.js';
 import { loadDataset } from '../inputs/index.js';
-import { optionalString, requireString, stringList, type OptionSpecs, type OptionValues } from './args.js';
-import { readInputFile } from './read-input-file.js';
+import {
+  optionalString,
+  parseMegabytes,
+  parseWholeNumber,
+  requireString,
+  stringList,
+  type OptionSpecs,
+  type OptionValues,
+} from './args.js';
+import { DEFAULT_INPUT_LIMITS, readInputFile, type InputLimits } from './read-input-file.js';
 
 export const DATASET_OPTIONS: OptionSpecs = {
   points: { type: 'string', value: 'FILE', description: 'points: CSV with a header row, GeoJSON Point features or a GeoPackage layer' },
@@ -15,17 +24,36 @@ export const DATASET_OPTIONS: OptionSpecs = {
   x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
   y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
   id: { type: 'string', value: 'COL', description: 'CSV column of record ids; default: id, fid, record, ... or the record number' },
+  'body-limit': { type: 'string', value: 'MB', description: `largest input file in MB, as the server's upload limit; default ${DEFAULT_BODY_LIMIT / 1048576}` },
+  'max-points': { type: 'string', value: 'N', description: `most points in the dataset, as the server's limit; default ${DEFAULT_MAX_POINTS}` },
 };
+
+/** The file limits of --body-limit (the CSV line limit is fixed). */
+function inputLimits(values: OptionValues): InputLimits {
+  const text = optionalString(values, 'body-limit');
+  return text === undefined ? DEFAULT_INPUT_LIMITS : { ...DEFAULT_INPUT_LIMITS, fileBytes: parseMegabytes(text, 'body-limit') };
+}
 
 /** The dataset named by --points, --area, --no-data, --crs, --x, --y and --id. */
 export function loadDatasetFromFlags(values: OptionValues): Dataset {
+  const pointsPath = requireString(values, 'points');
   const areaPath = optionalString(values, 'area');
+  const pointsText = optionalString(values, 'max-points');
+  const maxPoints = pointsText === undefined ? DEFAULT_MAX_POINTS : parseWholeNumber(pointsText, 'max-points', 1);
+  const limits = inputLimits(values);
+  const read = (path: string) => readInputFile(path, limits);
   return loadDataset(
     {
-      points: readInputFile(requireString(values, 'points')),
-      area: areaPath === undefined ? undefined : readInputFile(areaPath),
-      noData: stringList(values, 'no-data').map(readInputFile),
+      points: read(pointsPath),
+      area: areaPath === undefined ? undefined : read(areaPath),
+      noData: stringList(values, 'no-data').map(read),
     },
-    { crs: optionalString(values, 'crs'), x: optionalString(values, 'x'), y: optionalString(values, 'y'), id: optionalString(values, 'id') },
+    {
+      crs: optionalString(values, 'crs'),
+      x: optionalString(values, 'x'),
+      y: optionalString(values, 'y'),
+      id: optionalString(values, 'id'),
+      maxPoints,
+    },
   );
 }

@@ -10,7 +10,19 @@ export interface InputFile {
 }
 
 const BYTE_ORDER_MARK = '\uFEFF';
-const SQLITE_MAGIC = 'SQLite format 3';
+export const SQLITE_MAGIC = 'SQLite format 3';
+
+/**
+ * Longest physical line a CSV file of points may have (bytes). A record of points is an id and two coordinates,
+ * a few dozen bytes; a megabyte leaves room for wide attribute columns while a file of one enormous line (a wrong
+ * file, or a hostile one) is refused at that line instead of being handed to the CSV parser whole.
+ */
+export const MAX_CSV_LINE_BYTES = 1024 * 1024;
+
+/** A byte count in MB with three significant digits, as the size limits are worded. */
+export function megabytes(bytes: number): string {
+  return `${Number((bytes / 1048576).toPrecision(3))} MB`;
+}
 
 /**
  * The text of a file: bytes decoded as UTF-8, a leading byte-order mark removed.
