@@ -5,6 +5,8 @@
 import { DEFAULT_PLAN } from '../contracts.js';
 import { parameterError } from '../errors.js';
 import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
+import { assertCellCountWithinLimit } from '../sweeps/plan.js';
+import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import {
   parseAlpha,
@@ -46,10 +48,13 @@ function countParameters(values: OptionValues) {
   };
 }
 
-
 async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   const parameters = countParameters(values);
   const dataset = loadDatasetFromFlags(values);
+  // the server's limits on one placement: cells in the valid region (coverage costs O(cells)) and the work budget
+  assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, '--cell');
+  const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: 0 };
+  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv()));
   const summary = summarizeDataset(dataset);
   const counter = createCellCounter(insideCoordinates(dataset), dataset.origin);
   const keptCells = (): never => {

@@ -114,16 +114,9 @@ export function resolveCellSizes(plan: Plan, validArea: number, nInside: number)
     sizes = (plan.perCell ?? []).map((k) => cellSizeForExpected(k, validArea, nInside));
   }
   const largest = Math.sqrt(validArea / PLAN_LIMITS.minCellsInRegion);
-  const smallest = Math.sqrt(validArea / PLAN_LIMITS.maxCellsInRegion);
   sizes.forEach((size, index) => {
     const field = plan.cells ? `plan.cells[${index}]` : `plan.perCell[${index}]`;
-    if (size < smallest) {
-      throw parameterError(
-        `${field} gives cells of ${formatMetres(size)} m, about ${formatMetres(validArea / (size * size))} cells in the ` +
-          `valid region of ${formatMetres(validArea)} m^2, more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
-          `${formatMetres(smallest)} m`,
-      );
-    }
+    assertCellCountWithinLimit(size, validArea, field);
     if (size > largest) {
       throw parameterError(
         `${field} gives cells of ${formatMetres(size)} m, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
@@ -132,6 +125,22 @@ export function resolveCellSizes(plan: Plan, validArea: number, nInside: number)
     }
   });
   return sizes;
+}
+
+/**
+ * Refuses a cell side that puts more than PLAN_LIMITS.maxCellsInRegion cells' worth of area (A / side^2) in the
+ * valid region; `field` names the value in the message (plan.cells[0] for a plan, --cell for `gridshake count`).
+ * @throws GridshakeError GS_ERR_PARAMETER
+ */
+export function assertCellCountWithinLimit(size: number, validArea: number, field: string): void {
+  const smallest = Math.sqrt(validArea / PLAN_LIMITS.maxCellsInRegion);
+  if (size >= smallest) return;
+  const cells = validArea / (size * size);
+  throw parameterError(
+    `${field} gives cells of ${formatMetres(size)} m, ${Number.isFinite(cells) ? `about ${formatMetres(cells)}` : 'too many'} cells in the ` +
+      `valid region of ${formatMetres(validArea)} m^2, more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
+      `${formatMetres(smallest)} m`,
+  );
 }
 
 function formatMetres(value: number): string {
