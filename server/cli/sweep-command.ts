@@ -3,8 +3,6 @@
  * test (shared/design.md, "Command line"). Writes placements.csv, summary.json and report.html to --out, shows a
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
-import { mkdirSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
 import type { Plan, SweepProgress } from '../contracts.js';
 import { GridshakeError, parameterError } from '../errors.js';
 import { renderReport } from '../report/render-report.js';
@@ -25,6 +23,7 @@ import {
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
+import { prepareOutputFolder, writeOutputs } from './output-folder.js';
 import { progressLine } from './sweep-progress.js';
 
 const OPTIONS: OptionSpecs = {
@@ -41,6 +40,9 @@ const OPTIONS: OptionSpecs = {
   out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
 };
+
+/** The files a sweep writes into --out. */
+export const SWEEP_OUTPUTS = ['placements.csv', 'summary.json', 'report.html'] as const;
 
 const FLAG_NAMES: Record<string, string> = {
   'plan.perCell': '--per-cell',
@@ -101,8 +103,10 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   const outDir = requireString(values, 'out');
   const plan = planFromFlags(values);
   const threads = optionalString(values, 'threads');
+  const threadCount = threads === undefined ? undefined : parseWholeNumber(threads, 'threads', 1);
+  prepareOutputFolder(outDir, SWEEP_OUTPUTS);
   const dataset = loadDatasetFromFlags(values);
-  const pool = new SweepPool({ threads: threads === undefined ? undefined : parseWholeNumber(threads, 'threads', 1) });
+  const pool = new SweepPool({ threads: threadCount });
   const controller = new AbortController();
   const onInterrupt = (): void => controller.abort();
   process.once('SIGINT', onInterrupt);
@@ -110,10 +114,12 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   try {
     const { rows, summary } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update });
     progress.end();
-    mkdirSync(outDir, { recursive: true });
-    writeFileSync(join(outDir, 'placements.csv'), placementsToCsv(rows));
-    writeFileSync(join(outDir, 'summary.json'), `${JSON.stringify(summary, null, 2)}\n`);
-    writeFileSync(join(outDir, 'report.html'), renderReport(summary, rows));
+    const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
+    writeOutputs(outDir, [
+      [csvName, placementsToCsv(rows)],
+      [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
+      [reportName, renderReport(summary, rows)],
+    ]);
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
     io.stdout(`${lines.join('\n')}\n`);
     for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);
