@@ -1,6 +1,7 @@
 /**
  * The gridshake command line: a table of commands, shared help and error handling.
- * Exit codes: 0 done, 1 a user error (bad input or parameter, message on stderr), 2 a bad command line.
+ * Exit codes: 0 done, 1 a user error (bad input or parameter, message on stderr) or any other failure (one line,
+ * see unexpected-error.ts), 2 a bad command line.
  * To add a command, import it and add one line to COMMANDS.
  */
 import { isGridshakeError } from '../errors.js';
@@ -9,6 +10,9 @@ import type { CliCommand, CliIo } from './cli-command.js';
 import { countCommand } from './count-command.js';
 import { serveCommand } from './serve-command.js';
 import { sweepCommand } from './sweep-command.js';
+import { unexpectedErrorText } from './unexpected-error.js';
+
+export { unexpectedErrorText };
 
 const COMMANDS: CliCommand[] = [
   serveCommand,
@@ -57,6 +61,7 @@ export async function runCli(argv: string[], io: CliIo = PROCESS_IO): Promise<nu
       io.stderr(`gridshake: ${error.message}\n`);
       return 1;
     }
-    throw error;
+    io.stderr(unexpectedErrorText(error));
+    return 1;
   }
 }
