@@ -37,6 +37,7 @@ function expectOneLineRefusal(result: ChildRun, message: RegExp): void {
   expect(result.stderr).not.toMatch(/\n\s+at /);
   expect(result.cliMs).not.toBeNull();
   expect(result.cliMs as number).toBeLessThan(REFUSAL_MS);
+  console.log(`cli attacks: refused in ${result.cliMs} ms: ${result.stderr.trim().slice(0, 110)}`);
 }
 
 describe('special files as inputs (item 12)', () => {
