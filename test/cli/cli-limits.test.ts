@@ -1,12 +1,13 @@
-import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { mkdirSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
 import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../../server/app.js';
 import { MAX_CSV_LINE_BYTES } from '../../server/inputs/input-file.js';
 import { PLAN_LIMITS } from '../../server/sweeps/plan.js';
 import { runCli } from '../../server/cli/main.js';
+import { writeGeoPackage } from '../inputs/geopackage-writer.js';
 import { PROJECT_ROOT, runCliChild } from '../reliability/cli-child.js';
-import { polygonGeoJson, run, tempFolder } from './run-cli.js';
+import { polygonGeoJson, run, seededRandom, tempFolder } from './run-cli.js';
 
 // The limits the command line shares with the server (issue 10, items 13 to 15, and the catch-all): input size and
 // point count (--body-limit, --max-points), one CSV line, cells per placement and the work budget for `count`, the
@@ -75,6 +76,19 @@ describe('input limits shared with the server', () => {
     const result = await run(['count', '--points', points, '--area', path, '--crs', 'planar', '--cell', '400']);
     expect(result.stderr).toBe('');
     expect(result.code).toBe(0);
+  });
+});
+
+describe('binary inputs', () => {
+  it('a GeoPackage of 40,000 points (over 1 MB) is read whole, without the CSV line check', async () => {
+    const random = seededRandom(10);
+    const geometries = Array.from({ length: 40_000 }, () => ({ type: 'Point', coordinates: [500_000 + 2000 * random(), 6_000_000 + 2000 * random()] }));
+    const path = join(folder, 'nests.gpkg');
+    writeFileSync(path, writeGeoPackage([{ table: 'nests', geometryType: 'POINT', epsg: 32633, geometries }]));
+    expect(statSync(path).size).toBeGreaterThan(MAX_CSV_LINE_BYTES);
+    const result = await run(['count', '--points', path, '--cell', '100', '--json']);
+    expect(result.code, result.stderr).toBe(0);
+    expect(JSON.parse(result.stdout).pointsTotal).toBe(40_000);
   });
 });
 
