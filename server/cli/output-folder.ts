@@ -8,6 +8,9 @@ import { accessSync, closeSync, constants, mkdirSync, openSync, realpathSync, st
 import { dirname, join, resolve, sep } from 'node:path';
 import { parameterError } from '../errors.js';
 
+/** The files a sweep writes into --out. */
+export const SWEEP_OUTPUTS = ['placements.csv', 'summary.json', 'report.html'] as const;
+
 /** Filesystems of the kernel, by their statfs magic number (Linux <linux/magic.h>): never a place for results. */
 const KERNEL_FILESYSTEMS: ReadonlyMap<number, string> = new Map([
   [0x9fa0, 'proc'],

@@ -23,7 +23,7 @@ import {
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
-import { prepareOutputFolder, writeOutputs } from './output-folder.js';
+import { prepareOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
 import { progressLine } from './sweep-progress.js';
 
 const OPTIONS: OptionSpecs = {
@@ -40,9 +40,6 @@ const OPTIONS: OptionSpecs = {
   out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
 };
-
-/** The files a sweep writes into --out. */
-export const SWEEP_OUTPUTS = ['placements.csv', 'summary.json', 'report.html'] as const;
 
 const FLAG_NAMES: Record<string, string> = {
   'plan.perCell': '--per-cell',
