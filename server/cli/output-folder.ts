@@ -1,8 +1,9 @@
 /**
  * The --out folder of `gridshake sweep`, checked before any work so that a sweep is never computed only to be lost:
- * kernel filesystems (/proc, /sys, devices) are refused, a missing folder is created, a path that is not a folder is
- * refused, an output name taken by something other than a regular file is refused, and writability is proved by
- * creating and removing a temporary file. Every failure is one GS_ERR_PARAMETER line naming the folder.
+ * kernel filesystems (/proc, /sys, devices) are refused, a missing folder must be creatable (it is made when the
+ * results are ready), a path that is not a folder is refused, an output name taken by something other than a regular
+ * file is refused, and writability is proved by creating and removing a temporary file. Every failure is one
+ * GS_ERR_PARAMETER line naming the folder.
  */
 import { accessSync, closeSync, constants, mkdirSync, openSync, realpathSync, statfsSync, statSync, unlinkSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve, sep } from 'node:path';
@@ -84,24 +85,40 @@ function refuseKernelFilesystem(path: string, absolute: string): void {
   if (name !== undefined) throw refuse(path, `on the kernel's ${name} filesystem, not a place for results; choose a folder on disk`);
 }
 
+/** Proves that files can be created in an existing folder by creating and removing a temporary one. */
+function probeWrite(folder: string): void {
+  const probe = join(folder, `.gridshake-write-test-${process.pid}-${Date.now()}`);
+  closeSync(openSync(probe, 'wx'));
+  unlinkSync(probe);
+}
+
 /**
- * Makes sure that `names` can be written into the folder `path`, creating the folder when missing.
+ * Checks, before any work, that `names` can be written into the folder `path`. A missing folder is not created yet
+ * (a sweep refused later leaves nothing behind): its deepest existing ancestor must be a folder that can be written
+ * to. Returns the function that creates the folder when the results are ready.
  * @throws GridshakeError GS_ERR_PARAMETER "--out PATH: <why>"
  */
-export function prepareOutputFolder(path: string, names: readonly string[]): void {
+export function checkOutputFolder(path: string, names: readonly string[]): () => void {
   const absolute = resolve(path);
   refuseKernelFilesystem(path, absolute);
+  const create = (): void => {
+    try {
+      mkdirSync(absolute, { recursive: true });
+    } catch (error) {
+      throw refuse(path, `cannot create the folder (${reasonOf(error)})`);
+    }
+  };
   let isFolder: boolean;
   try {
     isFolder = statSync(absolute).isDirectory();
   } catch (error) {
     if ((error as NodeJS.ErrnoException).code !== 'ENOENT') throw refuse(path, reasonOf(error));
     try {
-      mkdirSync(absolute, { recursive: true });
-    } catch (made) {
-      throw refuse(path, `cannot create the folder (${reasonOf(made)})`);
+      probeWrite(existingAncestor(absolute));
+    } catch (probed) {
+      throw refuse(path, `cannot create the folder (${reasonOf(probed)})`);
     }
-    isFolder = true;
+    return create;
   }
   if (!isFolder) throw refuse(path, 'it exists and is not a folder');
   for (const name of names) {
@@ -118,18 +135,16 @@ export function prepareOutputFolder(path: string, names: readonly string[]): voi
       throw refuse(path, `${name} exists there and cannot be replaced (${reasonOf(error)})`);
     }
   }
-  const probe = join(absolute, `.gridshake-write-test-${process.pid}-${Date.now()}`);
   try {
-    const descriptor = openSync(probe, 'wx');
-    closeSync(descriptor);
-    unlinkSync(probe);
+    probeWrite(absolute);
   } catch (error) {
     throw refuse(path, `cannot write there (${reasonOf(error)})`);
   }
+  return create;
 }
 
 /**
- * Writes the output files into a folder checked by prepareOutputFolder; a failure now (a disk that filled during
+ * Writes the output files into a folder checked by checkOutputFolder; a failure now (a disk that filled during
  * the sweep) is one line naming the file.
  */
 export function writeOutputs(path: string, files: ReadonlyArray<readonly [name: string, content: string]>): void {

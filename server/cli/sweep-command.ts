@@ -23,7 +23,7 @@ import {
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
-import { prepareOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
+import { checkOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
 import { progressLine } from './sweep-progress.js';
 
 const OPTIONS: OptionSpecs = {
@@ -101,7 +101,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   const plan = planFromFlags(values);
   const threads = optionalString(values, 'threads');
   const threadCount = threads === undefined ? undefined : parseWholeNumber(threads, 'threads', 1);
-  prepareOutputFolder(outDir, SWEEP_OUTPUTS);
+  const createOutDir = checkOutputFolder(outDir, SWEEP_OUTPUTS);
   const dataset = loadDatasetFromFlags(values);
   const pool = new SweepPool({ threads: threadCount });
   const controller = new AbortController();
@@ -111,6 +111,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   try {
     const { rows, summary } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update });
     progress.end();
+    createOutDir();
     const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
     writeOutputs(outDir, [
       [csvName, placementsToCsv(rows)],
