@@ -21,7 +21,7 @@ import {
 import type { CliCommand, CliIo } from './cli-command.js';
 import type { CountResult } from './count-result.js';
 import { formatCount } from './format-count.js';
-import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
+import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 
 /** Defaults of a single count: the sweep plan's, so that count and a sweep's reference placement agree. */
 export const COUNT_DEFAULTS = Object.freeze({ minCoverage: DEFAULT_PLAN.minCoverage, alpha: DEFAULT_PLAN.alpha });
@@ -34,6 +34,7 @@ const OPTIONS: OptionSpecs = {
   'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
   alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
   json: { type: 'boolean', description: 'print one JSON object instead of text' },
+  ...INPUT_LIMIT_OPTIONS,
 };
 
 function countParameters(values: OptionValues) {

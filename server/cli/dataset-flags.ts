@@ -24,6 +24,10 @@ export const DATASET_OPTIONS: OptionSpecs = {
   x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
   y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
   id: { type: 'string', value: 'COL', description: 'CSV column of record ids; default: id, fid, record, ... or the record number' },
+};
+
+/** The server's limits on the input files, as options of count and sweep (listed after each command's own). */
+export const INPUT_LIMIT_OPTIONS: OptionSpecs = {
   'body-limit': { type: 'string', value: 'MB', description: `largest input file in MB, as the server's upload limit; default ${DEFAULT_BODY_LIMIT / 1048576}` },
   'max-points': { type: 'string', value: 'N', description: `most points in the dataset, as the server's limit; default ${DEFAULT_MAX_POINTS}` },
 };

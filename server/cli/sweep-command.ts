@@ -22,7 +22,7 @@ import {
   type OptionValues,
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
-import { DATASET_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
+import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 import { checkOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
 import { progressLine } from './sweep-progress.js';
 
@@ -39,6 +39,7 @@ const OPTIONS: OptionSpecs = {
   seed: { type: 'string', value: 'S', description: 'seed of the simulations, an integer; default 1' },
   out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
+  ...INPUT_LIMIT_OPTIONS,
 };
 
 const FLAG_NAMES: Record<string, string> = {
