@@ -28,9 +28,8 @@ import { SweepService } from './services/sweep-service.js';
 import { GridshakeStore } from './store/store.js';
 import { SweepPool } from './sweeps/sweep-pool.js';
 import { workBudgetFromEnv } from './sweeps/sweep-budget.js';
+import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from './limits.js';
 
-export const DEFAULT_BODY_LIMIT = 64 * 1024 * 1024;
-export const DEFAULT_MAX_POINTS = 2_000_000;
 
 export interface AppOptions {
   /** data folder of the SQLite store (default ./.gridshake); ':memory:' for a throw-away store */

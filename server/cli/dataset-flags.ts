@@ -2,7 +2,7 @@
  * The input-file options that `count` and `sweep` share (points, study area, no-data zones, coordinate system,
  * CSV columns) and the dataset they describe, read from disk and loaded through server/inputs.
  */
-import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../app.js';
+import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../limits.js';
 import type { Dataset } from '../contracts.js';
 import { loadDataset } from '../inputs/index.js';
 import {

@@ -7,7 +7,7 @@
  * name the file.
  */
 import { closeSync, constants, fstatSync, openSync, readSync, statSync, type Stats } from 'node:fs';
-import { DEFAULT_BODY_LIMIT } from '../app.js';
+import { DEFAULT_BODY_LIMIT } from '../limits.js';
 import { inputError, isGridshakeError, tooLargeError } from '../errors.js';
 import type { InputFile } from '../inputs/index.js';
 import { looksLikeGeoJson, MAX_CSV_LINE_BYTES, megabytes, SQLITE_MAGIC } from '../inputs/input-file.js';

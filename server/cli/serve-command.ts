@@ -4,7 +4,8 @@
  * empty store, and shuts down cleanly on SIGINT / SIGTERM (running sweeps are marked interrupted).
  */
 import type { AddressInfo } from 'node:net';
-import { buildApp, DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../app.js';
+import { buildApp } from '../app.js';
+import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../limits.js';
 import { GridshakeError } from '../errors.js';
 import { loadDemoScenarios } from '../services/demo-loader.js';
 import { SAMPLES_DIR } from '../services/project-paths.js';

@@ -20,8 +20,12 @@ import { SizeResults } from './size-results.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv } from './sweep-budget.js';
 import { fromWorkerError, isAbortError, sweepCancelledError } from './sweep-errors.js';
 
-/** The compiled task file (npm run build): the same file whether the caller runs from TypeScript or from dist/. */
-export const POOL_TASK_FILE = join(PACKAGE_ROOT, 'dist', 'workers', 'pool-task.js');
+/**
+ * The compiled task entry piscina loads (npm run build): a CommonJS file that imports the ES task module, so that
+ * piscina never require()s an ES module (see workers/pool-entry.cts). The same file whether the caller runs from
+ * TypeScript or from dist/.
+ */
+export const POOL_TASK_FILE = join(PACKAGE_ROOT, 'dist', 'workers', 'pool-entry.cjs');
 
 /** Simulated points drawn per simulation task. */
 const SIMULATED_POINTS_PER_TASK = 2e5;

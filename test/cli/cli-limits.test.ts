@@ -1,7 +1,7 @@
 import { mkdirSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
-import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../../server/app.js';
+import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../../server/limits.js';
 import { MAX_CSV_LINE_BYTES } from '../../server/inputs/input-file.js';
 import { PLAN_LIMITS } from '../../server/sweeps/plan.js';
 import { runCli } from '../../server/cli/main.js';

@@ -1,7 +1,6 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FastifyInstance } from 'fastify';
 import { buildApp } from '../../server/app.js';
@@ -19,8 +18,8 @@ let app: FastifyInstance;
 let datasetId: string;
 
 const faultyTask = (realTask: string): string => `
-import poolTask from ${JSON.stringify(pathToFileURL(realTask).href)};
-export default function faultyTask(task) {
+const poolTask = require(${JSON.stringify(realTask)});
+module.exports = function faultyTask(task) {
   if (task.kind === 'chunk' && task.cellSize === ${CRASH_CELL}) process.exit(3);
   if (task.kind === 'chunk' && task.cellSize === ${MEMORY_CELL}) {
     const hoard = [];
@@ -47,7 +46,7 @@ async function finished(id: string): Promise<{ status: string; error: string | n
 
 beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), 'gridshake-worker-faults-'));
-  const taskFile = join(folder, 'faulty-task.mjs');
+  const taskFile = join(folder, 'faulty-task.cjs');
   writeFileSync(taskFile, faultyTask(POOL_TASK_FILE));
   const runner = new SweepPool({ threads: 2, filename: taskFile, resourceLimits: { maxOldGenerationSizeMb: 48, maxYoungGenerationSizeMb: 8 } });
   app = await buildApp({ dataDir: join(folder, 'data'), runner });

@@ -1,7 +1,6 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, it, expect } from 'vitest';
 import { booleanPointInPolygon, point, polygon } from '@turf/turf';
 import type { Dataset, SweepProgress } from '../../server/contracts.js';
@@ -166,11 +165,12 @@ describe('SweepPool cancellation and failures', () => {
 
   it('fails the sweep with the worker error message and keeps the pool usable', async () => {
     const folder = mkdtempSync(join(tmpdir(), 'gridshake-pool-'));
-    const filename = join(folder, 'failing-task.mjs');
+    // CommonJS, like the real entry: piscina require()s its task file
+    const filename = join(folder, 'failing-task.cjs');
     writeFileSync(
       filename,
-      `import poolTask from ${JSON.stringify(pathToFileURL(POOL_TASK_FILE).href)};\n` +
-        "export default function failingTask(task) {\n" +
+      `const poolTask = require(${JSON.stringify(POOL_TASK_FILE)});\n` +
+        "module.exports = function failingTask(task) {\n" +
         "  if (task.kind === 'chunk' && task.cellSize === 13) throw new Error('engine failure at 13 m cells');\n" +
         '  return poolTask(task);\n}\n',
     );
