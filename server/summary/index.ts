@@ -7,3 +7,4 @@ export * from './conclusion.js';
 export * from './size-summary.js';
 export * from './sweep-warnings.js';
 export * from './sweep-summary.js';
+export * from './overall-test.js';
