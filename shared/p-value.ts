@@ -11,14 +11,14 @@
 export const SMALLEST_PRINTED_P = 1e-300;
 
 /**
- * A p-value for reading: 3 significant digits from 1e-4 up ("0.0686", "0.05", "1"), scientific below
+ * A p-value for reading: 4 significant digits from 1e-4 up ("0.06859", "0.05", "1"), scientific below
  * ("3.65e-202"), "< 1e-300" below SMALLEST_PRINTED_P, "n/a" when not a number (null, undefined, NaN).
  */
 export function formatPValue(p: number | null | undefined): string {
   if (p === null || p === undefined || Number.isNaN(p)) return 'n/a';
   if (p < SMALLEST_PRINTED_P) return '< 1e-300';
   if (p < 1e-4) return p.toExponential(2);
-  return String(Number(p.toPrecision(3)));
+  return String(Number(p.toPrecision(4)));
 }
 
 /** "p = 0.0123" or "p < 1e-300" (no "=" before a bound). */
