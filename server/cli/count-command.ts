@@ -8,6 +8,7 @@ import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
 import { assertCellCountWithinLimit } from '../sweeps/plan.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
+import { logPValues } from '../summary/log-p-values.js';
 import {
   parseAlpha,
   parseAngle,
@@ -74,6 +75,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   if (evaluated.stats.cells < 2) return keptCells();
   const result: CountResult = {
     ...evaluated.stats,
+    ...logPValues(evaluated.stats),
     pointsOutside: dataset.outsideIds.length,
     pointsInLeftOutCells: dataset.inside.length - evaluated.stats.points,
     pointsTotal: dataset.ids.length,

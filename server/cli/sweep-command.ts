@@ -4,7 +4,7 @@
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
 import type { Plan, SweepProgress } from '../contracts.js';
-import { GridshakeError, parameterError } from '../errors.js';
+import { GridshakeError } from '../errors.js';
 import { renderReport } from '../report/render-report.js';
 import { normalizePlan } from '../sweeps/plan.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
@@ -55,11 +55,11 @@ const FLAG_NAMES: Record<string, string> = {
 
 /** A plan error in the words of the command line (--per-cell rather than plan.perCell). */
 function asFlagError(error: unknown): unknown {
-  if (!(error instanceof GridshakeError) || error.code !== 'GS_ERR_PARAMETER') return error;
+  if (!(error instanceof GridshakeError) || (error.code !== 'GS_ERR_PARAMETER' && error.code !== 'GS_ERR_TOO_FEW_SIMS')) return error;
   let message = error.message.replace('plan needs exactly one of cells (cell sides in metres) or perCell (expected points per cell)',
     'give exactly one of --cells (cell sides in metres) or --per-cell (expected points per cell)');
   for (const [field, flag] of Object.entries(FLAG_NAMES)) message = message.split(field).join(flag);
-  return parameterError(message);
+  return new GridshakeError(error.code, error.statusCode, message);
 }
 
 function planFromFlags(values: OptionValues): Plan {
@@ -119,9 +119,10 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows)],
     ]);
+    // warnings first: a warning that makes a p-value meaningless is read before the p-value
+    for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
     io.stdout(`${lines.join('\n')}\n`);
-    for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);
     io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
     return 0;
   } catch (error) {
