@@ -11,6 +11,7 @@ import { countCommand } from './count-command.js';
 import { serveCommand } from './serve-command.js';
 import { sweepCommand } from './sweep-command.js';
 import { unexpectedErrorText } from './unexpected-error.js';
+import { workerCommand } from './worker-command.js';
 
 export { unexpectedErrorText };
 
@@ -18,6 +19,7 @@ const COMMANDS: CliCommand[] = [
   serveCommand,
   countCommand,
   sweepCommand,
+  workerCommand,
 ];
 
 const PROCESS_IO: CliIo = {

@@ -1,5 +1,5 @@
 /**
- * `npm run bench`: the five measurements of the sweep engine, each printed as a table with ratios against a
+ * `npm run bench`: the five measurements of the sweep engine and the Redis queue's figures (`npm run bench queue`), each printed as a table with ratios against a
  * baseline measured in the same run, and the targets beside the figures. Speed is judged here, never in unit tests.
  */
 import { availableParallelism, cpus, loadavg, totalmem } from 'node:os';
@@ -7,6 +7,7 @@ import { runKernelBench } from './kernel-bench.js';
 import { runMemoryBench } from './memory-bench.js';
 import { runNaiveBench } from './naive-bench.js';
 import { runPhaseBench } from './phase-bench.js';
+import { runQueueBench } from './queue-bench.js';
 import { runSweepBench } from './sweep-bench.js';
 
 const only = process.argv[2];
@@ -21,3 +22,4 @@ if (only === undefined || only === 'sweep') twoThreadNs = (await runSweepBench()
 if (only === undefined || only === 'sweep' || only === 'phases') runPhaseBench();
 if (only === undefined || only === 'naive') await runNaiveBench(twoThreadNs);
 if (only === undefined || only === 'memory') runMemoryBench();
+if (only === undefined || only === 'queue') await runQueueBench();
