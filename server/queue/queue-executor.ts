@@ -99,7 +99,7 @@ export class QueueExecutor implements SweepExecutor {
     this.threads = this.maxInFlight;
     this.lostAfterMs = options.lostAfterMs ?? lostAfterFromEnv();
     this.onNotice = options.onNotice ?? (() => undefined);
-    const connection = redisOptions(options.connection);
+    const connection = redisOptions(options.connection, undefined, 1000);
     this.redis = new Redis({ ...connection, lazyConnect: true });
     this.redis.on('error', (error: Error) => {
       this.lastError = error.message;
@@ -205,6 +205,10 @@ export class QueueExecutor implements SweepExecutor {
       await this.events.waitUntilReady();
       await this.queue.waitUntilReady();
     })();
+    // a failed start is tried again by the next sweep
+    this.started.catch(() => {
+      this.started = null;
+    });
     return this.started;
   }
 

@@ -105,7 +105,7 @@ describe('queue faults with worker processes', () => {
       await new Promise((resolve) => setTimeout(resolve, 100));
       after = await record(next);
     }
-    expect(after.status).toBe('done');
+    expect(after.status, after.error ?? '').toBe('done');
     expect(worker.output()).toMatch(/cannot reach the Redis queue at .*retrying in/);
   });
 });
