@@ -26,6 +26,7 @@ import { SweepQueue } from './services/sweep-queue.js';
 import type { SweepRunner } from './services/sweep-runner.js';
 import { SweepService } from './services/sweep-service.js';
 import { GridshakeStore } from './store/store.js';
+import type { QueueConnection } from './queue/queue-url.js';
 import { SweepPool } from './sweeps/sweep-pool.js';
 import { workBudgetFromEnv } from './sweeps/sweep-budget.js';
 import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from './limits.js';
@@ -46,6 +47,8 @@ export interface AppOptions {
   threads?: number;
   /** folder of the built page (default dist/client) */
   clientDir?: string;
+  /** send sweeps to this Redis queue instead of the local pool (keys prefixed per data folder) */
+  queue?: QueueConnection | null;
   /** a sweep runner to use instead of a new SweepPool (it is destroyed with the app) */
   runner?: SweepRunner;
   logger?: FastifyServerOptions['logger'];
@@ -73,7 +76,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const workBudget = options.workBudget ?? workBudgetFromEnv();
   const store = GridshakeStore.open(options.dataDir ?? './.gridshake');
   const interruptedAtStart = store.sweeps.markInterrupted();
-  const runner = options.runner ?? new SweepPool({ threads: options.threads, budget: workBudget });
+  const dataDir = options.dataDir ?? './.gridshake';
+  const runner =
+    options.runner ??
+    (options.queue
+      ? // loaded only when asked for: the local pool does not load BullMQ
+        (await import('./queue/queue-runner.js')).queueSweepRunner(options.queue, dataDir, workBudget)
+      : new SweepPool({ threads: options.threads, budget: workBudget }));
 
   const app = Fastify({
     logger: options.logger ?? false,

@@ -12,6 +12,7 @@ import { countCommand } from './count-command.js';
 import { serveCommand } from './serve-command.js';
 import { sweepCommand } from './sweep-command.js';
 import { unexpectedErrorText } from './unexpected-error.js';
+import { workerCommand } from './worker-command.js';
 
 export { unexpectedErrorText };
 
@@ -19,6 +20,7 @@ const COMMANDS: CliCommand[] = [
   serveCommand,
   countCommand,
   sweepCommand,
+  workerCommand,
 ];
 
 const PROCESS_IO: CliIo = {

@@ -12,6 +12,7 @@ import { SAMPLES_DIR } from '../services/project-paths.js';
 import { lockDataFolder } from '../store/data-folder-lock.js';
 import { optionalString, parseChecked, parseWholeNumber, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
+import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
 
 export const DEFAULT_PORT = 5178;
 export const DEFAULT_HOST = '127.0.0.1';
@@ -27,6 +28,7 @@ const OPTIONS: OptionSpecs = {
   'max-points': { type: 'string', value: 'N', description: `most points in one dataset; default ${DEFAULT_MAX_POINTS}` },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
   'no-demo': { type: 'boolean', description: 'do not load the demo scenarios into an empty database' },
+  ...QUEUE_OPTION,
 };
 
 /** The warning printed when the server binds to an address other computers can reach; null for loopback. */
@@ -69,13 +71,14 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   const maxPoints = pointsText === undefined ? DEFAULT_MAX_POINTS : parseWholeNumber(pointsText, 'max-points', 1);
   const threadsText = optionalString(values, 'threads');
   const threads = threadsText === undefined ? undefined : parseWholeNumber(threadsText, 'threads', 1);
+  const queue = queueFromOptions(values);
 
   const warning = bindWarning(host);
   if (warning !== null) io.stderr(warning);
   const unlock = lockDataFolder(dataDir);
   let app: Awaited<ReturnType<typeof buildApp>>;
   try {
-    app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, logger: { level: 'error' } });
+    app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, queue, logger: { level: 'error' } });
   } catch (error) {
     unlock();
     throw error;
@@ -98,6 +101,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
     throw error;
   }
   const address = app.server.address() as AddressInfo;
+  if (queue !== null) io.stderr(`gridshake: sweeps go to the Redis queue at ${queue.display}; start workers with: gridshake worker --queue <URL>\n`);
   io.stdout(`gridshake serving at http://${urlHost(host)}:${address.port}/  (database ${services.store.path})\n`);
   const signal = await untilSignal();
   io.stderr(`gridshake: ${signal}: stopping\n`);
@@ -109,7 +113,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
 export const serveCommand: CliCommand = {
   name: 'serve',
   summary: 'start the local server; open the address it prints in a browser',
-  usage: 'Usage: gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR]',
+  usage: 'Usage: gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR] [--queue URL]',
   options: OPTIONS,
   run,
 };

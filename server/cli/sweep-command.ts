@@ -25,6 +25,7 @@ import type { CliCommand, CliIo } from './cli-command.js';
 import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 import { checkOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
 import { progressLine } from './sweep-progress.js';
+import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
 
 const OPTIONS: OptionSpecs = {
   ...DATASET_OPTIONS,
@@ -39,6 +40,7 @@ const OPTIONS: OptionSpecs = {
   seed: { type: 'string', value: 'S', description: 'seed of the simulations, an integer; default 1' },
   out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
+  ...QUEUE_OPTION,
   ...INPUT_LIMIT_OPTIONS,
 };
 
@@ -103,8 +105,12 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   const threads = optionalString(values, 'threads');
   const threadCount = threads === undefined ? undefined : parseWholeNumber(threads, 'threads', 1);
   const createOutDir = checkOutputFolder(outDir, SWEEP_OUTPUTS);
+  const queue = queueFromOptions(values);
   const dataset = loadDatasetFromFlags(values);
-  const pool = new SweepPool({ threads: threadCount });
+  const pool =
+    queue === null
+      ? new SweepPool({ threads: threadCount })
+      : (await import('../queue/queue-runner.js')).queueSweepRunner(queue, null, undefined, (message) => io.stderr(`gridshake sweep: ${message}\n`));
   const controller = new AbortController();
   const onInterrupt = (): void => controller.abort();
   process.once('SIGINT', onInterrupt);
@@ -144,7 +150,7 @@ export const sweepCommand: CliCommand = {
   usage:
     'Usage: gridshake sweep --points F [--area F] [--no-data F]... [--crs planar|EPSG:n] (--cells M,M,... | --per-cell K,K,...)\n' +
     '                       [--placements N] [--no-rotation] [--min-coverage T] [--alpha A] [--sims R] [--seed S]\n' +
-    '                       --out DIR',
+    '                       [--queue URL] --out DIR',
   options: OPTIONS,
   run: runSweepCommand,
 };

@@ -9,6 +9,7 @@ import { EventEmitter } from 'node:events';
 import type { SweepProgress, SweepStatus } from '../contracts.js';
 import type { GridshakeStore } from '../store/store.js';
 import { writeRowsInChunks } from '../store/placement-store.js';
+import { trustStoredPlan } from '../sweeps/plan.js';
 import { ProgressClock } from './progress-clock.js';
 import type { SweepRunner } from './sweep-runner.js';
 
@@ -124,8 +125,10 @@ export class SweepQueue extends EventEmitter {
     this.emit('progress', id, active.clock.now());
     let lastSaved = 0;
     try {
-      const result = await this.runner.runSweep(dataset, record.plan, {
+      // the store holds only plans that normalizePlan returned: not validated again
+      const result = await this.runner.runSweep(dataset, trustStoredPlan(record.plan), {
         signal: active.controller.signal,
+        datasetId: record.datasetId,
         onProgress: (reported) => {
           const progress = active.clock.update(reported);
           if (Date.now() - lastSaved >= SAVE_PROGRESS_EVERY_MS) {

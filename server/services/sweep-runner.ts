@@ -1,5 +1,6 @@
 /**
- * What the sweep queue needs from the worker pool (server/sweeps/sweep-pool.ts implements it):
+ * What the sweep queue needs from the worker pool (server/sweeps/sweep-runner.ts implements it
+ * on an executor: the local pool or the Redis queue):
  * run one sweep with cancellation and progress, and shut down.
  */
 import type { Dataset, PlacementRow, Plan, SweepSummary } from '../contracts.js';
@@ -15,6 +16,8 @@ export interface RunnerProgress {
 export interface SweepRunOptions {
   signal?: AbortSignal;
   onProgress?: (progress: RunnerProgress) => void;
+  /** the stored dataset's id, so that its shared copy is kept per dataset rather than per sweep */
+  datasetId?: string;
 }
 
 export interface SweepRunner {

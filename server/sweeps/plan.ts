@@ -100,7 +100,25 @@ export function normalizePlan(input: unknown): Plan {
   else plan.perCell = sizeList('perCell', input.perCell);
   const refusal = tooFewSimsMessage(plan.sims, plan.alpha);
   if (refusal !== null) throw tooFewSimsError(`plan.${refusal}`);
+  VALIDATED.add(plan);
   return plan;
+}
+
+/** Plans that normalizePlan returned (or that came back from the store, which holds only such plans). */
+const VALIDATED = new WeakSet<Plan>();
+
+/**
+ * Marks a plan read back from the store as validated: the store only holds plans that normalizePlan returned, so
+ * the sweep runner does not validate them again.
+ */
+export function trustStoredPlan(plan: Plan): Plan {
+  VALIDATED.add(plan);
+  return plan;
+}
+
+/** The plan itself when normalizePlan (or trustStoredPlan) already vouched for it, otherwise normalizePlan(input). */
+export function validatedPlan(input: Plan): Plan {
+  return VALIDATED.has(input) ? input : normalizePlan(input);
 }
 
 /**

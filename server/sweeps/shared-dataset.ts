@@ -17,8 +17,6 @@ export interface SharedDataset {
   origin: Origin;
 }
 
-let nextKey = 1;
-
 /**
  * True when the dataset's coordinates can be shared as they are: the whole of a SharedArrayBuffer, every point
  * inside the valid region in storage order, and already in Morton order. Cost O(n).
@@ -36,11 +34,11 @@ export function isShareableAsIs(dataset: Dataset): boolean {
 /**
  * Puts the inside points (Morton-sorted) and the region into shared memory. Zero-copy when the dataset's
  * coordinates are already shared, all inside and sorted (isShareableAsIs); otherwise one sorted copy.
- * Cost O(n) (radix sort).
+ * `key` names the shared copy for the workers' caches (dataset-key.ts). Cost O(n) (radix sort).
  */
-export function shareDataset(dataset: Dataset): SharedDataset {
+export function shareDataset(dataset: Dataset, key: string): SharedDataset {
   const shared = {
-    key: `dataset-${process.pid}-${nextKey++}`,
+    key,
     pointCount: dataset.inside.length,
     region: packRegion(dataset.region),
     origin: { x: dataset.origin.x, y: dataset.origin.y },

@@ -3,7 +3,8 @@
  * C counting loop of test/bench/c, compiled here when a C compiler is present), plus the engine's kernel, phase
  * and naive-approach tables. Speed is judged here, never in unit tests.
  *   npm run bench                     every table
- *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive   one group
+ *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|queue   one group (queue: the Redis queue's
+ *                                     figures, with a redis-server started on a free loopback port)
  *   npm run bench -- --json           the same, tables on stderr and one JSON object on stdout: one key per target
  *                                     (wholeSweep, defaultPlanCli, monteCarlo, peakMemory, serverVsCli), each
  *                                     { ratio, ours, reference, target, met, status }, plus the machine and load
@@ -17,6 +18,7 @@ import { runMemoryBench } from './memory-bench.js';
 import { runNaiveBench } from './naive-bench.js';
 import { runPhaseBench } from './phase-bench.js';
 import { runServerBench } from './server-bench.js';
+import { runQueueBench } from './queue-bench.js';
 import { runSweepBench } from './sweep-bench.js';
 import type { TargetFigure, TargetKey } from './targets.js';
 
@@ -55,6 +57,7 @@ if (wants('server')) targets.serverVsCli = await runServerBench();
 if (wants('memory')) targets.peakMemory = runMemoryBench();
 if (wants('sweep') || wants('phases')) runPhaseBench();
 if (wants('naive')) await runNaiveBench(twoThreadNs);
+if (wants('queue')) await runQueueBench();
 
 const loadAverageAtEnd = loadavg()[0];
 log.write(`\nload average at the end ${loadAverageAtEnd.toFixed(2)}\n`);

@@ -1,0 +1,171 @@
+/**
+ * `gridshake worker`: takes sweep tasks from the Redis queue until stopped and runs them on a local piscina pool
+ * (server/sweeps/local-executor.ts, the same engine and task entry as a local sweep). Each dataset is fetched from
+ * Redis once and kept (the last two), each simulation (dataset, seed, sims) drawn once and kept (the last one).
+ * A stop (SIGTERM) finishes the tasks in hand, then exits. An unreachable Redis is reported and retried with
+ * backoff (redis-options.ts).
+ */
+import { Worker, UnrecoverableError, type Job } from 'bullmq';
+import { Redis } from 'ioredis';
+import type { Dataset } from '../contracts.js';
+import type { DatasetRef, SimulationRef } from '../sweeps/executor.js';
+import { LocalExecutor } from '../sweeps/local-executor.js';
+import { simulateTasks } from '../sweeps/sweep-runner.js';
+import { unpackRegion } from '../../workers/sweep/region-buffer.js';
+import { PARAMETER_ERROR_PREFIX } from '../../workers/sweep/evaluate-chunk.js';
+import { unpackDataset } from './queue-dataset.js';
+import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
+import { RESULT_TTL_SECONDS } from './queue-executor.js';
+import { redisOptions } from './redis-options.js';
+import { decodeTask, encodeResult } from './task-codec.js';
+import type { QueueConnection } from './queue-url.js';
+
+/** Datasets a worker keeps. */
+const KEPT_DATASETS = 2;
+
+/** Default lock of a task a worker holds (seconds): a worker silent this long has its task taken again. */
+export const DEFAULT_LOCK_SECONDS = 30;
+
+export interface QueueWorkerOptions {
+  connection: QueueConnection;
+  threads?: number;
+  /** task lock and stall-check interval, ms; default GRIDSHAKE_WORKER_LOCK_SECONDS or DEFAULT_LOCK_SECONDS */
+  lockMs?: number;
+  log: (line: string) => void;
+  /** piscina task file; default the engine's (server/sweeps/local-executor.ts POOL_TASK_FILE) */
+  taskFile?: string;
+}
+
+export function lockFromEnv(env: Record<string, string | undefined> = process.env): number {
+  const value = Number(env.GRIDSHAKE_WORKER_LOCK_SECONDS);
+  return (Number.isFinite(value) && value > 0 ? value : DEFAULT_LOCK_SECONDS) * 1000;
+}
+
+export class QueueWorker {
+  private readonly executor: LocalExecutor;
+  private readonly redis: Redis;
+  private readonly worker: Worker;
+  private readonly datasets = new Map<string, Promise<DatasetRef>>();
+  private simulation: { key: string; ready: Promise<SimulationRef> } | null = null;
+  private lastError = 'no answer';
+  private tasksDone = 0;
+
+  constructor(options: QueueWorkerOptions) {
+    const { connection, log } = options;
+    this.executor = new LocalExecutor({ threads: options.threads, filename: options.taskFile });
+    const lockMs = options.lockMs ?? lockFromEnv();
+    this.redis = new Redis(
+      redisOptions(connection, (_attempt, delay) => {
+        log(`cannot reach the Redis queue at ${connection.display} (${this.lastError}); retrying in ${(delay / 1000).toFixed(1)} s`);
+      }),
+    );
+    this.redis.on('error', (error: Error) => {
+      this.lastError = error.message;
+    });
+    this.redis.on('ready', () => log(`connected to ${connection.display}; taking sweep tasks on ${this.executor.threads} threads`));
+    this.worker = new Worker(TASK_QUEUE, (job) => this.process(job), {
+      connection: redisOptions(connection),
+      prefix: BULL_PREFIX,
+      concurrency: this.executor.threads,
+      lockDuration: lockMs,
+      stalledInterval: lockMs,
+      maxStalledCount: 2,
+    });
+    this.worker.on('error', (error: Error) => {
+      this.lastError = error.message;
+    });
+    this.worker.on('failed', (job: Job | undefined, error: Error) => {
+      if (job !== undefined) log(`task ${job.id} failed (try ${job.attemptsMade}): ${error.message}`);
+    });
+  }
+
+  get threads(): number {
+    return this.executor.threads;
+  }
+
+  get completed(): number {
+    return this.tasksDone;
+  }
+
+  /** Finishes the tasks in hand and disconnects. */
+  async close(): Promise<void> {
+    await this.worker.close();
+    await this.executor.destroy();
+    await this.redis.quit().catch(() => undefined);
+    this.redis.disconnect();
+  }
+
+  private async process(job: Job): Promise<number> {
+    const task = decodeTask(job.data);
+    const dataset = await this.datasetFor(task.prefix, task.dataset);
+    const simulation = task.sims > 0 ? await this.simulationFor(dataset, task.seed, task.sims) : null;
+    let result: Float64Array;
+    try {
+      result = await this.executor.run(
+        {
+          kind: 'chunk',
+          dataset,
+          simulation,
+          cellSize: task.cellSize,
+          minCoverage: task.minCoverage,
+          alpha: task.alpha,
+          placements: task.placementValues,
+        },
+        new AbortController().signal,
+      );
+    } catch (error) {
+      const message = error instanceof Error ? error.message : String(error);
+      // a parameter error is the same on every worker: no retry
+      if (message.startsWith(PARAMETER_ERROR_PREFIX)) throw new UnrecoverableError(message);
+      throw error;
+    }
+    await this.redis.set(resultKey(task.prefix, String(job.id)), encodeResult(result), 'EX', RESULT_TTL_SECONDS);
+    this.tasksDone += 1;
+    return result.length;
+  }
+
+  /** The dataset of a content hash, fetched from Redis once and shared with the threads. */
+  private datasetFor(prefix: string, hash: string): Promise<DatasetRef> {
+    let ref = this.datasets.get(hash);
+    if (ref === undefined) {
+      ref = (async () => {
+        const bytes = await this.redis.getBuffer(datasetKey(prefix, hash));
+        if (bytes === null) throw new Error(`the dataset ${hash.slice(0, 12)}… is no longer in Redis (expired or removed); run the sweep again`);
+        const packed = unpackDataset(bytes);
+        const xy = new Float64Array(packed.points);
+        const dataset = {
+          xy,
+          inside: Uint32Array.from({ length: packed.pointCount }, (_, k) => k),
+          region: unpackRegion(packed.region),
+          origin: packed.origin,
+        } as unknown as Dataset;
+        const shared: DatasetRef = { key: `queue:${hash}`, hash, pointCount: packed.pointCount };
+        await this.executor.share(dataset, shared);
+        return shared;
+      })();
+      this.datasets.set(hash, ref);
+      ref.catch(() => this.datasets.delete(hash));
+      while (this.datasets.size > KEPT_DATASETS) this.datasets.delete(this.datasets.keys().next().value as string);
+    }
+    return ref;
+  }
+
+  /** The simulated patterns of (dataset, seed, sims), drawn once on the worker's threads as a local sweep draws them. */
+  private simulationFor(dataset: DatasetRef, seed: number, sims: number): Promise<SimulationRef> {
+    const key = `${dataset.key}:seed ${seed}:sims ${sims}`;
+    if (this.simulation?.key === key) return this.simulation.ready;
+    const previous = this.simulation;
+    const simulation: SimulationRef = { key, seed, sims };
+    const ready = (async () => {
+      if (previous !== null) await previous.ready.then((old) => this.executor.release(old)).catch(() => undefined);
+      const signal = new AbortController().signal;
+      await Promise.all([...simulateTasks(dataset, simulation)].map((work) => this.executor.run(work, signal)));
+      return simulation;
+    })();
+    this.simulation = { key, ready };
+    ready.catch(() => {
+      if (this.simulation?.ready === ready) this.simulation = null;
+    });
+    return ready;
+  }
+}
