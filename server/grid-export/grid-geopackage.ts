@@ -22,7 +22,8 @@ export const GPKG_APPLICATION_ID = 0x47504b47;
 export const GPKG_USER_VERSION = 10300;
 export const GRID_TABLE = 'grid_cells';
 
-const ROWS_PER_TRANSACTION = 5000;
+/** Rows per transaction: about 20 ms of writing, after which other requests are served. */
+const ROWS_PER_TRANSACTION = 2000;
 
 const WGS84_WKT =
   'GEOGCS["WGS 84",DATUM["WGS_1984",SPHEROID["WGS 84",6378137,298.257223563,AUTHORITY["EPSG","7030"]],' +
