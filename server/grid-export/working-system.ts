@@ -5,6 +5,7 @@
  */
 import proj4 from 'proj4';
 import type { ProjectionInfo } from '../contracts.js';
+import { describeProjection, metresPerUnit } from '../inputs/describe-projection.js';
 import { epsgDefinition } from '../inputs/epsg-definition.js';
 
 const WGS84 = '+proj=longlat +datum=WGS84 +no_defs';
@@ -24,12 +25,6 @@ export interface WorkingSystem {
   srs: { srsId: number; name: string; organization: string; organizationId: number; definition: string; description: string };
 }
 
-/** Metres per unit of a proj4 definition (1 unless it says +units=us-ft, +to_meter=...). */
-function metresPerUnit(definition: string): number {
-  const projection = proj4.Proj(definition) as unknown as { to_meter?: number };
-  return projection.to_meter ?? 1;
-}
-
 /**
  * WKT 1 (OGC 01-009) of the Lambert azimuthal equal-area projection centred at (lon0, lat0) on WGS 84, in metres,
  * the same projection as `+proj=laea +lat_0 +lon_0 +x_0=0 +y_0=0 +datum=WGS84 +units=m`.
@@ -45,19 +40,6 @@ export function laeaWkt(lon0: number, lat0: number): string {
     'PARAMETER["false_easting",0],PARAMETER["false_northing",0],' +
     'UNIT["metre",1,AUTHORITY["EPSG","9001"]],AXIS["Easting",EAST],AXIS["Northing",NORTH]]'
   );
-}
-
-/** One line naming the projection used, with its full proj4 definition (for count, summary.json, page, report). */
-export function describeProjection(projection: ProjectionInfo): string {
-  if (projection.kind === 'laea') {
-    return `longitude/latitude projected to a local Lambert azimuthal equal-area system centred at ${projection.lon0}, ${projection.lat0}: ${projection.proj4}`;
-  }
-  if (projection.kind === 'epsg') {
-    const unit = metresPerUnit(projection.proj4);
-    const scaled = unit === 1 ? '' : ` (coordinates multiplied by ${unit} to give metres)`;
-    return `EPSG:${projection.code}${scaled}: ${projection.proj4}`;
-  }
-  return 'planar: coordinates taken as metres in an unnamed projected system (no projection applied)';
 }
 
 export function workingSystem(projection: ProjectionInfo): WorkingSystem {

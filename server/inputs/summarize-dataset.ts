@@ -1,5 +1,6 @@
 /** summarizeDataset: counts, areas and suggested cell sizes of a loaded dataset, for the API and the CLI. */
 import type { Dataset, DatasetSummary } from '../contracts.js';
+import { describeProjection } from './describe-projection.js';
 import { multiPolygonArea, multiPolygonBBox } from './planar-rings.js';
 
 /**
@@ -24,6 +25,8 @@ export function summarizeDataset(dataset: Dataset): DatasetSummary {
   return {
     name: dataset.name,
     crs: dataset.crs,
+    projection: dataset.projection,
+    projectionUsed: describeProjection(dataset.projection),
     n: dataset.ids.length,
     nInside,
     nOutside: dataset.outsideIds.length,

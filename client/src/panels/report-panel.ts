@@ -1,7 +1,6 @@
 /**
  * Step 5: the downloads. Every chart as PNG, the per-placement CSV, the grid shown on the map as GeoJSON or
- * GeoPackage, and the
- * single-file HTML report (the same template `gridshake sweep --out` writes).
+ * GeoPackage, and the single-file HTML report (the same template `gridshake sweep --out` writes).
  */
 import { downloads } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
