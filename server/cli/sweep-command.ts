@@ -6,6 +6,7 @@
 import type { Plan, SweepProgress } from '../contracts.js';
 import { GridshakeError, parameterError } from '../errors.js';
 import { renderReport } from '../report/render-report.js';
+import { reportMap } from '../report/report-map.js';
 import { normalizePlan } from '../sweeps/plan.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
 import { isAbortError } from '../sweeps/sweep-errors.js';
@@ -117,7 +118,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
     writeOutputs(outDir, [
       [csvName, placementsToCsv(rows)],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
-      [reportName, renderReport(summary, rows)],
+      [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
     ]);
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
     io.stdout(`${lines.join('\n')}\n`);

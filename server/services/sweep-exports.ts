@@ -15,6 +15,7 @@ import { boundedCellGrid, type GridFormat, type GridRequest } from '../grid-expo
 import { effectiveCoordinates, gridGeoJsonChunks, type GridCoordinates } from '../grid-export/grid-geojson.js';
 import { writeGridGeoPackage } from '../grid-export/grid-geopackage.js';
 import { renderReport } from '../report/render-report.js';
+import { reportMap } from '../report/report-map.js';
 import type { GridshakeStore } from '../store/store.js';
 import { ROWS_PER_CHUNK } from '../store/placement-store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
@@ -48,7 +49,8 @@ export class SweepExports {
 
   report(id: string): string {
     const record = this.finished(id);
-    return renderReport(record.summary!, this.store.placements.read(id));
+    const summary = record.summary!;
+    return renderReport(summary, this.store.placements.read(id), reportMap(this.datasets.load(record.datasetId), summary));
   }
 
   private gridRequest(id: string, sizeIndex: number, placementIndex: number): { request: GridRequest; datasetId: string } {
