@@ -10,6 +10,7 @@
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { cellAt, type CellDescription, type CellGrid } from '../../workers/placement/index.js';
 import type { ProjectionInfo } from '../contracts.js';
+import { parameterError } from '../errors.js';
 import type { GridRequest } from './grid-cells.js';
 import { lonLatRing } from './lonlat-ring.js';
 import { workingSystem } from './working-system.js';
@@ -29,8 +30,14 @@ export interface GridGeoJsonInput {
   coordinates: GridCoordinates;
 }
 
-/** The coordinates a request gets: longitude/latitude unless asked for planar or the system is unknown. */
+/**
+ * The coordinates a request gets: longitude/latitude unless asked for planar or the system is unknown (crs planar);
+ * asking for lonlat explicitly on such data is refused (GS_ERR_PARAMETER).
+ */
 export function effectiveCoordinates(projection: ProjectionInfo, requested: GridCoordinates | undefined): GridCoordinates {
+  if (projection.kind === 'planar' && requested === 'lonlat') {
+    throw parameterError('coordinates=lonlat needs a known coordinate system; this dataset was given as crs planar: upload it with --crs EPSG:n');
+  }
   if (requested === 'planar' || projection.kind === 'planar') return 'planar';
   return 'lonlat';
 }

@@ -114,5 +114,8 @@ describe('grid export limits', () => {
     expect(Buffer.from(await gpkg.arrayBuffer()).subarray(0, 15).toString('latin1')).toBe('SQLite format 3');
     const bad = await fetch(`${base}/api/sweeps/${sweepId}/grid.geojson?size=1&placement=0&coordinates=feet`);
     expect(bad.status).toBe(400);
+    const lonlat = await fetch(`${base}/api/sweeps/${sweepId}/grid.geojson?size=1&placement=0&coordinates=lonlat`);
+    expect(lonlat.status).toBe(400);
+    expect(((await lonlat.json()) as { message: string }).message).toContain('crs planar');
   });
 });
