@@ -52,6 +52,10 @@ export interface DatasetSummary {
   bbox: BBox;
   areaIsDefault: boolean;
   warnings: InputWarning[];
+  /** how the input coordinates became planar metres (absent in summaries stored before it was recorded) */
+  projection?: ProjectionInfo;
+  /** the same as one line with the full proj4 definition, e.g. "EPSG:32633: +proj=utm +zone=33 ..." */
+  projectionUsed?: string;
   /** cell sides (m) for 1.6, 2 and 5 expected points per cell: side = sqrt(k * validArea / nInside) */
   suggestedCellSizes: { perCell: number; cellSize: number; rule: string }[];
   createdAt?: string;

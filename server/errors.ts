@@ -65,6 +65,16 @@ export function conflictError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_CONFLICT', 409, message);
 }
 
+/** A grid export with more cells than the export may hold (422): the message says how to get it. */
+export function gridTooLargeError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_GRID_TOO_LARGE', 422, message);
+}
+
+/** A grid GeoPackage asked for while another is being written (429). */
+export function exportBusyError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_EXPORT_BUSY', 429, message);
+}
+
 export function isGridshakeError(value: unknown): value is GridshakeError {
   return value instanceof GridshakeError;
 }

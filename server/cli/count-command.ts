@@ -84,6 +84,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
       name: dataset.name,
       crs: dataset.crs,
       projection: dataset.projection,
+      projectionUsed: summary.projectionUsed!,
       validArea: summary.validArea,
       studyAreaArea: summary.studyAreaArea,
       areaIsDefault: dataset.areaIsDefault,

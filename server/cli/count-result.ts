@@ -21,6 +21,8 @@ export interface CountResult extends PlacementStatistics {
     name: string;
     crs: string;
     projection: ProjectionInfo;
+    /** the projection as one line with its full proj4 definition */
+    projectionUsed: string;
     validArea: number;
     studyAreaArea: number;
     areaIsDefault: boolean;

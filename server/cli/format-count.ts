@@ -58,6 +58,7 @@ export function formatCount(result: CountResult): string {
   const { placement } = result;
   const lines: string[] = [];
   lines.push(`gridshake count: ${result.dataset.name} (${result.pointsTotal} points, coordinates ${result.dataset.crs})`);
+  lines.push(`Projection used: ${result.dataset.projectionUsed}`);
   lines.push(
     `Grid: ${result.cellSize} m cells, angle ${placement.angle} deg, offset (${placement.u}, ${placement.v}), ` +
       `cells kept with coverage >= ${result.minCoverage}`,

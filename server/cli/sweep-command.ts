@@ -6,6 +6,7 @@
 import type { Plan, SweepProgress } from '../contracts.js';
 import { GridshakeError } from '../errors.js';
 import { renderReport } from '../report/render-report.js';
+import { reportMap } from '../report/report-map.js';
 import { normalizePlan } from '../sweeps/plan.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
 import { isAbortError } from '../sweeps/sweep-errors.js';
@@ -123,7 +124,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
     writeOutputs(outDir, [
       [csvName, placementsToCsv(rows)],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
-      [reportName, renderReport(summary, rows)],
+      [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
     ]);
     // warnings first: a warning that makes a p-value meaningless is read before the p-value
     for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);

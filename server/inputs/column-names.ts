@@ -10,7 +10,8 @@ const LONGITUDE_NAMES = ['lon', 'long', 'longitude', 'lng', 'lon_dd', 'longitude
 const LATITUDE_NAMES = ['lat', 'latitude', 'lat_dd', 'latitude_dd'];
 const X_NAMES = ['x', 'easting', 'east', 'x_coord', 'xcoord', 'coord_x', 'point_x', 'x_m'];
 const Y_NAMES = ['y', 'northing', 'north', 'y_coord', 'ycoord', 'coord_y', 'point_y', 'y_m'];
-const ID_NAMES = ['id', 'fid', 'record', 'record_id', 'recordid', 'objectid', 'gid', 'uid', 'point_id', 'site', 'site_id', 'case_id', 'ref', 'key'];
+/** Names of an id column (CSV) or an id-like property (GeoJSON features without a Feature.id), in order of preference. */
+export const ID_NAMES = ['id', 'fid', 'record', 'record_id', 'recordid', 'objectid', 'gid', 'uid', 'point_id', 'site', 'site_id', 'case_id', 'ref', 'key'];
 
 export interface CoordinateColumns {
   x: number;

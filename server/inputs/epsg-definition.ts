@@ -9,6 +9,10 @@ export interface EpsgDefinition {
   name: string;
   proj4: string;
   geographic: boolean;
+  /** OGC WKT 1 of the system, when the index has it */
+  wkt: string | null;
+  /** area of use [west, south, east, north] in degrees, when the index has it */
+  areaOfUse: [number, number, number, number] | null;
 }
 
 interface EpsgIndexEntry {
@@ -16,6 +20,9 @@ interface EpsgIndexEntry {
   kind: string;
   name: string;
   proj4: string | null;
+  wkt?: string | null;
+  /** [north, west, south, east] in degrees */
+  bbox?: number[] | null;
 }
 
 /** The definition of `EPSG:code`, or a GS_ERR_PARAMETER when the code is unknown or has no proj4 form. */
@@ -31,5 +38,7 @@ export function epsgDefinition(code: number): EpsgDefinition {
   if (!geographic && entry.kind !== 'CRS-PROJCRS') {
     throw parameterError(`--crs: EPSG:${code} (${entry.name}) is a ${entry.kind}, not a 2D projected or geographic system`);
   }
-  return { code, name: entry.name, proj4: entry.proj4, geographic };
+  const box = Array.isArray(entry.bbox) && entry.bbox.length === 4 && entry.bbox.every(Number.isFinite) ? entry.bbox : null;
+  const areaOfUse: EpsgDefinition['areaOfUse'] = box ? [box[1]!, box[2]!, box[3]!, box[0]!] : null;
+  return { code, name: entry.name, proj4: entry.proj4, geographic, wkt: entry.wkt ?? null, areaOfUse };
 }

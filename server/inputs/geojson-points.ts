@@ -19,8 +19,9 @@ function position(value: unknown, where: string): [number, number] {
   return [check(x, 'x (longitude)'), check(y, 'y (latitude)')];
 }
 
-export function readGeoJsonPoints(fileName: string, text: string): RawPoints {
-  return pointsFromFeatures(fileName, readGeoJsonFeatures(fileName, text), 'geojson');
+/** Points of a GeoJSON text; record ids as in featureId (`idProperty`: the --id option naming a property). */
+export function readGeoJsonPoints(fileName: string, text: string, idProperty?: string): RawPoints {
+  return pointsFromFeatures(fileName, readGeoJsonFeatures(fileName, text, idProperty), 'geojson');
 }
 
 /** Points of already-read features (GeoJSON or GeoPackage): each Point a record, each part of a MultiPoint one. */

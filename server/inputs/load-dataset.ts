@@ -6,6 +6,7 @@ import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
 import type { Dataset, InputWarning } from '../contracts.js';
 import { inputError, tooLargeError } from '../errors.js';
 import { checkPolygon } from './check-polygon.js';
+import { checkCoordinateSanity, checkPolygonIsLonLat } from './coordinate-sanity.js';
 import { resolveCoordinateSystem, type CoordinateSystem } from './coordinate-system.js';
 import { isSqliteFile, readGeoPackageFeatures } from './geopackage/read-geopackage.js';
 import { defaultStudyArea } from './default-study-area.js';
@@ -34,7 +35,7 @@ export interface DatasetOptions {
 }
 
 /** Polygons of a GeoJSON or GeoPackage file; a GeoPackage must declare the same system as the points, or none. */
-function readPolygons(file: InputFile, system: CoordinateSystem): LabelledRings[] {
+function readPolygons(file: InputFile, system: CoordinateSystem, role: string, pointsFile: string): LabelledRings[] {
   let polygons: RawPolygon[];
   if (isSqliteFile(file)) {
     const layer = readGeoPackageFeatures(file);
@@ -46,6 +47,7 @@ function readPolygons(file: InputFile, system: CoordinateSystem): LabelledRings[
     polygons = readGeoJsonPolygons(file.name, readText(file));
   }
   const geographic = system.geographic;
+  for (const polygon of polygons) checkPolygonIsLonLat(system, polygon, role, pointsFile);
   return polygons.map((polygon) => ({
     label: polygon.label,
     rings: checkPolygon(polygon, geographic),
@@ -68,10 +70,11 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
     throw inputError(`${input.points.name}: the GeoPackage layer declares no EPSG coordinate system; give --crs planar or --crs EPSG:n`);
   }
   const system = resolveCoordinateSystem(crs, raw.kind, input.points.name);
-  const area = input.area ? readPolygons(input.area, system) : [];
-  const zones = (input.noData ?? []).flatMap((file) => readPolygons(file, system));
+  const area = input.area ? readPolygons(input.area, system, 'study area', input.points.name) : [];
+  const zones = (input.noData ?? []).flatMap((file) => readPolygons(file, system, 'no-data zone', input.points.name));
+  const sanityWarnings = checkCoordinateSanity(system, raw, area, zones);
   const projected = projectInputs(system, raw, area, zones);
-  const warnings: InputWarning[] = system.warnings.map(projectionWarning);
+  const warnings: InputWarning[] = [...system.warnings.map(projectionWarning), ...sanityWarnings];
 
   let studyRings = projected.area;
   if (studyRings.length === 0) {

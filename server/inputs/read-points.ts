@@ -12,5 +12,5 @@ export function readPoints(file: InputFile, columns: { x?: string; y?: string; i
     return { ...points, kind: layer.crs === undefined ? 'xy' : 'lonlat', declaredCrs: layer.crs };
   }
   const text = readText(file);
-  return looksLikeGeoJson(file, text) ? readGeoJsonPoints(file.name, text) : readCsvPoints(file.name, text, columns);
+  return looksLikeGeoJson(file, text) ? readGeoJsonPoints(file.name, text, columns.id) : readCsvPoints(file.name, text, columns);
 }

@@ -1,6 +1,7 @@
 /** summarizeDataset: counts, areas and suggested cell sizes of a loaded dataset, for the API and the CLI. */
 import type { Dataset, DatasetSummary } from '../contracts.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
+import { describeProjection } from './describe-projection.js';
 import { multiPolygonArea, multiPolygonBBox } from './planar-rings.js';
 
 /**
@@ -20,6 +21,8 @@ export function summarizeDataset(dataset: Dataset): DatasetSummary {
   return {
     name: dataset.name,
     crs: dataset.crs,
+    projection: dataset.projection,
+    projectionUsed: describeProjection(dataset.projection),
     n: dataset.ids.length,
     nInside,
     nOutside: dataset.outsideIds.length,

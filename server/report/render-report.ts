@@ -16,6 +16,7 @@ import { methodsText } from './methods-text.js';
 import { datasetSection, monteCarloSection, planSection, sizeTable, versionsSection } from './report-sections.js';
 import { REPORT_CHART_SIZE, reportChartScript } from './report-script.js';
 import { REPORT_CSS } from './report-styles.js';
+import { reportMapSvg, type ReportMap } from './report-map.js';
 
 /** Long tables (one row per placement or offset bin) are folded away on screen and left out of print. */
 const FOLD_TABLE_ROWS = 12;
@@ -41,8 +42,8 @@ function sizeSection(summary: SweepSummary, rows: readonly PlacementRow[], sizeI
   );
 }
 
-/** Renders the whole report as one HTML string. */
-export function renderReport(summary: SweepSummary, rows: PlacementRow[]): string {
+/** Renders the whole report as one HTML string; with `map` (report-map.ts) it holds the map figure. */
+export function renderReport(summary: SweepSummary, rows: PlacementRow[], map?: ReportMap): string {
   const overview = overviewBundles(summary);
   const perSize = [...summary.sizes]
     .sort((a, b) => a.cellSize - b.cellSize)
@@ -68,6 +69,7 @@ export function renderReport(summary: SweepSummary, rows: PlacementRow[]): strin
 <section class="cautions" aria-label="Cautions"><h2>Read before you act on these results</h2><ul>${CAUTIONS.map((caution) => `<li>${escapeHtml(caution)}</li>`).join('')}</ul></section>
 <section><h2>Conclusion</h2>${warnings}<p class="conclusion">${escapeHtml(summary.conclusion)}</p></section>
 ${datasetSection(summary)}
+${map ? `<section><h2>Map</h2>${reportMapSvg(map)}</section>` : ''}
 ${planSection(summary)}
 <section><h2>Results across cell sizes</h2>${sizeTable(summary)}${overview.map(figure).join('\n')}</section>
 ${monteCarloSection(summary)}

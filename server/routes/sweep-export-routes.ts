@@ -1,6 +1,6 @@
 /**
- * Sweep exports: placements.csv, placements.json, grid.geojson?size=K&placement=J, report.html (add ?download=1
- * for an attachment). Only done sweeps have them (409 otherwise). The report runs its inline chart script under a
+ * Sweep exports: placements.csv, placements.json, grid.geojson?size=K&placement=J[&coordinates=planar],
+ * grid.gpkg?size=K&placement=J, report.html (add ?download=1 for an attachment). Only done sweeps have them (409 otherwise). The report runs its inline chart script under a
  * content security policy that allows no network access at all.
  */
 import type { FastifyInstance } from 'fastify';
@@ -10,6 +10,8 @@ import { ID_PARAMS } from './schemas/common-schemas.js';
 
 const REPORT_POLICY =
   "default-src 'none'; script-src 'unsafe-inline'; style-src 'unsafe-inline'; img-src data: blob:; base-uri 'none'; form-action 'none'";
+
+const GRID_QUERY_PROPERTIES = { size: { type: 'integer', minimum: 0 }, placement: { type: 'integer', minimum: 0 } } as const;
 
 const DOWNLOAD_QUERY = {
   type: 'object',
@@ -43,7 +45,7 @@ export function registerSweepExportRoutes(app: FastifyInstance, exportsOf: Sweep
     async (request) => exportsOf.rows(request.params.id),
   );
 
-  app.get<{ Params: { id: string }; Querystring: { size: number; placement: number } }>(
+  app.get<{ Params: { id: string }; Querystring: { size: number; placement: number; coordinates?: 'lonlat' | 'planar' } }>(
     '/api/sweeps/:id/grid.geojson',
     {
       schema: {
@@ -52,23 +54,35 @@ export function registerSweepExportRoutes(app: FastifyInstance, exportsOf: Sweep
           type: 'object',
           required: ['size', 'placement'],
           additionalProperties: false,
-          properties: { size: { type: 'integer', minimum: 0 }, placement: { type: 'integer', minimum: 0 } },
+          properties: { ...GRID_QUERY_PROPERTIES, coordinates: { type: 'string', enum: ['lonlat', 'planar'] } },
         },
-        response: {
-          200: {
-            type: 'object',
-            required: ['type', 'features'],
-            additionalProperties: true,
-            properties: { type: { const: 'FeatureCollection' }, features: { type: 'array', items: { type: 'object', additionalProperties: true } } },
-          },
-          ...errorResponses(400, 404, 409),
-        },
+        response: errorResponses(400, 404, 409, 422),
       },
     },
-    async (request, reply) =>
-      reply
-        .type('application/geo+json; charset=utf-8')
-        .send(exportsOf.grid(request.params.id, request.query.size, request.query.placement)),
+    async (request, reply) => {
+      const { size, placement, coordinates } = request.query;
+      const stream = exportsOf.gridGeoJson(request.params.id, size, placement, coordinates);
+      return reply.type('application/geo+json; charset=utf-8').send(stream);
+    },
+  );
+
+  app.get<{ Params: { id: string }; Querystring: { size: number; placement: number } }>(
+    '/api/sweeps/:id/grid.gpkg',
+    {
+      schema: {
+        params: ID_PARAMS,
+        querystring: { type: 'object', required: ['size', 'placement'], additionalProperties: false, properties: GRID_QUERY_PROPERTIES },
+        response: errorResponses(400, 404, 409, 422, 429),
+      },
+    },
+    async (request, reply) => {
+      const { size, placement } = request.query;
+      const stream = await exportsOf.gridGeoPackage(request.params.id, size, placement);
+      return reply
+        .type('application/geopackage+sqlite3')
+        .header('content-disposition', attachment(`grid-${request.params.id.slice(0, 8)}-size${size}-placement${placement}.gpkg`))
+        .send(stream);
+    },
   );
 
   app.get<{ Params: { id: string }; Querystring: { download?: number } }>(

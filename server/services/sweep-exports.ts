@@ -1,16 +1,26 @@
 /**
  * Exports of a finished sweep: the per-placement rows (CSV and JSON, exactly as computed), one placement's grid as
- * GeoJSON, and the single-file HTML report. Only a `done` sweep has rows: others get 409.
+ * GeoJSON (streamed) or GeoPackage (a temporary file, streamed and removed), and the single-file HTML report.
+ * Only a `done` sweep has rows: others get 409. Grid exports are bounded in cells (grid-export/grid-cells.ts) and
+ * one GeoPackage is written at a time.
  */
+import { createReadStream } from 'node:fs';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Readable } from 'node:stream';
 import type { PlacementRow } from '../contracts.js';
-import { conflictError, notFoundError } from '../errors.js';
+import { conflictError, exportBusyError, notFoundError } from '../errors.js';
+import { boundedCellGrid, type GridFormat, type GridRequest } from '../grid-export/grid-cells.js';
+import { effectiveCoordinates, gridGeoJsonChunks, type GridCoordinates } from '../grid-export/grid-geojson.js';
+import { writeGridGeoPackage } from '../grid-export/grid-geopackage.js';
 import { renderReport } from '../report/render-report.js';
+import { reportMap } from '../report/report-map.js';
 import type { GridshakeStore } from '../store/store.js';
 import { ROWS_PER_CHUNK } from '../store/placement-store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
 import type { DatasetService } from './dataset-service.js';
-import { placementGrid } from './placement-grid.js';
 import type { SweepService } from './sweep-service.js';
 
 export class SweepExports {
@@ -39,11 +49,11 @@ export class SweepExports {
 
   report(id: string): string {
     const record = this.finished(id);
-    return renderReport(record.summary!, this.store.placements.read(id));
+    const summary = record.summary!;
+    return renderReport(summary, this.store.placements.read(id), reportMap(this.datasets.load(record.datasetId), summary));
   }
 
-  /** GeoJSON of placement `placementIndex` at cell size `sizeIndex`. */
-  grid(id: string, sizeIndex: number, placementIndex: number): Record<string, unknown> {
+  private gridRequest(id: string, sizeIndex: number, placementIndex: number): { request: GridRequest; datasetId: string } {
     const record = this.finished(id);
     const sizes = record.summary!.sizes.length;
     if (sizeIndex >= sizes) throw notFoundError(`sweep ${id} has ${sizes} cell sizes; size=${sizeIndex} does not exist (0 to ${sizes - 1})`);
@@ -54,13 +64,75 @@ export class SweepExports {
     }
     const row = this.findRow(id, sizeIndex, placementIndex, record.plan.placements);
     if (row === undefined) throw notFoundError(`sweep ${id} has no row for size ${sizeIndex}, placement ${placementIndex}`);
-    return placementGrid(this.datasets.load(record.datasetId), {
-      cellSize: row.cellSize,
-      placement: { u: row.u, v: row.v, angle: row.angle },
-      minCoverage: record.plan.minCoverage,
-      sizeIndex,
-      placementIndex,
-    });
+    return {
+      datasetId: record.datasetId,
+      request: {
+        cellSize: row.cellSize,
+        placement: { u: row.u, v: row.v, angle: row.angle },
+        minCoverage: record.plan.minCoverage,
+        sizeIndex,
+        placementIndex,
+      },
+    };
+  }
+
+  private boundedGrid(id: string, sizeIndex: number, placementIndex: number, format: GridFormat) {
+    const { request, datasetId } = this.gridRequest(id, sizeIndex, placementIndex);
+    const dataset = this.datasets.load(datasetId);
+    return { dataset, request, cells: boundedCellGrid(dataset, request, format) };
+  }
+
+  /**
+   * GeoJSON of placement `placementIndex` at cell size `sizeIndex` as a stream of text: longitude/latitude where the
+   * system is known, unless `coordinates` is 'planar'. Refused (422) above MAX_GEOJSON_GRID_CELLS before any text.
+   */
+  gridGeoJson(id: string, sizeIndex: number, placementIndex: number, coordinates?: GridCoordinates): Readable {
+    const { dataset, request, cells } = this.boundedGrid(id, sizeIndex, placementIndex, 'geojson');
+    return Readable.from(
+      gridGeoJsonChunks({
+        datasetName: dataset.name,
+        projection: dataset.projection,
+        origin: dataset.origin,
+        request,
+        cells,
+        coordinates: effectiveCoordinates(dataset.projection, coordinates),
+      }),
+    );
+  }
+
+  /** The whole grid GeoJSON as text (tests, small grids). */
+  async gridGeoJsonText(id: string, sizeIndex: number, placementIndex: number, coordinates?: GridCoordinates): Promise<string> {
+    let text = '';
+    for await (const chunk of this.gridGeoJson(id, sizeIndex, placementIndex, coordinates)) text += chunk as string;
+    return text;
+  }
+
+  private geoPackageBusy = false;
+
+  /**
+   * The grid as a GeoPackage file, streamed from a temporary folder that is removed once sent (or on error).
+   * Refused (422) above MAX_GEOPACKAGE_GRID_CELLS; one at a time (429 while another is written).
+   */
+  async gridGeoPackage(id: string, sizeIndex: number, placementIndex: number): Promise<Readable> {
+    if (this.geoPackageBusy) {
+      throw exportBusyError( 'another grid GeoPackage is being written; try again when it is done');
+    }
+    this.geoPackageBusy = true;
+    let folder: string | undefined;
+    try {
+      const { dataset, request, cells } = this.boundedGrid(id, sizeIndex, placementIndex, 'gpkg');
+      folder = await mkdtemp(join(tmpdir(), 'gridshake-gpkg-'));
+      const path = join(folder, 'grid.gpkg');
+      await writeGridGeoPackage({ path, datasetName: dataset.name, projection: dataset.projection, request, cells });
+      const stream = createReadStream(path);
+      const remove = folder;
+      folder = undefined;
+      stream.once('close', () => void rm(remove, { recursive: true, force: true }));
+      return stream;
+    } finally {
+      this.geoPackageBusy = false;
+      if (folder !== undefined) await rm(folder, { recursive: true, force: true });
+    }
   }
 
   /** Rows are stored size by size, placement by placement; look in the expected chunk, else scan all rows. */

@@ -46,14 +46,28 @@ describe('cellSizeChartSpec(series, placements)', () => {
     const labels = spec.data.datasets.map((dataset) => dataset.label);
     expect(labels).toContain('CSR envelope of medians (2.5-97.5 %)');
     const quartiles = spec.data.datasets.find((dataset) => dataset.label === 'quartiles (25-75 %)');
-    expect(quartiles?.data).toEqual([[1.3, 1.9], [2.5, 3.5]]);
+    expect(quartiles?.data).toEqual([{ x: 250, y: [1.3, 1.9] }, { x: 500, y: [2.5, 3.5] }]);
     const one = spec.data.datasets.find((dataset) => dataset.label === '1 = CSR expectation');
-    expect(one?.data).toEqual([1, 1]);
+    expect(one?.data).toEqual([{ x: 250, y: 1 }, { x: 500, y: 1 }]);
     expect(spec.data.datasets[0].fill).toBe('+1');
-    expect(spec.data.datasets[1].data).toEqual([2.3, 4]);
+    expect(spec.data.datasets[1].data).toEqual([{ x: 250, y: 2.3 }, { x: 500, y: 4 }]);
     const scales = spec.options.scales as Record<string, { title: { text: string } }>;
     expect(scales.x.title.text).toBe('cell side (m)');
     expect(JSON.parse(JSON.stringify(spec))).toEqual(spec);
+  });
+
+  it('puts cell sides on a linear metre axis: 144, 161 and 254 m are spaced by their differences (issue 9 item 6)', () => {
+    const sides = [144, 254, 161].map((cellSize, sizeIndex) => makeSize({ sizeIndex, cellSize }));
+    const spec = cellSizeChartSpec(cellSizeSeries(sides, 'chi2PerDf'), 16);
+    const scales = spec.options.scales as Record<string, { type?: string; min: number; max: number }>;
+    expect(scales.x.type).toBe('linear');
+    expect(spec.data.labels).toBeUndefined();
+    for (const dataset of spec.data.datasets) {
+      expect((dataset.data as { x: number }[]).map((point) => point.x)).toEqual([144, 161, 254]);
+    }
+    // margins of 8 % of the range (8.8 m) or of the smallest side (11.52 m), whichever is larger, each way
+    expect(scales.x.min).toBeCloseTo(144 - 11.52, 10);
+    expect(scales.x.max).toBeCloseTo(254 + 11.52, 10);
   });
 
   it('has no envelope datasets without simulations', () => {

@@ -36,16 +36,53 @@ describe('equalEdges(lo, hi, bins)', () => {
 });
 
 describe('monteCarloHistograms(result)', () => {
-  it('bins simulated medians and maxima on common edges that cover the observed values', () => {
+  it('bins simulated medians and maxima on edges that resolve both; far observed values are marked off the scale', () => {
     const result = makeMonteCarlo({});
     const histograms = monteCarloHistograms(result);
-    // lo = 0.9 (a simulated median), hi = 3 (observed maximum), max(Sturges(4) = 3, 5) = 5 bins of 0.42
-    expect(histograms.edges.map((edge) => Number(edge.toFixed(10)))).toEqual([0.9, 1.32, 1.74, 2.16, 2.58, 3]);
-    expect(histograms.medians).toEqual([4, 0, 0, 0, 0]);
-    expect(histograms.maxima).toEqual([0, 4, 0, 0, 0]);
+    // simulated values 0.9..1.6 (range 0.7); observed 2 and 3 lie beyond 1.6 + 0.5 x 0.7 = 1.95: off the scale.
+    // medians span 0.2, maxima 0.2: ceil(5 x 0.7 / 0.2) = 18 bins of 0.7 / 18
+    expect(histograms.edges).toHaveLength(19);
+    expect(histograms.edges[0]).toBe(0.9);
+    expect(histograms.edges[18]).toBe(1.6);
+    expect(histograms.medians.reduce((a, b) => a + b, 0)).toBe(4);
+    expect(Math.max(...histograms.medians)).toBeLessThan(4);
+    expect(histograms.median).toEqual({ value: 2, shownAt: 1.6 + 0.7 * 0.12, offScale: 'above' });
+    expect(histograms.axisMax).toBeCloseTo(1.6 + 0.7 * 0.24, 12);
     const spec = monteCarloChartSpec(histograms, result, '250 m');
     const observed = spec.data.datasets.find((dataset) => String(dataset.label).startsWith('observed median'));
-    expect(observed?.data).toEqual([{ x: 2, y: 0 }, { x: 2, y: 4.32 }]);
+    expect(observed?.label).toBe('observed median 2 (far above every simulated value: drawn at the axis end)');
+    expect((observed?.data as { x: number }[])[0]!.x).toBeCloseTo(1.684, 12);
+  });
+
+  it('keeps an observed value near the simulated ones at its place on the axis', () => {
+    const histograms = monteCarloHistograms(makeMonteCarlo({ observedMedian: 1.2, observedMax: 1.7 }));
+    expect(histograms.median).toEqual({ value: 1.2, shownAt: 1.2, offScale: null });
+    expect(histograms.max.offScale).toBeNull();
+    expect(histograms.edges[histograms.edges.length - 1]).toBe(1.7);
+  });
+
+  it('resolves the simulated distribution when the observed value is 13.4 and the simulations lie near 1 (issue 9 item 6)', () => {
+    // 99 simulated medians evenly spread over 0.95..1.05, maxima over 1.2..1.4
+    const simulatedMedians = Array.from({ length: 99 }, (_, k) => 0.95 + (0.1 * k) / 98);
+    const simulatedMaxima = Array.from({ length: 99 }, (_, k) => 1.2 + (0.2 * k) / 98);
+    const result = makeMonteCarlo({ sims: 99, simulatedMedians, simulatedMaxima, observedMedian: 13.4, observedMax: 20.1 });
+    const histograms = monteCarloHistograms(result);
+    // no bin holds more than a quarter of the simulated medians
+    expect(Math.max(...histograms.medians)).toBeLessThan(25);
+    expect(histograms.medians.filter((count) => count > 0).length).toBeGreaterThanOrEqual(5);
+    expect(histograms.median.offScale).toBe('above');
+    const spec = monteCarloChartSpec(histograms, result, '250 m');
+    const labels = spec.data.datasets.map((dataset) => String(dataset.label));
+    expect(labels).toContain('observed median 13.4 (far above every simulated value: drawn at the axis end)');
+    expect(labels).toContain('observed maximum 20.1 (far above every simulated value: drawn at the axis end)');
+    // the legend draws each item from its dataset's colours: every dataset carries its own, matching its line or fill
+    for (const dataset of spec.data.datasets) {
+      expect(dataset.borderColor).toBeTruthy();
+      expect(dataset.pointStyle).toBe(String(dataset.label).startsWith('observed') ? 'line' : 'rect');
+      if (String(dataset.label).startsWith('observed')) expect(dataset.backgroundColor).toBe(dataset.borderColor);
+    }
+    const scales = spec.options.scales as Record<string, { min: number; max: number }>;
+    expect(scales.x.max).toBeLessThan(2);
   });
 });
 

@@ -41,6 +41,32 @@ describe('offsetHeatmap(rows, sizeIndex, bins)', () => {
   });
 });
 
+describe('colour range of the heat map (issue 9 item 6)', () => {
+  it('states its range; a wide spread uses the bins\' own range', () => {
+    const map = offsetHeatmap([makeRow({ u: 0.1, v: 0.1, vmr: 2 }), makeRow({ u: 0.6, v: 0.1, vmr: 4 })], 0, 2);
+    expect(map.widened).toBe(false);
+    expect([map.colourLow, map.colourHigh]).toEqual([2, 4]);
+    expect(map.rangeNote).toBe('colours span mean VMR 2 (dark) to 4 (light), the range of the bins');
+    const spec = offsetHeatmapChartSpec(map, '250 m');
+    expect((spec.options.plugins as { subtitle: { text: string[] } }).subtitle.text).toContain(map.rangeNote);
+  });
+
+  it('does not stretch 13.0 to 13.6 to full contrast: the ramp is widened to +-10 % around 13.3 and says so', () => {
+    const map = offsetHeatmap([makeRow({ u: 0.1, v: 0.1, vmr: 13.0 }), makeRow({ u: 0.6, v: 0.1, vmr: 13.6 })], 0, 2);
+    expect(map.widened).toBe(true);
+    // middle 13.3, span 0.2 x 13.3 = 2.66: ends 11.97 and 14.63
+    expect(map.colourLow).toBeCloseTo(11.97, 10);
+    expect(map.colourHigh).toBeCloseTo(14.63, 10);
+    // positions (13.0 - 11.97) / 2.66 = 0.387 and (13.6 - 11.97) / 2.66 = 0.613: neither end of the ramp
+    expect(map.cells[0].colour).toBe(sequentialColour((13.0 - 11.97) / 2.66));
+    expect(map.cells[1].colour).toBe(sequentialColour((13.6 - 11.97) / 2.66));
+    expect(map.cells[0].colour).not.toBe(sequentialColour(0));
+    expect(map.rangeNote).toContain('colours span mean VMR 12 (dark) to 14.6 (light)');
+    expect(map.rangeNote).toContain('range only from 13 to 13.6 (4.5 % of the level)');
+    expect(map.rangeNote).toContain('not stretched to full contrast');
+  });
+});
+
 describe('defaultOffsetBins(placements)', () => {
   it('aims at about two placements per bin, within 2..10', () => {
     expect(defaultOffsetBins(4)).toBe(2);

@@ -75,15 +75,23 @@ function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
   }
 }
 
-/** Exact coverage of all cells that the transformed region's bounding box touches. */
-export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
-  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+/** The cells (i0, j0, nx, ny) of the transformed region's bounding box, without allocating the grid. Cost O(vertices). */
+export function gridExtent(region: Region, origin: Origin, cellSize: number, placement: Placement): Omit<CoverageGrid, 'coverage'> {
+  return extentOf(ringsInCellUnits(region, origin, cellSize, placement));
+}
+
+function extentOf(rings: Float64Array[]): Omit<CoverageGrid, 'coverage'> {
   const [minX, minY, maxX, maxY] = ringsExtent(rings);
   if (!(maxX >= minX && maxY >= minY)) throw new RangeError('region has no vertices: cannot compute cell coverage');
   const i0 = Math.floor(minX);
   const j0 = Math.floor(minY);
-  const nx = Math.max(1, Math.ceil(maxX) - i0);
-  const ny = Math.max(1, Math.ceil(maxY) - j0);
+  return { i0, j0, nx: Math.max(1, Math.ceil(maxX) - i0), ny: Math.max(1, Math.ceil(maxY) - j0) };
+}
+
+/** Exact coverage of all cells that the transformed region's bounding box touches. */
+export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
+  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+  const { i0, j0, nx, ny } = extentOf(rings);
   if (nx * ny > MAX_GRID_CELLS) {
     throw new RangeError(
       `cell size ${cellSize} m gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,

@@ -1,11 +1,13 @@
 /**
- * Every cell of one placement with coverage > 0, for drawing and the grid.geojson export: grid indices, count,
+ * Every cell of one placement with coverage > 0, for drawing and the grid exports: grid indices, count,
  * coverage, expected count E_c = N a_c / sum(a) over kept cells (null for left-out cells), whether it is kept, and
  * its corners as a closed ring in planar metres. N is the number of points in kept cells (design.md).
- * Cost O(cells + n).
+ * `describeCellGrid` keeps the placement in typed arrays (cells visited one at a time, for exports that stream);
+ * `describeCells` lists them as objects. Cost O(cells + n).
  */
-import { cellCorners, createGridFrame } from '../geometry/grid-frame.js';
+import { cellCorners, createGridFrame, type GridFrame } from '../geometry/grid-frame.js';
 import { placementCoverage } from '../geometry/coverage.js';
+import type { CoverageGrid } from '../types.js';
 import type { EvaluatePlacementInput } from './evaluate-placement.js';
 import { selectCells } from './select-cells.js';
 
@@ -22,7 +24,19 @@ export interface CellDescription {
 /** The same placement inputs as evaluatePlacement, without the statistics' alpha. */
 export type DescribeCellsInput = Omit<EvaluatePlacementInput, 'alpha' | 'scratch'>;
 
-export function describeCells(input: DescribeCellsInput): CellDescription[] {
+/** One placement's cells in typed arrays: coverage grid, counts, kept flags and the sums behind E_c. */
+export interface CellGrid {
+  grid: CoverageGrid;
+  frame: GridFrame;
+  counts: Int32Array;
+  isKept: Uint8Array;
+  keptPoints: number;
+  keptCoverage: number;
+  /** number of cells with coverage > 0 (the ones described) */
+  cellCount: number;
+}
+
+export function describeCellGrid(input: DescribeCellsInput): CellGrid {
   const { counter, region, origin, cellSize, placement, minCoverage } = input;
   const grid = placementCoverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage);
@@ -36,26 +50,36 @@ export function describeCells(input: DescribeCellsInput): CellDescription[] {
     keptPoints += counts[kept.index[k]!]!;
     keptCoverage += kept.coverage[k]!;
   }
-  const frame = createGridFrame(origin, cellSize, placement);
-  const cells: CellDescription[] = [];
-  for (let r = 0; r < grid.ny; r++) {
-    for (let c = 0; c < grid.nx; c++) {
-      const k = r * grid.nx + c;
-      const coverage = grid.coverage[k]!;
-      if (!(coverage > 0)) continue;
-      const i = grid.i0 + c;
-      const j = grid.j0 + r;
-      const kept = isKept[k] === 1;
-      cells.push({
-        i,
-        j,
-        count: counts[k]!,
-        coverage,
-        expected: kept && keptCoverage > 0 ? (keptPoints * coverage) / keptCoverage : null,
-        kept,
-        corners: cellCorners(frame, i, j),
-      });
-    }
+  let cellCount = 0;
+  for (let k = 0; k < grid.coverage.length; k++) if (grid.coverage[k]! > 0) cellCount++;
+  return { grid, frame: createGridFrame(origin, cellSize, placement), counts, isKept, keptPoints, keptCoverage, cellCount };
+}
+
+/** Cell k (storage index) of a described grid, or null when its coverage is 0. */
+export function cellAt(cells: CellGrid, k: number): CellDescription | null {
+  const { grid } = cells;
+  const coverage = grid.coverage[k]!;
+  if (!(coverage > 0)) return null;
+  const i = grid.i0 + (k % grid.nx);
+  const j = grid.j0 + Math.floor(k / grid.nx);
+  const kept = cells.isKept[k] === 1;
+  return {
+    i,
+    j,
+    count: cells.counts[k]!,
+    coverage,
+    expected: kept && cells.keptCoverage > 0 ? (cells.keptPoints * coverage) / cells.keptCoverage : null,
+    kept,
+    corners: cellCorners(cells.frame, i, j),
+  };
+}
+
+export function describeCells(input: DescribeCellsInput): CellDescription[] {
+  const cells = describeCellGrid(input);
+  const out: CellDescription[] = [];
+  for (let k = 0; k < cells.grid.coverage.length; k++) {
+    const cell = cellAt(cells, k);
+    if (cell !== null) out.push(cell);
   }
-  return cells;
+  return out;
 }

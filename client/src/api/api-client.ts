@@ -82,12 +82,14 @@ export const api = {
   cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
   grid: (id: string, size: number, placement: number) =>
-    request<GridCollection>(`/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}`),
+    request<GridCollection>(`/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}&coordinates=planar`),
 };
 
 /** URLs for the downloads (same origin, so the browser saves them directly). */
 export const downloads = {
   placementsCsv: (id: string) => `/api/sweeps/${id}/placements.csv`,
   report: (id: string) => `/api/sweeps/${id}/report.html?download=1`,
+  /** longitude/latitude (RFC 7946) where the coordinate system is known, for a GIS */
   grid: (id: string, size: number, placement: number) => `/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}`,
+  gridGeoPackage: (id: string, size: number, placement: number) => `/api/sweeps/${id}/grid.gpkg?size=${size}&placement=${placement}`,
 };

@@ -10,28 +10,38 @@ import { NEUTRAL, OKABE_ITO, withAlpha } from './palette.js';
  */
 export function cellSizeChartSpec(series: CellSizeSeries, placements: number): ChartSpec {
   const label = measureLabel(series.measure);
+  // points at their cell side on a linear metre axis (144, 161 and 254 m are not equally spaced)
+  const at = <T>(values: readonly T[]) => values.map((y, k) => ({ x: series.cellSizes[k]!, y }));
   const hasEnvelope = series.envelopeLo.some((value) => value !== null);
   const line = (extra: Record<string, unknown>) => ({ type: 'line', pointRadius: 0, borderWidth: 1.5, fill: false, ...extra });
   const datasets: Record<string, unknown>[] = [
-    line({ label: '5-95 % of placements', data: series.p5, borderColor: withAlpha(OKABE_ITO.skyBlue, 0.6), backgroundColor: withAlpha(OKABE_ITO.skyBlue, 0.22), fill: '+1', order: 6 }),
-    line({ label: '95 % of placements', data: series.p95, borderColor: withAlpha(OKABE_ITO.skyBlue, 0.6), order: 6, legendHidden: true }),
-    { type: 'bar', label: 'quartiles (25-75 %)', data: series.p25.map((low, k) => [low, series.p75[k]]), backgroundColor: withAlpha(OKABE_ITO.blue, 0.35), borderColor: OKABE_ITO.blue, borderWidth: 1, barPercentage: 0.3, categoryPercentage: 1, order: 5 },
-    line({ label: 'median', data: series.median, borderColor: OKABE_ITO.blue, backgroundColor: OKABE_ITO.blue, borderWidth: 2.5, pointRadius: 4, order: 2 }),
-    line({ label: '1 = CSR expectation', data: series.labels.map(() => 1), borderColor: NEUTRAL.ink, borderDash: [6, 4], borderWidth: 1, order: 4 }),
-    line({ label: 'reference placement', data: series.reference, showLine: false, pointStyle: 'triangle', pointRadius: 8, pointHoverRadius: 10, borderColor: NEUTRAL.ink, backgroundColor: OKABE_ITO.yellow, borderWidth: 1.5, order: 1 }),
+    line({ label: '5-95 % of placements', data: at(series.p5), borderColor: withAlpha(OKABE_ITO.skyBlue, 0.6), backgroundColor: withAlpha(OKABE_ITO.skyBlue, 0.22), fill: '+1', order: 6 }),
+    line({ label: '95 % of placements', data: at(series.p95), borderColor: withAlpha(OKABE_ITO.skyBlue, 0.6), order: 6, legendHidden: true }),
+    { type: 'bar', label: 'quartiles (25-75 %)', data: at(series.p25.map((low, k) => [low, series.p75[k]!])), backgroundColor: withAlpha(OKABE_ITO.blue, 0.35), borderColor: OKABE_ITO.blue, borderWidth: 1, barThickness: 12, order: 5 },
+    line({ label: 'median', data: at(series.median), borderColor: OKABE_ITO.blue, backgroundColor: OKABE_ITO.blue, borderWidth: 2.5, pointRadius: 4, order: 2 }),
+    line({ label: '1 = CSR expectation', data: at(series.labels.map(() => 1)), borderColor: NEUTRAL.ink, borderDash: [6, 4], borderWidth: 1, order: 4 }),
+    line({ label: 'reference placement', data: at(series.reference), showLine: false, pointStyle: 'triangle', pointRadius: 8, pointHoverRadius: 10, borderColor: NEUTRAL.ink, backgroundColor: OKABE_ITO.yellow, borderWidth: 1.5, order: 1 }),
   ];
   if (hasEnvelope) {
     datasets.push(
-      line({ label: 'CSR envelope of medians (2.5-97.5 %)', data: series.envelopeLo, borderColor: OKABE_ITO.vermillion, borderDash: [3, 3], borderWidth: 2, order: 3 }),
-      line({ label: 'CSR envelope, upper', data: series.envelopeHi, borderColor: OKABE_ITO.vermillion, borderDash: [3, 3], borderWidth: 2, order: 3, legendHidden: true }),
+      line({ label: 'CSR envelope of medians (2.5-97.5 %)', data: at(series.envelopeLo), borderColor: OKABE_ITO.vermillion, borderDash: [3, 3], borderWidth: 2, order: 3 }),
+      line({ label: 'CSR envelope, upper', data: at(series.envelopeHi), borderColor: OKABE_ITO.vermillion, borderDash: [3, 3], borderWidth: 2, order: 3, legendHidden: true }),
     );
   }
   const subtitle = [`${placements} placements per size; the triangle is the reference grid (angle 0, offset 0,0)`];
   const options = baseOptions(`Spread of ${label} across grid placements, by cell size`, subtitle, {
-    x: axis('cell side (m)'),
+    x: axis('cell side (m)', { type: 'linear', ...cellSideBounds(series.cellSizes) }),
     y: axis(`${label} (ratio)`, { grace: '5%' }),
   });
-  return { type: 'bar', data: { labels: series.labels, datasets }, options };
+  return { type: 'bar', data: { datasets }, options };
+}
+
+/** Bounds of the linear cell-side axis: the sides with a margin of 8 % of their range (or of the side) each way. */
+export function cellSideBounds(cellSizes: readonly number[]): { min: number; max: number } {
+  const low = Math.min(...cellSizes);
+  const high = Math.max(...cellSizes);
+  const margin = Math.max((high - low) * 0.08, low * 0.08);
+  return { min: Math.max(0, low - margin), max: high + margin };
 }
 
 /** The text table of the cell-size chart. */

@@ -9,6 +9,7 @@ export function datasetSummaryEntries(dataset: DatasetSummary): [string, string]
   return [
     ['Name', dataset.name],
     ['Coordinate system', dataset.crs],
+    ...(dataset.projectionUsed ? ([['Projection used', dataset.projectionUsed]] as [string, string][]) : []),
     ['Points in the data', String(dataset.n)],
     ['Inside the valid region', String(dataset.nInside)],
     ['Outside the valid region (never counted)', String(dataset.nOutside)],

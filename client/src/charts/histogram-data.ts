@@ -38,28 +38,86 @@ export function histogram(values: readonly number[], edges: readonly number[]): 
   return { edges: [...edges], counts };
 }
 
-/** The Monte Carlo histograms: simulated medians and maxima of chi2/df over common edges covering the observed. */
+/** Where an observed value is drawn: at its value, or (off the scale) at the axis end it lies beyond. */
+export interface ObservedMark {
+  value: number;
+  shownAt: number;
+  /** 'above' / 'below' when the value lies far outside the simulated values and is drawn at the axis end */
+  offScale: 'above' | 'below' | null;
+}
+
+/** The Monte Carlo histograms: simulated medians and maxima of chi2/df on common edges that resolve both. */
 export interface MonteCarloHistograms {
   edges: number[];
   medians: number[];
   maxima: number[];
   observedMedian: number;
   observedMax: number;
+  median: ObservedMark;
+  max: ObservedMark;
+  /** the x axis: the edges, plus room for an off-scale marker */
+  axisMin: number;
+  axisMax: number;
 }
 
+/**
+ * An observed value further beyond the simulated values than this share of their range is drawn off the scale
+ * (at the axis end, with its number) instead of stretching the axis until every simulated value shares one bin.
+ */
+export const FAR_OUTSIDE_SHARE = 0.5;
+/** Bins across the narrower of the two simulated distributions, at least (so that its shape shows). */
+export const BINS_PER_SPREAD = 5;
+/** Most bins of the histogram. */
+export const MAX_BINS = 120;
+/** Room at the axis end for an off-scale marker, as a share of the binned range. */
+const OFF_SCALE_ROOM = 0.12;
+
+function spread(values: readonly number[]): number {
+  return values.length === 0 ? 0 : Math.max(...values) - Math.min(...values);
+}
+
+/**
+ * Common edges over the simulated medians and maxima (and the observed values that lie near them): equal bins,
+ * at least max(Sturges, 5), and enough that the narrower simulated distribution spans BINS_PER_SPREAD bins (at most
+ * MAX_BINS). Observed values far outside are marked at the axis end with their number.
+ */
 export function monteCarloHistograms(result: MonteCarloResult): MonteCarloHistograms {
-  const all = [...result.simulatedMedians, ...result.simulatedMaxima, result.observedMedian, result.observedMax].filter(
-    (value) => Number.isFinite(value),
-  );
-  const lo = Math.min(...all);
-  const hi = Math.max(...all);
-  const edges = equalEdges(lo, hi, Math.max(sturgesBins(result.simulatedMedians.length), 5));
+  const medians = result.simulatedMedians.filter(Number.isFinite);
+  const maxima = result.simulatedMaxima.filter(Number.isFinite);
+  const simulated = [...medians, ...maxima];
+  const observed = [result.observedMedian, result.observedMax].filter(Number.isFinite);
+  const pool = simulated.length > 0 ? simulated : observed;
+  const simLo = Math.min(...pool);
+  const simHi = Math.max(...pool);
+  const range = simHi > simLo ? simHi - simLo : Math.max(Math.abs(simLo) * 0.1, 0.5);
+  const near = (value: number) => value >= simLo - FAR_OUTSIDE_SHARE * range && value <= simHi + FAR_OUTSIDE_SHARE * range;
+  const shown = observed.filter(near);
+  const lo = Math.min(simLo, ...shown);
+  const hi = Math.max(simHi, ...shown);
+  const narrowest = Math.min(...[spread(medians), spread(maxima)].filter((width) => width > 0));
+  const resolving = Number.isFinite(narrowest) ? Math.ceil((BINS_PER_SPREAD * (hi - lo)) / narrowest) : 0;
+  const bins = Math.min(MAX_BINS, Math.max(sturgesBins(medians.length), 5, resolving));
+  const edges = equalEdges(lo, hi, bins);
+  const first = edges[0]!;
+  const last = edges[edges.length - 1]!;
+  const room = (last - first) * OFF_SCALE_ROOM;
+  const mark = (value: number): ObservedMark => {
+    if (!Number.isFinite(value) || near(value)) return { value, shownAt: value, offScale: null };
+    return value > last ? { value, shownAt: last + room, offScale: 'above' } : { value, shownAt: first - room, offScale: 'below' };
+  };
+  const median = mark(result.observedMedian);
+  const max = mark(result.observedMax);
+  const offScale = [median, max].filter((m) => m.offScale !== null);
   return {
     edges,
-    medians: histogram(result.simulatedMedians, edges).counts,
-    maxima: histogram(result.simulatedMaxima, edges).counts,
+    medians: histogram(medians, edges).counts,
+    maxima: histogram(maxima, edges).counts,
     observedMedian: result.observedMedian,
     observedMax: result.observedMax,
+    median,
+    max,
+    axisMin: offScale.some((m) => m.offScale === 'below') ? first - 2 * room : first,
+    axisMax: offScale.some((m) => m.offScale === 'above') ? last + 2 * room : last,
   };
 }
 

@@ -17,6 +17,7 @@ export function offsetHeatmapChartSpec(heatmap: OffsetHeatmap, cellSizeLabel: st
       data: row.map(() => 1 / bins),
       meanVmr: row.map((cell) => cell.meanVmr),
       placementOf: row.map((cell) => cell.nearestPlacement),
+      colourRange: { low: heatmap.colourLow, high: heatmap.colourHigh, widened: heatmap.widened },
       backgroundColor: row.map((cell) => cell.colour),
       borderColor: '#ffffff',
       borderWidth: 1,
@@ -24,8 +25,7 @@ export function offsetHeatmapChartSpec(heatmap: OffsetHeatmap, cellSizeLabel: st
       categoryPercentage: 1,
     };
   });
-  const range = heatmap.min === null ? 'no placements' : `mean VMR from ${formatNumber(heatmap.min)} (dark) to ${formatNumber(heatmap.max)} (light)`;
-  const options = baseOptions('VMR over grid offsets (u, v)', [`Cell side ${cellSizeLabel}; all angles pooled; ${range}`], {
+  const options = baseOptions('VMR over grid offsets (u, v)', [`Cell side ${cellSizeLabel}; all angles pooled`, heatmap.rangeNote], {
     x: axis('offset u (cell units)', { stacked: true }),
     y: axis('offset v (cell units)', { stacked: true, min: 0, max: 1 }),
   });

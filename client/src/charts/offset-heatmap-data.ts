@@ -23,6 +23,46 @@ export interface OffsetHeatmap {
   cells: OffsetBin[];
   min: number | null;
   max: number | null;
+  /** the VMR values at the two ends of the colour ramp */
+  colourLow: number | null;
+  colourHigh: number | null;
+  /** true when the bin means lie so close together that the ramp was widened around them (not stretched) */
+  widened: boolean;
+  /** one sentence stating the colour range, and why it was widened when it was */
+  rangeNote: string;
+}
+
+/**
+ * Narrowest colour range, as a share of the middle of the bin means: a spread below 20 % of the level (e.g. VMR
+ * 13.0 to 13.6) is drawn on a ramp of +-10 % around the middle, so that near-equal values look near-equal instead of
+ * being stretched to full contrast. The 20 % is our choice for legibility, not a published rule.
+ */
+export const MIN_RELATIVE_COLOUR_SPAN = 0.2;
+
+function threeDigits(value: number): string {
+  return String(Number(value.toPrecision(3)));
+}
+
+/** The colour ramp's ends for bin means from min to max, and whether it had to be widened. */
+export function colourRange(min: number | null, max: number | null): Pick<OffsetHeatmap, 'colourLow' | 'colourHigh' | 'widened' | 'rangeNote'> {
+  if (min === null || max === null) return { colourLow: null, colourHigh: null, widened: false, rangeNote: 'no placements' };
+  const middle = (min + max) / 2;
+  const narrowest = MIN_RELATIVE_COLOUR_SPAN * Math.abs(middle);
+  if (max - min >= narrowest || narrowest === 0) {
+    return { colourLow: min, colourHigh: max, widened: false, rangeNote: `colours span mean VMR ${threeDigits(min)} (dark) to ${threeDigits(max)} (light), the range of the bins` };
+  }
+  const low = Math.max(0, middle - narrowest / 2);
+  const high = low + narrowest;
+  const percent = middle !== 0 ? ((max - min) / Math.abs(middle)) * 100 : 0;
+  return {
+    colourLow: low,
+    colourHigh: high,
+    widened: true,
+    rangeNote:
+      `colours span mean VMR ${threeDigits(low)} (dark) to ${threeDigits(high)} (light): the bins range only from ` +
+      `${threeDigits(min)} to ${threeDigits(max)} (${percent.toPrecision(2)} % of the level), so the offset barely matters; ` +
+      'the colours are not stretched to full contrast',
+  };
 }
 
 /** Default number of bins per axis: about two placements per bin, between 2 and 10 (a readable grid). */
@@ -33,7 +73,8 @@ export function defaultOffsetBins(placements: number): number {
 /**
  * Heat map of VMR over the grid offsets (u, v) of one cell size: the unit square of offsets cut into bins x bins
  * equal squares, each holding the mean VMR of the placements whose offset falls in it (all angles pooled).
- * Colour: position of the mean between the smallest and largest bin mean on the sequential ramp.
+ * Colour: position of the mean on the sequential ramp between the ends given by colourRange (the smallest and
+ * largest bin mean, widened when they lie within MIN_RELATIVE_COLOUR_SPAN of each other).
  * Cost O(placements + bins^2).
  */
 export function offsetHeatmap(rows: readonly PlacementRow[], sizeIndex: number, bins: number): OffsetHeatmap {
@@ -57,9 +98,11 @@ export function offsetHeatmap(rows: readonly PlacementRow[], sizeIndex: number, 
   const filled = means.filter((mean): mean is number => mean !== null);
   const min = filled.length > 0 ? Math.min(...filled) : null;
   const max = filled.length > 0 ? Math.max(...filled) : null;
+  const range = colourRange(min, max);
   const position = (mean: number | null) => {
-    if (mean === null || min === null || max === null) return Number.NaN;
-    return max > min ? (mean - min) / (max - min) : 0.5;
+    if (mean === null || range.colourLow === null || range.colourHigh === null) return Number.NaN;
+    const { colourLow: low, colourHigh: high } = range;
+    return high > low ? (mean - low) / (high - low) : 0.5;
   };
   const cells: OffsetBin[] = means.map((meanVmr, key) => {
     const uBin = key % bins;
@@ -77,5 +120,5 @@ export function offsetHeatmap(rows: readonly PlacementRow[], sizeIndex: number, 
       colour: sequentialColour(position(meanVmr)),
     };
   });
-  return { bins, cells, min, max };
+  return { bins, cells, min, max, ...range };
 }

@@ -1,12 +1,12 @@
-/** The colour key of the offset heat map: the sequential ramp from the lowest to the highest bin mean. */
+/** The colour key of the offset heat map: the sequential ramp between the VMR values at its ends (see colourRange). */
 import type { ChartBundle } from '../charts/chart-spec.js';
 import { sequentialGradientCss } from '../charts/palette.js';
 import { el } from '../ui/dom.js';
 
 export function heatmapLegend(bundle: ChartBundle): HTMLElement {
-  const means = bundle.spec.data.datasets.flatMap((dataset) => (dataset.meanVmr as (number | null)[]) ?? []).filter((value): value is number => value !== null);
-  const low = means.length > 0 ? Math.min(...means) : null;
-  const high = means.length > 0 ? Math.max(...means) : null;
+  const range = bundle.spec.data.datasets[0]?.colourRange as { low: number | null; high: number | null; widened: boolean } | undefined;
+  const low = range?.low ?? null;
+  const high = range?.high ?? null;
   const bar = el('span', { class: 'ramp', 'aria-hidden': 'true' });
   bar.style.background = sequentialGradientCss();
   return el(
@@ -15,6 +15,6 @@ export function heatmapLegend(bundle: ChartBundle): HTMLElement {
     el('span', {}, `mean VMR ${low === null ? '-' : low.toPrecision(3)}`),
     bar,
     el('span', {}, `${high === null ? '-' : high.toPrecision(3)}`),
-    el('span', { class: 'field-hint' }, ' light grey: no placement in that bin'),
+    el('span', { class: 'field-hint' }, `${range?.widened ? ' (range widened: the bins differ little)' : ''}; light grey: no placement in that bin`),
   );
 }

@@ -1,6 +1,6 @@
 /**
- * Step 5: the downloads. Every chart as PNG, the per-placement CSV, the grid shown on the map as GeoJSON and the
- * single-file HTML report (the same template `gridshake sweep --out` writes).
+ * Step 5: the downloads. Every chart as PNG, the per-placement CSV, the grid shown on the map as GeoJSON or
+ * GeoPackage, and the single-file HTML report (the same template `gridshake sweep --out` writes).
  */
 import { downloads } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
@@ -26,8 +26,11 @@ export function initReportPanel(container: HTMLElement, store: Store): void {
     );
     const size = placement ? summary.sizes.find((candidate) => candidate.sizeIndex === placement.sizeIndex) : undefined;
     const gridLink = placement && size
-      ? el('a', { class: 'button', id: 'download-grid', href: downloads.grid(sweepId, placement.sizeIndex, placement.placementIndex), download: `grid-${Math.round(size.cellSize)}m-placement-${placement.placementIndex}.geojson` }, `Grid on the map (${formatMetres(size.cellSize)}, placement ${placement.placementIndex}) as GeoJSON`)
-      : el('p', { class: 'hint' }, 'Show a placement on the map to download its grid as GeoJSON.');
+      ? el('div', { class: 'download-row' },
+          el('a', { class: 'button', id: 'download-grid', href: downloads.grid(sweepId, placement.sizeIndex, placement.placementIndex), download: `grid-${Math.round(size.cellSize)}m-placement-${placement.placementIndex}.geojson` }, `Grid on the map (${formatMetres(size.cellSize)}, placement ${placement.placementIndex}) as GeoJSON`),
+          el('a', { class: 'button', id: 'download-grid-gpkg', href: downloads.gridGeoPackage(sweepId, placement.sizeIndex, placement.placementIndex), download: `grid-${Math.round(size.cellSize)}m-placement-${placement.placementIndex}.gpkg` }, 'as GeoPackage'),
+        )
+      : el('p', { class: 'hint' }, 'Show a placement on the map to download its grid as GeoJSON (longitude/latitude where the coordinate system is known) or GeoPackage.');
     clear(
       container,
       el('p', {}, 'Attach the HTML report to your own: it holds the dataset summary, plan, charts, tables, methods, versions, seed and cautions, works offline and prints cleanly to PDF.'),
