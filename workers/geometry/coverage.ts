@@ -16,7 +16,9 @@ import { createGridFrame } from './grid-frame.js';
 /** Largest grid a placement may have; beyond it the cell size is far too small for the region. */
 export const MAX_GRID_CELLS = 1 << 27;
 
-const NOISE = 1e-12;
+/** Coverage this close to 0 or 1 is float noise and is clamped to 0 or 1. */
+export const COVERAGE_NOISE = 1e-12;
+const NOISE = COVERAGE_NOISE;
 
 /** Ring vertices in cell units (X = x'/s - u, Y = y'/s - v), one Float64Array per ring. */
 export function ringsInCellUnits(region: Region, origin: Origin, cellSize: number, placement: Placement): Float64Array[] {
@@ -35,7 +37,7 @@ export function ringsInCellUnits(region: Region, origin: Origin, cellSize: numbe
 }
 
 /** Bounding box [minX, minY, maxX, maxY] of rings in cell units. */
-function ringsExtent(rings: Float64Array[]): [number, number, number, number] {
+export function ringsExtent(rings: Float64Array[]): [number, number, number, number] {
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
@@ -75,9 +77,12 @@ function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
   }
 }
 
-/** Exact coverage of all cells that the transformed region's bounding box touches. */
-export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
-  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+/**
+ * Exact coverage of the unit cells [c, c+1) x [r, r+1) by rings already in cell units (any affine image of the plane
+ * with positive determinant: coverage is a ratio of areas, which such maps keep). The grid covers the rings' bounding
+ * box. `what` names the cell size in the error for a grid that is too large.
+ */
+export function unitCellCoverage(rings: Float64Array[], what: string): CoverageGrid {
   const [minX, minY, maxX, maxY] = ringsExtent(rings);
   if (!(maxX >= minX && maxY >= minY)) throw new RangeError('region has no vertices: cannot compute cell coverage');
   const i0 = Math.floor(minX);
@@ -86,11 +91,16 @@ export function placementCoverage(region: Region, origin: Origin, cellSize: numb
   const ny = Math.max(1, Math.ceil(maxY) - j0);
   if (nx * ny > MAX_GRID_CELLS) {
     throw new RangeError(
-      `cell size ${cellSize} m gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
+      `${what} gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
     );
   }
   const coverage = new Float64Array(nx * ny);
   for (const ring of rings) accumulateRing(coverage, ring, i0, j0, nx, ny);
   prefixSumRows(coverage, nx, ny);
   return { i0, j0, nx, ny, coverage };
+}
+
+/** Exact coverage of all cells that the transformed region's bounding box touches. */
+export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
+  return unitCellCoverage(ringsInCellUnits(region, origin, cellSize, placement), `cell size ${cellSize} m`);
 }

@@ -1,11 +1,10 @@
 /**
  * Every cell of one placement with coverage > 0, for drawing and the grid.geojson export: grid indices, count,
  * coverage, expected count E_c = N a_c / sum(a) over kept cells (null for left-out cells), whether it is kept, and
- * its corners as a closed ring in planar metres. N is the number of points in kept cells (design.md).
+ * its corners as a closed counter-clockwise ring in planar metres (5 points for squares, 7 for hexagons). N is the number of points in kept cells (design.md).
  * Cost O(cells + n).
  */
-import { cellCorners, createGridFrame } from '../geometry/grid-frame.js';
-import { placementCoverage } from '../geometry/coverage.js';
+import { latticeOf } from '../lattice/registry.js';
 import type { EvaluatePlacementInput } from './evaluate-placement.js';
 import { selectCells } from './select-cells.js';
 
@@ -23,8 +22,9 @@ export interface CellDescription {
 export type DescribeCellsInput = Omit<EvaluatePlacementInput, 'alpha' | 'scratch'>;
 
 export function describeCells(input: DescribeCellsInput): CellDescription[] {
-  const { counter, region, origin, cellSize, placement, minCoverage } = input;
-  const grid = placementCoverage(region, origin, cellSize, placement);
+  const { counter, region, origin, cellSize, placement, minCoverage, shape } = input;
+  const lattice = latticeOf(shape);
+  const grid = lattice.coverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage);
   const counts = new Int32Array(grid.nx * grid.ny);
   counter.count(grid, cellSize, placement, counts);
@@ -36,7 +36,7 @@ export function describeCells(input: DescribeCellsInput): CellDescription[] {
     keptPoints += counts[kept.index[k]!]!;
     keptCoverage += kept.coverage[k]!;
   }
-  const frame = createGridFrame(origin, cellSize, placement);
+  const frame = lattice.frame(origin, cellSize, placement);
   const cells: CellDescription[] = [];
   for (let r = 0; r < grid.ny; r++) {
     for (let c = 0; c < grid.nx; c++) {
@@ -53,7 +53,7 @@ export function describeCells(input: DescribeCellsInput): CellDescription[] {
         coverage,
         expected: kept && keptCoverage > 0 ? (keptPoints * coverage) / keptCoverage : null,
         kept,
-        corners: cellCorners(frame, i, j),
+        corners: frame.cellPolygon(i, j),
       });
     }
   }
