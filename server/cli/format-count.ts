@@ -41,7 +41,7 @@ export function formatCount(result: CountResult): string {
   const lines: string[] = [];
   lines.push(`gridshake count: ${result.dataset.name} (${result.pointsTotal} points, coordinates ${result.dataset.crs})`);
   lines.push(
-    `Grid: ${result.cellSize} m cells, angle ${placement.angle} deg, offset (${placement.u}, ${placement.v}), ` +
+    `Grid: ${result.shape === 'hex' ? `hexagonal cells of ${result.cellSize} m x ${result.cellSize} m area` : `${result.cellSize} m cells`}, angle ${placement.angle} deg, offset (${placement.u}, ${placement.v}), ` +
       `cells kept with coverage >= ${result.minCoverage}`,
   );
   lines.push('');
