@@ -1,8 +1,9 @@
 /**
- * `npm run bench`: the five measurements of the sweep engine, each printed as a table with ratios against a
+ * `npm run bench`: the six measurements of the sweep engine, each printed as a table with ratios against a
  * baseline measured in the same run, and the targets beside the figures. Speed is judged here, never in unit tests.
  */
 import { availableParallelism, cpus, loadavg, totalmem } from 'node:os';
+import { runHexBench } from './hex-bench.js';
 import { runKernelBench } from './kernel-bench.js';
 import { runMemoryBench } from './memory-bench.js';
 import { runNaiveBench } from './naive-bench.js';
@@ -21,3 +22,4 @@ if (only === undefined || only === 'sweep') twoThreadNs = (await runSweepBench()
 if (only === undefined || only === 'sweep' || only === 'phases') runPhaseBench();
 if (only === undefined || only === 'naive') await runNaiveBench(twoThreadNs);
 if (only === undefined || only === 'memory') runMemoryBench();
+if (only === undefined || only === 'hex') runHexBench();

@@ -20,11 +20,11 @@ import { createHexFrame } from './hex-frame.js';
 
 const ROOT3 = Math.sqrt(3);
 
-/** The spoke pairs (g1, g2) in units of a, grid frame; and each pair's rhombus index of hexagon (i, j). */
-const RHOMBUS_LATTICES: readonly { g1: [number, number]; g2: [number, number]; cell: (i: number, j: number) => [number, number] }[] = [
-  { g1: [ROOT3 / 2, 0.5], g2: [-ROOT3 / 2, 0.5], cell: (i, j) => [i + 2 * j, j - i] },
-  { g1: [-ROOT3 / 2, 0.5], g2: [0, -1], cell: (i, j) => [-2 * i - j, -i - 2 * j] },
-  { g1: [0, -1], g2: [ROOT3 / 2, 0.5], cell: (i, j) => [i - j, 2 * i + j] },
+/** The spoke pairs (g1, g2) in units of a, grid frame: (e0, e2), (e2, e4), (e4, e0); rhombus indices in hexCoverage. */
+const RHOMBUS_BASES: readonly { g1: [number, number]; g2: [number, number] }[] = [
+  { g1: [ROOT3 / 2, 0.5], g2: [-ROOT3 / 2, 0.5] },
+  { g1: [-ROOT3 / 2, 0.5], g2: [0, -1] },
+  { g1: [0, -1], g2: [ROOT3 / 2, 0.5] },
 ];
 
 /**
@@ -84,12 +84,6 @@ function hexRange(rings: Float64Array[]): [number, number, number, number] {
   return [Math.floor(minQ - 2 / 3), Math.ceil(maxQ + 2 / 3), Math.floor(minR - 2 / 3), Math.ceil(maxR + 2 / 3)];
 }
 
-function at(grid: CoverageGrid, cell: [number, number]): number {
-  const c = cell[0] - grid.i0;
-  const r = cell[1] - grid.j0;
-  return c >= 0 && c < grid.nx && r >= 0 && r < grid.ny ? grid.coverage[r * grid.nx + c]! : 0;
-}
-
 /** Exact coverage of all hexagons that may meet the region; the grid is tagged `shape: 'hex'`. */
 export function hexCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
   const rings = ringsAroundFirstCentre(region, origin, cellSize, placement);
@@ -101,19 +95,33 @@ export function hexCoverage(region: Region, origin: Origin, cellSize: number, pl
       `hexagonal cell size ${cellSize} m gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
     );
   }
-  const rhombi = RHOMBUS_LATTICES.map((lattice) =>
+  const rhombi = RHOMBUS_BASES.map((lattice) =>
     unitCellCoverage(toBasis(rings, lattice.g1, lattice.g2), `hexagonal cell size ${cellSize} m`),
   );
-  const [first, second, third] = rhombi as [CoverageGrid, CoverageGrid, CoverageGrid];
-  const [toFirst, toSecond, toThird] = RHOMBUS_LATTICES.map((lattice) => lattice.cell);
   const coverage = new Float64Array(nx * ny);
-  for (let r = 0; r < ny; r++) {
-    const j = j0 + r;
-    for (let c = 0; c < nx; c++) {
-      const i = i0 + c;
-      const value = (at(first, toFirst!(i, j)) + at(second, toSecond!(i, j)) + at(third, toThird!(i, j))) / 3;
-      coverage[r * nx + c] = value < COVERAGE_NOISE ? 0 : value > 1 - COVERAGE_NOISE ? 1 : value;
+  // rhombus (alpha, beta) of hexagon (i, j): (i + 2j, j - i), (-2i - j, -i - 2j), (i - j, 2i + j) (header comment);
+  // along a row of hexagons (i + 1) they step by (1, -1), (-2, -1) and (1, 2)
+  const steps: readonly [number, number][] = [[1, -1], [-2, -1], [1, 2]];
+  const starts = (i: number, j: number): [number, number][] => [[i + 2 * j, j - i], [-2 * i - j, -i - 2 * j], [i - j, 2 * i + j]];
+  for (let k = 0; k < 3; k++) {
+    const grid = rhombi[k]!;
+    const { i0: gi0, j0: gj0, nx: gnx, ny: gny, coverage: values } = grid;
+    const [stepAlpha, stepBeta] = steps[k]!;
+    for (let r = 0; r < ny; r++) {
+      let [alpha, beta] = starts(i0, j0 + r)[k]!;
+      alpha -= gi0;
+      beta -= gj0;
+      const offset = r * nx;
+      for (let c = 0; c < nx; c++) {
+        if (alpha >= 0 && alpha < gnx && beta >= 0 && beta < gny) coverage[offset + c] += values[beta * gnx + alpha]!;
+        alpha += stepAlpha;
+        beta += stepBeta;
+      }
     }
+  }
+  for (let k = 0; k < coverage.length; k++) {
+    const value = coverage[k]! / 3;
+    coverage[k] = value < COVERAGE_NOISE ? 0 : value > 1 - COVERAGE_NOISE ? 1 : value;
   }
   return { shape: 'hex', i0, j0, nx, ny, coverage };
 }
