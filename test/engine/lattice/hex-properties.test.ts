@@ -187,6 +187,29 @@ describe('hexagonal lattice: properties of the contract', () => {
     );
   });
 
+  it('the fast path agrees with the rule far from the origin (large axial coordinates) and at the grid border', () => {
+    fc.assert(
+      fc.property(offset, offset, angleArbitrary, fc.constantFrom(3, 7.5, 20), fc.integer({ min: 1, max: 2 ** 30 }), (u, v, angle, cellSize, seed) => {
+        const placement = { u, v, angle };
+        const origin = { x: 0, y: 0 };
+        const region = regionFromRings([[[4e6, 3e6], [4e6 + 900, 3e6], [4e6 + 900, 3e6 + 700], [4e6, 3e6 + 700]]]);
+        const xy = uniformPoints(3000, seed, 700).map((value, k) => value + (k % 2 === 0 ? 4e6 + 450 : 3e6 + 350));
+        const grid = hex.coverage(region, origin, cellSize, placement);
+        const counts = new Int32Array(grid.nx * grid.ny);
+        createCellCounter(xy, origin).count(grid, cellSize, placement, counts);
+        const expected = new Int32Array(grid.nx * grid.ny);
+        for (let p = 0; p < xy.length / 2; p++) {
+          const [i, j] = contractCell(origin, cellSize, placement, xy[2 * p]!, xy[2 * p + 1]!);
+          const c = i - grid.i0;
+          const r = j - grid.j0;
+          if (c >= 0 && c < grid.nx && r >= 0 && r < grid.ny) expected[r * grid.nx + c]!++;
+        }
+        expect(Array.from(counts)).toEqual(Array.from(expected));
+      }),
+      { numRuns: 25, seed: 165 },
+    );
+  });
+
   it('exact ties go where the rule sends them (angle 0: q = k/2 exactly on the x axis)', () => {
     const origin = { x: 0, y: 0 };
     const cellSize = 100;

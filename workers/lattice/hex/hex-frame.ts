@@ -58,10 +58,11 @@ export function createHexFrame(origin: Origin, cellSize: number, placement: Plac
 }
 
 /**
- * The rounding rule on fractional axial coordinates (q, r), m = -q - r computed here: the cell (i, j).
- * Math.round rounds halves up; "moved" is |rounded - value|.
+ * The rounding rule on fractional axial coordinates (q, r), m = -q - r computed here: writes the cell (i, j) to
+ * cell[0], cell[1] (no allocation: the counting kernel's exact pass). Math.round rounds halves up; "moved" is
+ * |rounded - value|.
  */
-export function roundHex(q: number, r: number): [number, number] {
+export function roundHexInto(q: number, r: number, cell: Float64Array): void {
   const m = -q - r;
   let qi = Math.round(q);
   let ri = Math.round(r);
@@ -71,7 +72,15 @@ export function roundHex(q: number, r: number): [number, number] {
   const dm = Math.abs(mi - m);
   if (dq > dm && dq > dr) qi = -mi - ri;
   else if (!(dm > dr)) ri = -qi - mi;
-  return [qi + 0, ri + 0]; // + 0 turns -0 into 0
+  cell[0] = qi + 0; // + 0 turns -0 into 0
+  cell[1] = ri + 0;
+}
+
+/** The rounding rule (roundHexInto) as a pair [i, j]. */
+export function roundHex(q: number, r: number): [number, number] {
+  const cell = new Float64Array(2);
+  roundHexInto(q, r, cell);
+  return [cell[0]!, cell[1]!];
 }
 
 /** Fractional axial coordinates (q, r) of a planar point, in the contract's exact order of operations. */
