@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { createCellCounter } from '../../../workers/placement/cell-counter.js';
 import { latticeOf } from '../../../workers/lattice/registry.js';
-import type { CoverageGrid, Origin, Placement, Region } from '../../../workers/types.js';
+import type { CoverageGrid, Origin, Region } from '../../../workers/types.js';
 import { regionFromRings, starRing } from '../geometry/region-fixtures.js';
 import { oracleAreaInside, oracleHex, oracleNearest } from './hex-oracle.js';
 
