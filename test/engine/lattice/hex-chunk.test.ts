@@ -1,6 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { createCellCounter } from '../../../workers/placement/cell-counter.js';
+import { describeCells } from '../../../workers/placement/describe-cells.js';
 import { evaluatePlacement, keptCounts } from '../../../workers/placement/evaluate-placement.js';
+import { oracleHex } from './hex-oracle.js';
 import { haltonPlacements } from '../../../workers/random/halton.js';
 import { latticePlacements } from '../../../workers/random/lattice.js';
 import { dispersionChiSquare } from '../../../workers/stats/index.js';
@@ -43,6 +45,22 @@ describe('hexagons through the sweep kernel (evaluateChunk) and the placement de
         expect(result[simulatedValueOffset(placements.length, simulated.length, j, r)]).toBe(chi2 / df);
       });
     });
+    // cells described for drawing and export: 7-point counter-clockwise rings at the contract's corners, same counts
+    const cells = describeCells({ ...context, counter: observed, placement: placements[3]! });
+    const direct = evaluatePlacement({ ...context, counter: observed, placement: placements[3]! });
+    expect(cells.filter((c) => c.kept).reduce((sum, c) => sum + c.count, 0)).toBe(direct.stats.points);
+    for (const c of cells) {
+      expect(c.corners).toHaveLength(7);
+      expect(c.corners[6]).toEqual(c.corners[0]);
+      const expected = oracleHex(origin, 70, placements[3]!, c.i, c.j).polygon;
+      c.corners.slice(0, 6).forEach(([x, y], k) => {
+        expect(x).toBeCloseTo(expected[k]![0], 9);
+        expect(y).toBeCloseTo(expected[k]![1], 9);
+      });
+      let twiceArea = 0;
+      for (let k = 0; k < 6; k++) twiceArea += c.corners[k]![0] * c.corners[k + 1]![1] - c.corners[k + 1]![0] * c.corners[k]![1];
+      expect(twiceArea / 2 / (70 * 70)).toBeCloseTo(1, 9);
+    }
     // hexagons and squares differ on the same placements
     const squares = evaluateChunk({ ...context, shape: 'square' }, triples);
     expect(decodeStatistics(squares, 0).cells).not.toBe(decodeStatistics(result, 0).cells);
