@@ -38,7 +38,7 @@ function runChunk(task: ChunkTask): Float64Array {
     );
   }
   return evaluateChunk(
-    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, minCoverage: task.minCoverage, alpha: task.alpha },
+    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha },
     task.placements,
   );
 }

@@ -3,6 +3,7 @@
  * Everything here is plain data: typed arrays and plain objects, no I/O.
  * Units: planar metres for coordinates and cell sizes, degrees for angles, cell units for offsets.
  */
+import type { CellShape } from './lattice/cell-shape.js';
 
 /** A flat ring x0,y0,x1,y1,... in planar metres; the first vertex is NOT repeated at the end. */
 export type Ring = Float64Array;
@@ -25,7 +26,10 @@ export interface Region {
   bbox: BBox;
 }
 
-/** Grid offset (u, v) in cell units, each in [0, 1), and counter-clockwise rotation in degrees, [0, 90). */
+/**
+ * Grid offset (u, v) in lattice units, each in [0, 1), and counter-clockwise rotation in degrees, [0, period): 90 for
+ * squares, 60 for hexagons (workers/lattice).
+ */
 export interface Placement {
   u: number;
   v: number;
@@ -43,9 +47,11 @@ export interface Origin {
 
 /**
  * Coverage of every cell of one placement that the region's bounding box touches.
- * Cell (i, j) (grid contract indices) is stored at `(j - j0) * nx + (i - i0)`; coverage is in [0, 1].
+ * Cell (i, j) (the lattice's indices) is stored at `(j - j0) * nx + (i - i0)`; coverage is in [0, 1].
  */
 export interface CoverageGrid {
+  /** the lattice whose cells these are (workers/lattice); absent means square */
+  shape?: CellShape;
   i0: number;
   j0: number;
   nx: number;

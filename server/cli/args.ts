@@ -4,6 +4,7 @@
  */
 import { parseArgs } from 'node:util';
 import { parameterError } from '../errors.js';
+import { CELL_SHAPES, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
 
 export interface OptionSpec {
   type: 'string' | 'boolean';
@@ -121,9 +122,16 @@ export function parseOffset(raw: string, name = 'offset'): { u: number; v: numbe
   return { u, v };
 }
 
-/** Grid rotation in degrees, [0, 90) for square cells. */
-export function parseAngle(raw: string, name = 'angle'): number {
-  return parseChecked(raw, name, 'an angle in degrees in [0, 90)', (v) => v >= 0 && v < 90);
+/** Grid rotation in degrees, [0, period): the lattice's angle period, 90 for square cells, 60 for hexagons. */
+export function parseAngle(raw: string, name = 'angle', period = 90): number {
+  return parseChecked(raw, name, `an angle in degrees in [0, ${period})`, (v) => v >= 0 && v < period);
+}
+
+/** One cell shape (workers/lattice CELL_SHAPES), e.g. --shape hex. */
+export function parseShape(raw: string, name = 'shape'): CellShape {
+  const value = raw.trim();
+  if (!isCellShape(value)) throw parameterError(`--${name} must be one of ${CELL_SHAPES.join(', ')}, got '${raw}'`);
+  return value;
 }
 
 /** Significance level of the two-sided test, (0, 0.5]. */

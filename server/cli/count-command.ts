@@ -9,11 +9,14 @@ import { assertCellCountWithinLimit } from '../sweeps/plan.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import { logPValues } from '../summary/log-p-values.js';
+import { DEFAULT_CELL_SHAPE } from '../../workers/lattice/cell-shape.js';
+import { latticeOf } from '../../workers/lattice/registry.js';
 import {
   parseAlpha,
   parseAngle,
   parseMinCoverage,
   parseOffset,
+  parseShape,
   parsePositiveMetres,
   requireString,
   type OptionSpecs,
@@ -29,8 +32,13 @@ export const COUNT_DEFAULTS = Object.freeze({ minCoverage: DEFAULT_PLAN.minCover
 
 const OPTIONS: OptionSpecs = {
   ...DATASET_OPTIONS,
-  cell: { type: 'string', value: 'M', description: 'cell side in metres' },
-  angle: { type: 'string', value: 'DEG', description: 'grid rotation, degrees counter-clockwise in [0, 90); default 0' },
+  cell: { type: 'string', value: 'M', description: 'cell side in metres (hexagons: the side of the square of the same area)' },
+  shape: { type: 'string', value: 'SHAPE', description: 'cell shape: square or hex (pointy-top hexagons of area M^2); default square' },
+  angle: {
+    type: 'string',
+    value: 'DEG',
+    description: 'grid rotation, degrees counter-clockwise in [0, 90) for squares, [0, 60) for hexagons; default 0',
+  },
   offset: { type: 'string', value: 'U,V', description: 'grid offset in cell units, each in [0, 1); default 0,0' },
   'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
   alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
@@ -39,10 +47,12 @@ const OPTIONS: OptionSpecs = {
 };
 
 function countParameters(values: OptionValues) {
-  const angle = values.angle === undefined ? 0 : parseAngle(String(values.angle));
+  const shape = values.shape === undefined ? DEFAULT_CELL_SHAPE : parseShape(String(values.shape));
+  const angle = values.angle === undefined ? 0 : parseAngle(String(values.angle), 'angle', latticeOf(shape).anglePeriod);
   const offset = values.offset === undefined ? { u: 0, v: 0 } : parseOffset(String(values.offset));
   return {
     cellSize: parsePositiveMetres(requireString(values, 'cell'), 'cell'),
+    shape,
     placement: { u: offset.u, v: offset.v, angle },
     minCoverage:
       values['min-coverage'] === undefined ? COUNT_DEFAULTS.minCoverage : parseMinCoverage(String(values['min-coverage'])),
@@ -101,7 +111,7 @@ export const countCommand: CliCommand = {
   summary: 'the quadrat test for one grid placement and one cell size',
   usage:
     'Usage: gridshake count --points F [--area F] [--no-data F]... [--crs planar|EPSG:n] --cell M\n' +
-    '                       [--angle DEG] [--offset U,V] [--min-coverage T] [--alpha A] [--x COL --y COL] [--json]',
+    '                       [--shape square|hex] [--angle DEG] [--offset U,V] [--min-coverage T] [--alpha A] [--x COL --y COL] [--json]',
   options: OPTIONS,
   run: runCount,
 };

@@ -1,5 +1,6 @@
 /** The result of `gridshake count`: one placement's statistics plus what was counted and how (the --json object). */
 import type { DatasetSummary, InputWarning, ProjectionInfo } from '../contracts.js';
+import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import type { Placement, PlacementStatistics } from '../../workers/types.js';
 
 export interface CountResult extends PlacementStatistics {
@@ -14,6 +15,8 @@ export interface CountResult extends PlacementStatistics {
   /** all points in the data */
   pointsTotal: number;
   cellSize: number;
+  /** the cells' shape; a hexagon has the area of the square of side cellSize */
+  shape: CellShape;
   placement: Placement;
   minCoverage: number;
   alpha: number;

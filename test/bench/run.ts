@@ -3,7 +3,7 @@
  * C counting loop of test/bench/c, compiled here when a C compiler is present), plus the engine's kernel, phase
  * and naive-approach tables. Speed is judged here, never in unit tests.
  *   npm run bench                     every table
- *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|queue   one group (queue: the Redis queue's
+ *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|hex|queue   one group (queue: the Redis queue's
  *                                     figures, with a redis-server started on a free loopback port)
  *   npm run bench -- --json           the same, tables on stderr and one JSON object on stdout: one key per target
  *                                     (wholeSweep, defaultPlanCli, monteCarlo, peakMemory, serverVsCli), each
@@ -13,6 +13,7 @@ import { availableParallelism, cpus, loadavg, totalmem } from 'node:os';
 import { sendTablesTo } from './bench-table.js';
 import { buildCReference } from './c-reference.js';
 import { runCliBench } from './cli-bench.js';
+import { runHexBench } from './hex-bench.js';
 import { runKernelBench } from './kernel-bench.js';
 import { runMemoryBench } from './memory-bench.js';
 import { runNaiveBench } from './naive-bench.js';
@@ -57,6 +58,7 @@ if (wants('server')) targets.serverVsCli = await runServerBench();
 if (wants('memory')) targets.peakMemory = runMemoryBench();
 if (wants('sweep') || wants('phases')) runPhaseBench();
 if (wants('naive')) await runNaiveBench(twoThreadNs);
+if (wants('hex')) runHexBench();
 if (wants('queue')) await runQueueBench();
 
 const loadAverageAtEnd = loadavg()[0];

@@ -16,7 +16,9 @@ import { createGridFrame } from './grid-frame.js';
 /** Largest grid a placement may have; beyond it the cell size is far too small for the region. */
 export const MAX_GRID_CELLS = 1 << 27;
 
-const NOISE = 1e-12;
+/** Coverage this close to 0 or 1 is float noise and is clamped to 0 or 1. */
+export const COVERAGE_NOISE = 1e-12;
+const NOISE = COVERAGE_NOISE;
 
 /** Ring vertices in cell units (X = x'/s - u, Y = y'/s - v), one Float64Array per ring. */
 export function ringsInCellUnits(region: Region, origin: Origin, cellSize: number, placement: Placement): Float64Array[] {
@@ -35,7 +37,7 @@ export function ringsInCellUnits(region: Region, origin: Origin, cellSize: numbe
 }
 
 /** Bounding box [minX, minY, maxX, maxY] of rings in cell units. */
-function ringsExtent(rings: Float64Array[]): [number, number, number, number] {
+export function ringsExtent(rings: Float64Array[]): [number, number, number, number] {
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
@@ -88,17 +90,25 @@ function extentOf(rings: Float64Array[]): Omit<CoverageGrid, 'coverage'> {
   return { i0, j0, nx: Math.max(1, Math.ceil(maxX) - i0), ny: Math.max(1, Math.ceil(maxY) - j0) };
 }
 
-/** Exact coverage of all cells that the transformed region's bounding box touches. */
-export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
-  const rings = ringsInCellUnits(region, origin, cellSize, placement);
+/**
+ * Exact coverage of the unit cells [c, c+1) x [r, r+1) by rings already in cell units (any affine image of the plane
+ * with positive determinant: coverage is a ratio of areas, which such maps keep). The grid covers the rings' bounding
+ * box. `what` names the cell size in the error for a grid that is too large.
+ */
+export function unitCellCoverage(rings: Float64Array[], what: string): CoverageGrid {
   const { i0, j0, nx, ny } = extentOf(rings);
   if (nx * ny > MAX_GRID_CELLS) {
     throw new RangeError(
-      `cell size ${cellSize} m gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
+      `${what} gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
     );
   }
   const coverage = new Float64Array(nx * ny);
   for (const ring of rings) accumulateRing(coverage, ring, i0, j0, nx, ny);
   prefixSumRows(coverage, nx, ny);
   return { i0, j0, nx, ny, coverage };
+}
+
+/** Exact coverage of all cells that the transformed region's bounding box touches. */
+export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
+  return unitCellCoverage(ringsInCellUnits(region, origin, cellSize, placement), `cell size ${cellSize} m`);
 }

@@ -1,12 +1,13 @@
 /**
  * Every cell of one placement with coverage > 0, for drawing and the grid exports: grid indices, count,
  * coverage, expected count E_c = N a_c / sum(a) over kept cells (null for left-out cells), whether it is kept, and
- * its corners as a closed ring in planar metres. N is the number of points in kept cells (design.md).
+ * its corners as a closed counter-clockwise ring in planar metres (5 points for squares, 7 for hexagons). N is the
+ * number of points in kept cells (design.md).
  * `describeCellGrid` keeps the placement in typed arrays (cells visited one at a time, for exports that stream);
  * `describeCells` lists them as objects. Cost O(cells + n).
  */
-import { cellCorners, createGridFrame, type GridFrame } from '../geometry/grid-frame.js';
-import { placementCoverage } from '../geometry/coverage.js';
+import type { LatticeFrame } from '../lattice/lattice.js';
+import { latticeOf } from '../lattice/registry.js';
 import type { CoverageGrid } from '../types.js';
 import type { EvaluatePlacementInput } from './evaluate-placement.js';
 import { selectCells } from './select-cells.js';
@@ -27,7 +28,7 @@ export type DescribeCellsInput = Omit<EvaluatePlacementInput, 'alpha' | 'scratch
 /** One placement's cells in typed arrays: coverage grid, counts, kept flags and the sums behind E_c. */
 export interface CellGrid {
   grid: CoverageGrid;
-  frame: GridFrame;
+  frame: LatticeFrame;
   counts: Int32Array;
   isKept: Uint8Array;
   keptPoints: number;
@@ -37,8 +38,9 @@ export interface CellGrid {
 }
 
 export function describeCellGrid(input: DescribeCellsInput): CellGrid {
-  const { counter, region, origin, cellSize, placement, minCoverage } = input;
-  const grid = placementCoverage(region, origin, cellSize, placement);
+  const { counter, region, origin, cellSize, placement, minCoverage, shape } = input;
+  const lattice = latticeOf(shape);
+  const grid = lattice.coverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage);
   const counts = new Int32Array(grid.nx * grid.ny);
   counter.count(grid, cellSize, placement, counts);
@@ -52,7 +54,7 @@ export function describeCellGrid(input: DescribeCellsInput): CellGrid {
   }
   let cellCount = 0;
   for (let k = 0; k < grid.coverage.length; k++) if (grid.coverage[k]! > 0) cellCount++;
-  return { grid, frame: createGridFrame(origin, cellSize, placement), counts, isKept, keptPoints, keptCoverage, cellCount };
+  return { grid, frame: lattice.frame(origin, cellSize, placement), counts, isKept, keptPoints, keptCoverage, cellCount };
 }
 
 /** Cell k (storage index) of a described grid, or null when its coverage is 0. */
@@ -70,7 +72,7 @@ export function cellAt(cells: CellGrid, k: number): CellDescription | null {
     coverage,
     expected: kept && cells.keptCoverage > 0 ? (cells.keptPoints * coverage) / cells.keptCoverage : null,
     kept,
-    corners: cellCorners(cells.frame, i, j),
+    corners: cells.frame.cellPolygon(i, j),
   };
 }
 

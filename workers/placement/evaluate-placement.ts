@@ -1,11 +1,12 @@
 /**
- * One placement end to end: exact coverage of its cells, the kept cells, the point counts and every dispersion
+ * One placement end to end (any lattice, workers/lattice): exact coverage of its cells, the kept cells, the point counts and every dispersion
  * statistic of the kept cells (shared/design.md, "Statistics of one placement").
  * Cost O(cells + edge crossings + n) per call.
  */
-import { placementCoverage } from '../geometry/coverage.js';
 import { placementStatistics } from '../stats/index.js';
 import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region } from '../types.js';
+import type { CellShape } from '../lattice/cell-shape.js';
+import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from './cell-counter.js';
 import { selectCells } from './select-cells.js';
 
@@ -17,6 +18,8 @@ export interface EvaluatePlacementInput {
   placement: Placement;
   minCoverage: number;
   alpha: number;
+  /** The cells' shape (workers/lattice); absent means square. */
+  shape?: CellShape;
   /** Optional reusable count buffer (length >= nx * ny); a new one is made when absent or too short. */
   scratch?: Int32Array;
 }
@@ -37,8 +40,8 @@ export function keptCounts(counts: Int32Array, kept: KeptCells, out?: Float64Arr
   return result;
 }
 
-function describePlacement(cellSize: number, placement: Placement): string {
-  return `cells of ${cellSize} m at offset (${placement.u}, ${placement.v}) and angle ${placement.angle} deg`;
+function describePlacement(cellSize: number, placement: Placement, shape: CellShape | undefined): string {
+  return `${shape === 'hex' ? 'hexagonal ' : ''}cells of ${cellSize} m at offset (${placement.u}, ${placement.v}) and angle ${placement.angle} deg`;
 }
 
 /**
@@ -46,12 +49,12 @@ function describePlacement(cellSize: number, placement: Placement): string {
  * needed and how to get them).
  */
 export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlacement {
-  const { counter, region, origin, cellSize, placement, minCoverage, alpha } = input;
-  const grid = placementCoverage(region, origin, cellSize, placement);
+  const { counter, region, origin, cellSize, placement, minCoverage, alpha, shape } = input;
+  const grid = latticeOf(shape).coverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage);
   if (kept.index.length < 2) {
     throw new RangeError(
-      `${describePlacement(cellSize, placement)} keep ${kept.index.length} cell(s) with coverage >= ${minCoverage}; ` +
+      `${describePlacement(cellSize, placement, shape)} keep ${kept.index.length} cell(s) with coverage >= ${minCoverage}; ` +
         'at least 2 are needed: use smaller cells or a lower minCoverage',
     );
   }

@@ -30,12 +30,15 @@ export function checkPlacementCount(count: number): void {
   }
 }
 
-/** The first `count` Halton placements; placement 0 is the reference placement. */
-export function haltonPlacements(count: number, rotation: boolean): Placement[] {
+/**
+ * The first `count` Halton placements; placement 0 is the reference placement. Angles span the lattice's period
+ * (workers/lattice: 90 degrees for squares, 60 for hexagons), so two shapes share one design.
+ */
+export function haltonPlacements(count: number, rotation: boolean, anglePeriod = 90): Placement[] {
   checkPlacementCount(count);
   const placements: Placement[] = [];
   for (let k = 0; k < count; k++) {
-    placements.push({ u: halton(k, 2), v: halton(k, 3), angle: rotation ? 90 * halton(k, 5) : 0 });
+    placements.push({ u: halton(k, 2), v: halton(k, 3), angle: rotation ? anglePeriod * halton(k, 5) : 0 });
   }
   return placements;
 }

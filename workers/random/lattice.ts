@@ -48,13 +48,16 @@ export function latticeShape(count: number, rotation: boolean): [number, number,
   return best;
 }
 
-/** `count` placements on a regular lattice over offsets (and angles); placement 0 is the reference. */
-export function latticePlacements(count: number, rotation: boolean): Placement[] {
+/**
+ * `count` placements on a regular lattice over offsets (and angles over the cell lattice's period, 90 degrees for
+ * squares, 60 for hexagons); placement 0 is the reference.
+ */
+export function latticePlacements(count: number, rotation: boolean, anglePeriod = 90): Placement[] {
   const [nu, nv, na] = latticeShape(count, rotation);
   const placements: Placement[] = [];
   for (let c = 0; c < na; c++) {
     for (let b = 0; b < nv; b++) {
-      for (let a = 0; a < nu; a++) placements.push({ u: a / nu, v: b / nv, angle: (90 * c) / na });
+      for (let a = 0; a < nu; a++) placements.push({ u: a / nu, v: b / nv, angle: (anglePeriod * c) / na });
     }
   }
   return placements;

@@ -5,6 +5,7 @@
  */
 import { evaluatePlacement, keptCounts, type CellCounter, type EvaluatedPlacement } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
+import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
@@ -18,6 +19,8 @@ export interface ChunkContext {
   observed: PatternCounter;
   simulated: readonly PatternCounter[];
   cellSize: number;
+  /** the cells' shape (workers/lattice); absent means square */
+  shape?: CellShape;
   minCoverage: number;
   alpha: number;
 }

@@ -3,6 +3,7 @@
  * shared memory (points, region, simulated patterns) plus placement parameters; results come back as one
  * Float64Array per chunk, moved rather than cloned.
  */
+import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin } from '../types.js';
 import { STATISTICS_FIELDS } from './statistics-codec.js';
 
@@ -33,6 +34,8 @@ export interface ChunkTask {
   simulated: SharedArrayBuffer | null;
   sims: number;
   cellSize: number;
+  /** the cells' shape (workers/lattice); absent means square */
+  shape?: CellShape;
   minCoverage: number;
   alpha: number;
   /** u, v, angle of each placement of the chunk */

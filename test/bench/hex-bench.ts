@@ -1,0 +1,49 @@
+/**
+ * Measurement 6: hexagonal cells against square cells on the same placements (issue 16), one thread: the counting
+ * kernel alone (coverage grids built before timing) and whole placements (coverage, counting, kept cells and every
+ * statistic). Same Morton-sorted points, same cell size s (a hexagon has area s^2), same 32 Halton placements.
+ * Target: counting with hexagons at most 1.5 times the time of squares.
+ */
+import { createCellCounter, evaluatePlacement, mortonSort } from '../../workers/placement/index.js';
+import { latticeOf } from '../../workers/lattice/registry.js';
+import { haltonPlacements } from '../../workers/random/index.js';
+import { BENCH_ORIGIN, BENCH_REGION, cellSideForExpected, clusteredDataset } from './bench-data.js';
+import { bestSeconds, pass, printTable, type Cell } from './bench-table.js';
+
+const PLACEMENTS = 32;
+
+export function runHexBench(): void {
+  const rows: Cell[][] = [];
+  for (const n of [1e5, 1e6]) {
+    const sorted = mortonSort(clusteredDataset(n, 3).xy);
+    const cellSize = cellSideForExpected(5, n);
+    const placements = haltonPlacements(PLACEMENTS, true);
+    const counter = createCellCounter(sorted, BENCH_ORIGIN);
+    const timings = (['square', 'hex'] as const).map((shape) => {
+      const lattice = latticeOf(shape);
+      const grids = placements.map((p) => lattice.coverage(BENCH_REGION, BENCH_ORIGIN, cellSize, p));
+      const out = new Int32Array(Math.max(...grids.map((g) => g.nx * g.ny)));
+      const count = bestSeconds(() => placements.forEach((p, k) => counter.count(grids[k]!, cellSize, p, out)));
+      const coverage = bestSeconds(() => placements.forEach((p) => lattice.coverage(BENCH_REGION, BENCH_ORIGIN, cellSize, p)));
+      const whole = bestSeconds(() =>
+        placements.forEach((placement) =>
+          evaluatePlacement({ counter, region: BENCH_REGION, origin: BENCH_ORIGIN, cellSize, placement, minCoverage: 0.5, alpha: 0.05, shape }),
+        ),
+      );
+      return { count, coverage, whole };
+    });
+    const [square, hex] = timings as [(typeof timings)[0], (typeof timings)[0]];
+    const ns = (seconds: number): number => (seconds * 1e9) / (n * PLACEMENTS);
+    rows.push([n, 'counting, squares (baseline)', ns(square.count), 1, '', '']);
+    rows.push([n, 'counting, hexagons', ns(hex.count), hex.count / square.count, '<= 1.5x', pass(hex.count / square.count <= 1.5)]);
+    rows.push([n, 'coverage of all cells, squares', ns(square.coverage), 1, '', '']);
+    rows.push([n, 'coverage of all cells, hexagons', ns(hex.coverage), hex.coverage / square.coverage, '', '']);
+    rows.push([n, 'whole placement, squares', ns(square.whole), 1, '', '']);
+    rows.push([n, 'whole placement, hexagons', ns(hex.whole), hex.whole / square.whole, '', '']);
+  }
+  printTable(
+    `6. Hexagonal against square cells, one thread (${PLACEMENTS} Halton placements with rotation, 5 expected points per cell)`,
+    ['n', 'variant', 'ns/point-placement', 'time vs squares', 'target', 'status'],
+    rows,
+  );
+}

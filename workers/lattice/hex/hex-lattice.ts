@@ -1,0 +1,23 @@
+/**
+ * The hexagonal lattice (issue 16 contract, hex-frame.ts): pointy-top hexagons of area s^2, angle period 60 degrees,
+ * exact coverage by three rhombus lattices (hex-coverage.ts), counting by the rounding rule with a fast path
+ * (hex-counter.ts).
+ */
+import type { Lattice } from '../lattice.js';
+import { createHexCounter } from './hex-counter.js';
+import { hexCoverage } from './hex-coverage.js';
+import { createHexFrame, hexCellOfPoint, hexCorners } from './hex-frame.js';
+
+export const hexLattice: Lattice = {
+  shape: 'hex',
+  anglePeriod: 60,
+  coverage: hexCoverage,
+  createCounter: createHexCounter,
+  frame(origin, cellSize, placement) {
+    const frame = createHexFrame(origin, cellSize, placement);
+    return {
+      cellOfPoint: (px, py) => hexCellOfPoint(frame, px, py),
+      cellPolygon: (i, j) => hexCorners(frame, i, j),
+    };
+  },
+};

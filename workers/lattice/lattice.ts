@@ -1,0 +1,42 @@
+/**
+ * The lattice seam: everything that depends on the shape of the cells. A lattice tiles the plane with cells of area
+ * s^2 (s = cellSize, metres) in the grid frame of shared/design.md (origin O, counter-clockwise angle t, offset
+ * (u, v) in lattice units). The rest of the engine (kept cells, statistics, simulations) works on the coverage grid
+ * and the counts and never asks what shape a cell has.
+ *
+ * A new shape is one folder under workers/lattice/ implementing this interface plus one line in registry.ts.
+ */
+import type { CoverageGrid, Origin, Placement, Region } from '../types.js';
+import type { CellShape } from './cell-shape.js';
+
+export interface CellCounter {
+  /** Number of points the counter holds. */
+  readonly pointCount: number;
+  /**
+   * Fill out[(j - j0) * nx + (i - i0)] with the number of points in cell (i, j) of `grid` (out is zeroed first;
+   * out.length >= nx * ny). Points whose cell is outside the grid are ignored.
+   */
+  count(grid: CoverageGrid, cellSize: number, placement: Placement, out: Int32Array): void;
+}
+
+/** One placement of a lattice: cell of a point and polygon of a cell, in planar metres. */
+export interface LatticeFrame {
+  /** The cell (i, j) holding a planar point, by the lattice's exact rule. */
+  cellOfPoint(px: number, py: number): [number, number];
+  /** The cell's boundary as a closed ring (first vertex repeated), counter-clockwise, planar metres. */
+  cellPolygon(i: number, j: number): [number, number][];
+}
+
+export interface Lattice {
+  readonly shape: CellShape;
+  /** Turning the lattice by this many degrees maps it onto itself: placements use angles in [0, anglePeriod). */
+  readonly anglePeriod: number;
+  /**
+   * Exact coverage |cell ∩ region| / s^2 of every cell the region may touch, all at once; the grid is tagged with the
+   * lattice's shape so that counts and coverage cannot come from different shapes.
+   */
+  coverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid;
+  /** A counter of the flat points xy (x0, y0, x1, y1, ...; planar metres) with the lattice's fast path. */
+  createCounter(xy: Float64Array, origin: Origin): CellCounter;
+  frame(origin: Origin, cellSize: number, placement: Placement): LatticeFrame;
+}
