@@ -77,7 +77,7 @@ export function formatCount(result: CountResult): string {
     lines.push('Warnings:');
     for (const warning of result.warnings) {
       const ids = warning.ids && warning.ids.length > 0 ? ` [ids: ${warning.ids.join(', ')}]` : '';
-      lines.push(`  - ${warning.message}${ids}`);
+      lines.push(`  - ${warning.cliMessage ?? warning.message}${ids}`);
     }
   }
   lines.push('');

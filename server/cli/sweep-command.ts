@@ -4,7 +4,6 @@
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
 import type { Plan, SweepProgress } from '../contracts.js';
-import { GridshakeError, parameterError } from '../errors.js';
 import { renderReport } from '../report/render-report.js';
 import { normalizePlan } from '../sweeps/plan.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
@@ -42,26 +41,6 @@ const OPTIONS: OptionSpecs = {
   ...INPUT_LIMIT_OPTIONS,
 };
 
-const FLAG_NAMES: Record<string, string> = {
-  'plan.perCell': '--per-cell',
-  'plan.cells': '--cells',
-  'plan.minCoverage': '--min-coverage',
-  'plan.placements': '--placements',
-  'plan.alpha': '--alpha',
-  'plan.sims': '--sims',
-  'plan.seed': '--seed',
-  'plan.design': '--design',
-};
-
-/** A plan error in the words of the command line (--per-cell rather than plan.perCell). */
-function asFlagError(error: unknown): unknown {
-  if (!(error instanceof GridshakeError) || error.code !== 'GS_ERR_PARAMETER') return error;
-  let message = error.message.replace('plan needs exactly one of cells (cell sides in metres) or perCell (expected points per cell)',
-    'give exactly one of --cells (cell sides in metres) or --per-cell (expected points per cell)');
-  for (const [field, flag] of Object.entries(FLAG_NAMES)) message = message.split(field).join(flag);
-  return parameterError(message);
-}
-
 function planFromFlags(values: OptionValues): Plan {
   const text = (name: string): string | undefined => optionalString(values, name);
   const input: Record<string, unknown> = { rotation: values['no-rotation'] !== true };
@@ -73,11 +52,7 @@ function planFromFlags(values: OptionValues): Plan {
   if (text('alpha') !== undefined) input.alpha = parseAlpha(text('alpha') as string);
   if (text('sims') !== undefined) input.sims = parseWholeNumber(text('sims') as string, 'sims', 0);
   if (text('seed') !== undefined) input.seed = parseNumber(text('seed') as string, 'seed', 'an integer');
-  try {
-    return normalizePlan(input);
-  } catch (error) {
-    throw asFlagError(error);
-  }
+  return normalizePlan(input);
 }
 
 function progressWriter(io: CliIo): { update(progress: SweepProgress): void; end(): void } {
@@ -121,7 +96,8 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
     ]);
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
     io.stdout(`${lines.join('\n')}\n`);
-    for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);
+    // the dataset's warnings come first, in the command line's words
+    summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));
     io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
     return 0;
   } catch (error) {
@@ -130,7 +106,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       io.stderr('gridshake sweep: cancelled; nothing was written\n');
       return 130;
     }
-    throw asFlagError(error);
+    throw error;
   } finally {
     process.removeListener('SIGINT', onInterrupt);
     await pool.destroy();

@@ -17,6 +17,7 @@ import { projectInputs } from './project-inputs.js';
 import { readPoints } from './read-points.js';
 import { toRegion } from './to-region.js';
 import { buildValidRegion, type LabelledRings } from './valid-region.js';
+import { fieldRef, twoWays } from '../messages/field-names.js';
 
 export interface DatasetInput {
   points: InputFile;
@@ -65,7 +66,7 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   }
   const crs = options.crs ?? raw.declaredCrs;
   if (crs === undefined && raw.format === 'geopackage') {
-    throw inputError(`${input.points.name}: the GeoPackage layer declares no EPSG coordinate system; give --crs planar or --crs EPSG:n`);
+    throw inputError(`${input.points.name}: the GeoPackage layer declares no EPSG coordinate system; give ${twoWays('--crs planar or --crs EPSG:n', 'choose "planar metres" or an EPSG code in the "Coordinate system" field')}`);
   }
   const system = resolveCoordinateSystem(crs, raw.kind, input.points.name);
   const area = input.area ? readPolygons(input.area, system) : [];
@@ -85,7 +86,7 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   if (!Number.isFinite(region.area) || !Number.isFinite(studyRegion.area)) {
     throw inputError(
       `${input.area?.name ?? input.points.name}: the coordinates are too large: the study area's size overflows ` +
-        '(are they metres in a projected system? check --crs)',
+        `(are they metres in a projected system? check ${fieldRef('crs')})`,
     );
   }
 

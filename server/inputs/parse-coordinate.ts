@@ -3,6 +3,7 @@
  * "Infinity"), finite. The message names the place given by the caller (file and line, or feature).
  */
 import { inputError } from '../errors.js';
+import { fieldRef } from '../messages/field-names.js';
 
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const DECIMAL_COMMA = /^[+-]?\d+,\d+$/;
@@ -27,6 +28,6 @@ export function checkLonLat(lon: number, lat: number, where: string): void {
     throw inputError(`${where}: latitude ${lat} is beyond +-90 degrees (are the columns swapped or projected?)`);
   }
   if (lon < -180 || lon > 180) {
-    throw inputError(`${where}: longitude ${lon} is beyond +-180 degrees (projected data? give --crs)`);
+    throw inputError(`${where}: longitude ${lon} is beyond +-180 degrees (projected data? give ${fieldRef('crs')})`);
   }
 }

@@ -95,7 +95,7 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
         }
         if (length > bodyLimit) {
           throw tooLargeError(
-            `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (--body-limit)`,
+            `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (the upload limit set when the server was started)`,
           );
         }
       },

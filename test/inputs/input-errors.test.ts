@@ -51,8 +51,9 @@ describe('loadDataset rejects bad point files', () => {
     expect(inputMessage(() => loadDataset({ points: geo }))).toMatch(/^pts\.geojson: feature 1 \(id '7'\): latitude 4100000 is beyond/);
   });
 
-  it('asks for --crs when the columns are x/y and no system is given', () => {
-    expect(inputMessage(() => loadDataset({ points: goodPoints }))).toMatch(/^pts\.csv: line 1: .*--crs planar .*--crs EPSG:n$/);
+  it('asks for --crs (on the page: the Coordinate system field) when the columns are x/y and no system is given', () => {
+    expect(thrown(() => loadDataset({ points: goodPoints })).cliMessage).toMatch(/^pts\.csv: line 1: .*--crs planar .*--crs EPSG:n$/);
+    expect(inputMessage(() => loadDataset({ points: goodPoints }))).toMatch(/^pts\.csv: line 1: .*in the "Coordinate system" field, "planar metres" .* or their EPSG code$/);
   });
 
   it('refuses more points than maxPoints with GS_ERR_TOO_LARGE', () => {
@@ -63,10 +64,11 @@ describe('loadDataset rejects bad point files', () => {
   });
 
   it('names an unknown or malformed --crs as a parameter error', () => {
-    expect(thrown(() => loadDataset({ points: goodPoints }, { crs: 'EPSG:99999' })).message).toBe('--crs: EPSG:99999 is not a known coordinate reference system');
+    expect(thrown(() => loadDataset({ points: goodPoints }, { crs: 'EPSG:99999' })).cliMessage).toBe('--crs: EPSG:99999 is not a known coordinate reference system');
+    expect(thrown(() => loadDataset({ points: goodPoints }, { crs: 'EPSG:99999' })).message).toBe('the "Coordinate system" field: EPSG:99999 is not a known coordinate reference system');
     const malformed = thrown(() => loadDataset({ points: goodPoints }, { crs: 'wgs84' }));
     expect(malformed.code).toBe('GS_ERR_PARAMETER');
-    expect(malformed.message).toBe("--crs must be 'planar' or 'EPSG:n', got 'wgs84'");
+    expect(malformed.cliMessage).toBe("--crs must be 'planar' or 'EPSG:n', got 'wgs84'");
   });
 });
 
