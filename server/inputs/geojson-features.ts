@@ -4,6 +4,7 @@
  */
 import { inputError } from '../errors.js';
 import { parseJsonText } from './parse-json.js';
+import { legacyGeoJsonCrs } from './legacy-geojson-crs.js';
 
 export interface GeoJsonGeometry {
   type: string;
@@ -45,15 +46,24 @@ function featureOf(value: unknown, fileName: string, index: number): LabelledFea
 }
 
 export function readGeoJsonFeatures(fileName: string, text: string): LabelledFeature[] {
+  return readGeoJson(fileName, text).features;
+}
+
+/** The features and the coordinate system a legacy `crs` member declares (see legacy-geojson-crs.ts), if any. */
+export function readGeoJson(fileName: string, text: string): { features: LabelledFeature[]; declaredCrs?: string } {
   const root = parseJsonText(fileName, text);
   if (!isObject(root) || typeof root.type !== 'string') {
     throw inputError(`${fileName}: not GeoJSON (expected an object with a "type" member)`);
   }
-  if (root.type === 'FeatureCollection') {
-    if (!Array.isArray(root.features)) throw inputError(`${fileName}: the FeatureCollection has no "features" array`);
-    return root.features.map((feature, index) => featureOf(feature, fileName, index));
-  }
-  if (root.type === 'Feature') return [featureOf(root, fileName, 0)];
-  const label = `${fileName}: geometry`;
-  return [{ label, id: '1', geometry: asGeometry(root, label) }];
+  const declaredCrs = legacyGeoJsonCrs(fileName, root.crs);
+  const features = (() => {
+    if (root.type === 'FeatureCollection') {
+      if (!Array.isArray(root.features)) throw inputError(`${fileName}: the FeatureCollection has no "features" array`);
+      return root.features.map((feature, index) => featureOf(feature, fileName, index));
+    }
+    if (root.type === 'Feature') return [featureOf(root, fileName, 0)];
+    const label = `${fileName}: geometry`;
+    return [{ label, id: '1', geometry: asGeometry(root, label) }];
+  })();
+  return declaredCrs === undefined ? { features } : { features, declaredCrs };
 }

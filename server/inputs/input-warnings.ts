@@ -41,6 +41,16 @@ export function outsideWarning(outside: number, total: number, ids: string[]): I
   };
 }
 
+/** CSV rows left out at the user's request because their coordinates were blank or n/a; ids are line numbers. */
+export function skippedRowsWarning(fileName: string, lines: number[]): InputWarning {
+  const listed = lines.length > WARNING_ID_LIMIT ? ` (first ${WARNING_ID_LIMIT} lines listed)` : '';
+  return worded(
+    'skipped-rows',
+    `${fileName}: ${lines.length} row(s) without coordinates (blank or n/a) were left out as asked and are not counted${listed}`,
+    lines.slice(0, WARNING_ID_LIMIT).map((line) => `line ${line}`),
+  );
+}
+
 export function projectionWarning(message: string): InputWarning {
   return { code: 'projection', message };
 }

@@ -10,9 +10,10 @@ import { resolveCoordinateSystem, type CoordinateSystem } from './coordinate-sys
 import { isSqliteFile, readGeoPackageFeatures } from './geopackage/read-geopackage.js';
 import { defaultStudyArea } from './default-study-area.js';
 import { findDuplicates } from './find-duplicates.js';
-import { polygonsFromFeatures, readGeoJsonPolygons, type RawPolygon } from './geojson-polygons.js';
+import { polygonsFromFeatures, type RawPolygon } from './geojson-polygons.js';
+import { readGeoJson } from './geojson-features.js';
 import { readText, type InputFile } from './input-file.js';
-import { duplicateWarning, outsideWarning, projectionWarning } from './input-warnings.js';
+import { duplicateWarning, outsideWarning, projectionWarning, skippedRowsWarning } from './input-warnings.js';
 import { projectInputs } from './project-inputs.js';
 import { readPoints } from './read-points.js';
 import { toRegion } from './to-region.js';
@@ -32,6 +33,8 @@ export interface DatasetOptions {
   id?: string;
   name?: string;
   maxPoints?: number;
+  /** leave out CSV rows whose coordinates are blank or n/a, with a warning listing their lines */
+  skipBadRows?: boolean;
 }
 
 /** Polygons of a GeoJSON or GeoPackage file; a GeoPackage must declare the same system as the points, or none. */
@@ -44,7 +47,11 @@ function readPolygons(file: InputFile, system: CoordinateSystem): LabelledRings[
     }
     polygons = polygonsFromFeatures(file.name, layer.features);
   } else {
-    polygons = readGeoJsonPolygons(file.name, readText(file));
+    const { features, declaredCrs } = readGeoJson(file.name, readText(file));
+    if (declaredCrs !== undefined && system.crs !== 'planar' && declaredCrs !== system.crs) {
+      throw inputError(`${file.name}: the GeoJSON "crs" member says ${declaredCrs} but the points are in ${system.crs}; give every file in one coordinate system`);
+    }
+    polygons = polygonsFromFeatures(file.name, features);
   }
   const geographic = system.geographic;
   return polygons.map((polygon) => ({
@@ -73,6 +80,7 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   const zones = (input.noData ?? []).flatMap((file) => readPolygons(file, system));
   const projected = projectInputs(system, raw, area, zones);
   const warnings: InputWarning[] = system.warnings.map(projectionWarning);
+  if (raw.skippedLines && raw.skippedLines.length > 0) warnings.push(skippedRowsWarning(input.points.name, raw.skippedLines));
 
   let studyRings = projected.area;
   if (studyRings.length === 0) {
