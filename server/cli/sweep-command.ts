@@ -90,7 +90,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
     createOutDir();
     const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
     writeOutputs(outDir, [
-      [csvName, placementsToCsv(rows)],
+      [csvName, placementsToCsv(rows, { summary })],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows)],
     ]);

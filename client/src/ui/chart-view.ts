@@ -15,6 +15,12 @@ export type ChartClick = (datasetIndex: number, index: number) => void;
 /** Every chart view on the page by bundle id, for the report step's PNG downloads and for tests. */
 export const chartViews = new Map<string, ChartView>();
 
+/** The PNG file name of a chart; the results panel sets it to carry the dataset name and cell side. */
+let pngName = (bundleId: string): string => `gridshake-${bundleId}.png`;
+export function setPngNamer(namer: (bundleId: string) => string): void {
+  pngName = namer;
+}
+
 export class ChartView {
   readonly element: HTMLElement;
   private chart: Chart | null = null;
@@ -70,7 +76,7 @@ export class ChartView {
   }
 
   downloadPng(): void {
-    const link = el('a', { href: this.pngDataUrl(), download: `gridshake-${this.bundle.id}.png` });
+    const link = el('a', { href: this.pngDataUrl(), download: pngName(this.bundle.id) });
     document.body.append(link);
     link.click();
     link.remove();
