@@ -104,6 +104,7 @@ describe.each([360, 390, 1024, 1440])('the journey at %i px', (width) => {
       expect(canvasWidth).toBeLessThanOrEqual(width);
     }
     await page.screenshot({ path: join(ARTIFACTS, `page-width-${width}.png`), fullPage: true });
+    await page.locator('[data-chart^="angle-"]').screenshot({ path: join(ARTIFACTS, `page-width-${width}-angle-chart.png`) });
   });
 
   it('deletes a sweep and an uploaded dataset after asking, and reads a file with a blank row when asked to skip it', async () => {

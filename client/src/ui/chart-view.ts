@@ -6,6 +6,7 @@ import { Chart, registerables, type ChartConfiguration } from 'chart.js';
 import { hydrateChartSpec, whiteBackgroundPlugin } from '../charts/chart-runtime.js';
 import type { ChartBundle } from '../charts/chart-spec.js';
 import { el, textTable } from './dom.js';
+import { NARROW_CHART_WIDTH, narrowLayout } from '../charts/narrow-layout.js';
 
 Chart.register(...registerables, whiteBackgroundPlugin());
 
@@ -54,6 +55,7 @@ export class ChartView {
     this.chart?.destroy();
     const spec = hydrateChartSpec(structuredClone(bundle.spec));
     spec.options.devicePixelRatio = Math.max(2, window.devicePixelRatio || 1);
+    narrowLayout(spec.options, this.canvas.parentElement?.clientWidth ?? NARROW_CHART_WIDTH);
     if (this.onClick) {
       const onClick = this.onClick;
       spec.options.onClick = (_event: unknown, elements: { datasetIndex: number; index: number }[]) => {
