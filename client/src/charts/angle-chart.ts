@@ -43,6 +43,7 @@ export function angleChartSpec(series: AngleSeries, cellSizeLabel: string): Char
     {
       type: 'line',
       label: '1 = CSR expectation',
+      pointStyle: 'line',
       data: [{ x: 0, y: 1 }, { x: 90, y: 1 }],
       borderColor: NEUTRAL.ink,
       borderDash: [6, 4],
