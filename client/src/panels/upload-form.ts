@@ -1,5 +1,5 @@
 /** Upload of points, an optional study area and no-data zones, with the coordinate system choice. */
-import { api, type StoredDataset } from '../api/api-client.js';
+import { api, ApiError, type StoredDataset } from '../api/api-client.js';
 import { el, field, message } from '../ui/dom.js';
 
 export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLElement {
@@ -67,6 +67,8 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
       onUploaded(dataset);
     } catch (error) {
       feedback.replaceChildren(message('error', error instanceof Error ? error.message : String(error)));
+      // rows without coordinates: the way out is the checkbox, so take the keyboard there
+      if (error instanceof ApiError && error.code === 'GS_ERR_BAD_ROWS' && !skipBadRows.checked) skipBadRows.focus();
     } finally {
       submit.disabled = false;
     }
