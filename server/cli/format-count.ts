@@ -41,7 +41,7 @@ export function formatCount(result: CountResult): string {
   const lines: string[] = [];
   lines.push(`gridshake count: ${result.dataset.name} (${result.pointsTotal} points, coordinates ${result.dataset.crs})`);
   lines.push(
-    `Grid: ${result.cellSize} m cells, angle ${placement.angle} deg, offset (${placement.u}, ${placement.v}), ` +
+    `Grid: ${result.cellSize} m cells, angle ${placement.angle}°, offset (${placement.u}, ${placement.v}) cells, ` +
       `cells kept with coverage >= ${result.minCoverage}`,
   );
   lines.push('');
