@@ -9,7 +9,7 @@ export default defineConfig({
     testTimeout: 60_000,
     hookTimeout: 120_000,
     pool: 'forks',
-    reporters: ['default', 'json'],
+    reporters: ['default', 'json', ['./.ci/run-end-reporter.mjs', { outputFile: '.test-results/vitest.run-end.json' }]],
     outputFile: { json: '.test-results/vitest.json' },
   },
 });

@@ -7,7 +7,7 @@ export default defineConfig({
     hookTimeout: 120_000,
     pool: 'forks',
     fileParallelism: false,
-    reporters: ['default', 'json'],
+    reporters: ['default', 'json', ['./.ci/run-end-reporter.mjs', { outputFile: '.test-results/vitest-stress.run-end.json' }]],
     outputFile: { json: '.test-results/vitest-stress.json' },
   },
 });

@@ -98,6 +98,10 @@ export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
   poissonChi2: number | null;
   poissonDf: number | null;
   poissonP: number | null;
+  /** natural log of pClustered in log space; in summary.json rows (reference, lowest and highest vmr) */
+  logPClustered?: number;
+  /** natural log of pRegular in log space; in summary.json rows */
+  logPRegular?: number;
 }
 
 export interface Quantiles {
@@ -155,10 +159,32 @@ export interface SizeSummary {
   conclusion: string;
 }
 
+/** The one test behind the overall conclusion (server/summary/overall-test.ts); null without sims. */
+export interface OverallTest {
+  /** max over sizes of |standardized median chi2/df|, ranked among the R + 1 patterns */
+  method: 'monte-carlo-max-standardized-median';
+  /** the observed pattern's statistic */
+  statistic: number;
+  /** (1 + #{r: T_r >= T_obs}) / (R + 1) */
+  p: number;
+  sims: number;
+  alpha: number;
+  /** whether 1/(R+1) <= alpha (a p at or below alpha is possible at all) */
+  canReject: boolean;
+  /** p <= alpha */
+  rejects: boolean;
+  /** the observed departure at the most extreme size when the test rejects, else 'csr' */
+  direction: Verdict;
+  /** the cell side (m) where the observed standardized median is most extreme */
+  strongestCellSize: number;
+}
+
 export interface SweepSummary {
   plan: Plan;
   dataset: DatasetSummary;
   sizes: SizeSummary[];
+  /** the overall test across sizes and tails (null when sims = 0) */
+  overallTest?: OverallTest | null;
   conclusion: string;
   warnings: string[];
   versions: Record<string, string>;

@@ -43,6 +43,17 @@ export function parameterError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_PARAMETER', 400, message);
 }
 
+/**
+ * A plan whose Monte Carlo test could never reject: 1/(R+1) > alpha (shared/monte-carlo-rule.ts) (400; the CLI
+ * exits 2, as for a bad command line, since the fix is a different --sims).
+ */
+export function tooFewSimsError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_TOO_FEW_SIMS', 400, message);
+}
+
+/** CLI exit codes of coded errors other than 1 (the default for a GridshakeError). */
+export const CLI_EXIT_CODES: Readonly<Record<string, number>> = Object.freeze({ GS_ERR_TOO_FEW_SIMS: 2 });
+
 /** A plan whose estimated work is above the budget (400). */
 export function budgetError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_BUDGET', 400, message);

@@ -10,7 +10,7 @@ import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const stamp = join(root, 'dist', '.build-stamp');
-const SOURCES = ['server', 'workers', 'client', 'test/bench', 'bin', 'package.json', 'package-lock.json', 'tsconfig.json', 'tsconfig.test.json'];
+const SOURCES = ['server', 'workers', 'shared', 'client', 'test/bench', 'bin', 'package.json', 'package-lock.json', 'tsconfig.json', 'tsconfig.test.json'];
 
 function newestSource(path) {
   if (!existsSync(path)) return 0;

@@ -9,6 +9,7 @@ import { assertCellCountWithinLimit } from '../sweeps/plan.js';
 import { fieldRef } from '../messages/field-names.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
+import { logPValues } from '../summary/log-p-values.js';
 import {
   parseAlpha,
   parseAngle,
@@ -75,6 +76,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   if (evaluated.stats.cells < 2) return keptCells();
   const result: CountResult = {
     ...evaluated.stats,
+    ...logPValues(evaluated.stats),
     pointsOutside: dataset.outsideIds.length,
     pointsInLeftOutCells: dataset.inside.length - evaluated.stats.points,
     pointsTotal: dataset.ids.length,

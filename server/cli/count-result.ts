@@ -3,6 +3,10 @@ import type { DatasetSummary, InputWarning, ProjectionInfo } from '../contracts.
 import type { Placement, PlacementStatistics } from '../../workers/types.js';
 
 export interface CountResult extends PlacementStatistics {
+  /** natural log of pClustered, computed in log space (finite where pClustered underflows to 0) */
+  logPClustered: number;
+  /** natural log of pRegular, computed in log space */
+  logPRegular: number;
   /** points in the data outside the valid region (never counted) */
   pointsOutside: number;
   /** points inside the valid region but in cells left out by minCoverage */

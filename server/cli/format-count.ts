@@ -1,10 +1,10 @@
 /** Plain-words rendering of a count result for the terminal: verdict, key numbers, rule of thumb, warnings, caution. */
 import type { CountResult } from './count-result.js';
+import { formatPValue, pPhrase } from '../../shared/p-value.js';
 
-/** A p-value for reading: 4 significant digits, scientific below 1e-4. */
+/** A p-value for reading (shared/p-value.ts): "< 1e-300" below the smallest double, never "0". */
 export function formatP(p: number): string {
-  if (p === 0) return '0';
-  return p < 1e-4 ? p.toExponential(2) : p.toPrecision(4);
+  return formatPValue(p);
 }
 
 const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? value.toFixed(digits) : String(value));
@@ -12,15 +12,33 @@ const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? v
 export function verdictSentence(result: CountResult): string {
   const test = `two-sided test at alpha = ${result.alpha}`;
   if (result.verdict === 'clustered') {
-    return `The counts are more clustered than complete spatial randomness would give (p = ${formatP(result.pClustered)}, ${test}).`;
+    return `The counts are more clustered than complete spatial randomness would give (${pPhrase(result.pClustered)}, ${test}).`;
   }
   if (result.verdict === 'regular') {
-    return `The counts are more regular (evenly spread) than complete spatial randomness would give (p = ${formatP(result.pRegular)}, ${test}).`;
+    return `The counts are more regular (evenly spread) than complete spatial randomness would give (${pPhrase(result.pRegular)}, ${test}).`;
   }
   return (
     `The counts do not depart from complete spatial randomness (${test}: p for clustering = ` +
     `${formatP(result.pClustered)}, p for regularity = ${formatP(result.pRegular)}).`
   );
+}
+
+/**
+ * The warning that must come before the verdict when the chi-square p-value cannot be trusted: fewer than 1.6
+ * expected points per whole cell (below both rules of thumb, common practice; NIST/SEMATECH e-Handbook 1.3.5.15)
+ * or fewer than 2 points counted. Null when the p-value stands.
+ */
+export function pValueCaveat(result: CountResult): string | null {
+  if (result.points < 2) {
+    return `Read first: only ${result.points} point${result.points === 1 ? '' : 's'} counted; the p-values below say nothing about the pattern.`;
+  }
+  if (!result.meetsRuleOf1_6) {
+    return (
+      `Read first: ${result.expectedPerCell.toFixed(2)} expected points per whole cell is below both rules of thumb ` +
+      '(1.6 and 5, common practice): the chi-square p-values below are not reliable; use larger cells.'
+    );
+  }
+  return null;
 }
 
 function ruleOfThumb(result: CountResult): string {
@@ -44,6 +62,20 @@ export function formatCount(result: CountResult): string {
     `Grid: ${result.cellSize} m cells, angle ${placement.angle}°, offset (${placement.u}, ${placement.v}) cells, ` +
       `cells kept with coverage >= ${result.minCoverage}`,
   );
+  // warnings first: a warning that makes the p-value meaningless is read before the p-value
+  if (result.warnings.length > 0) {
+    lines.push('');
+    lines.push('Warnings:');
+    for (const warning of result.warnings) {
+      const ids = warning.ids && warning.ids.length > 0 ? ` [ids: ${warning.ids.join(', ')}]` : '';
+      lines.push(`  - ${warning.cliMessage ?? warning.message}${ids}`);
+    }
+  }
+  const caveat = pValueCaveat(result);
+  if (caveat !== null) {
+    lines.push('');
+    lines.push(caveat);
+  }
   lines.push('');
   lines.push(verdictSentence(result));
   lines.push('');
@@ -64,7 +96,7 @@ export function formatCount(result: CountResult): string {
   ];
   if (result.poissonFit) {
     const fit = result.poissonFit;
-    rows.push(['Poisson frequency fit', `chi-square ${fixed(fit.chi2, 4)} on ${fit.df} df, p = ${formatP(fit.p)}`]);
+    rows.push(['Poisson frequency fit', `chi-square ${fixed(fit.chi2, 4)} on ${fit.df} df, ${pPhrase(fit.p)}`]);
     rows.push(['  classes (observed/expected)', fit.classes.map((c) => `${c.label}: ${c.observed}/${c.expected.toFixed(2)}`).join(', ')]);
   } else {
     rows.push(['Poisson frequency fit', 'not available (fewer than 3 classes after merging)']);
@@ -72,14 +104,6 @@ export function formatCount(result: CountResult): string {
   for (const [label, value] of rows) lines.push(`  ${label.padEnd(34)} ${value}`);
   lines.push('');
   lines.push(ruleOfThumb(result));
-  if (result.warnings.length > 0) {
-    lines.push('');
-    lines.push('Warnings:');
-    for (const warning of result.warnings) {
-      const ids = warning.ids && warning.ids.length > 0 ? ` [ids: ${warning.ids.join(', ')}]` : '';
-      lines.push(`  - ${warning.cliMessage ?? warning.message}${ids}`);
-    }
-  }
   lines.push('');
   lines.push(
     'Caution: significance is not cause, and results depend on data quality; for disease or crime patterns ' +

@@ -1,10 +1,11 @@
 /**
  * The gridshake command line: a table of commands, shared help and error handling.
  * Exit codes: 0 done, 1 a user error (bad input or parameter, message on stderr) or any other failure (one line,
- * see unexpected-error.ts), 2 a bad command line.
+ * see unexpected-error.ts), 2 a bad command line or a plan whose Monte Carlo test could never reject
+ * (GS_ERR_TOO_FEW_SIMS, CLI_EXIT_CODES).
  * To add a command, import it and add one line to COMMANDS.
  */
-import { isGridshakeError } from '../errors.js';
+import { CLI_EXIT_CODES, isGridshakeError } from '../errors.js';
 import { optionHelp, parseOptions, UsageError } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { countCommand } from './count-command.js';
@@ -59,7 +60,7 @@ export async function runCli(argv: string[], io: CliIo = PROCESS_IO): Promise<nu
     }
     if (isGridshakeError(error)) {
       io.stderr(`gridshake: ${error.cliMessage}\n`);
-      return 1;
+      return CLI_EXIT_CODES[error.code] ?? 1;
     }
     io.stderr(unexpectedErrorText(error));
     return 1;

@@ -94,10 +94,11 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows)],
     ]);
+    // warnings first: a warning that makes a p-value meaningless is read before the p-value; the dataset's
+    // warnings (first in the list) in the command line's words
+    summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
     io.stdout(`${lines.join('\n')}\n`);
-    // the dataset's warnings come first, in the command line's words
-    summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));
     io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
     return 0;
   } catch (error) {

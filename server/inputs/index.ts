@@ -1,5 +1,5 @@
 export { loadDataset, type DatasetInput, type DatasetOptions } from './load-dataset.js';
-export { summarizeDataset, cellSideFor, CELL_SIZE_RULES } from './summarize-dataset.js';
+export { summarizeDataset, CELL_SIZE_RULES } from './summarize-dataset.js';
 export type { InputFile } from './input-file.js';
 export { laeaDefinition } from './coordinate-system.js';
 export { signedRingArea, polygonArea, multiPolygonArea } from './planar-rings.js';

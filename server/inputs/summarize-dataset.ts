@@ -1,5 +1,6 @@
 /** summarizeDataset: counts, areas and suggested cell sizes of a loaded dataset, for the API and the CLI. */
 import type { Dataset, DatasetSummary } from '../contracts.js';
+import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 import { multiPolygonArea, multiPolygonBBox } from './planar-rings.js';
 
 /**
@@ -12,11 +13,6 @@ export const CELL_SIZE_RULES: readonly { perCell: number; rule: string }[] = [
   { perCell: 2, rule: 'cell area 2A/n, about 2 points per cell (common practice)' },
   { perCell: 5, rule: 'about 5 points per cell: expected counts >= 5 for the chi-square test (common practice)' },
 ];
-
-/** Cell side for k expected points per cell: side = sqrt(k * validArea / nInside). */
-export function cellSideFor(perCell: number, validArea: number, nInside: number): number {
-  return Math.sqrt((perCell * validArea) / nInside);
-}
 
 export function summarizeDataset(dataset: Dataset): DatasetSummary {
   const nInside = dataset.inside.length;
@@ -34,7 +30,7 @@ export function summarizeDataset(dataset: Dataset): DatasetSummary {
     warnings: dataset.warnings,
     suggestedCellSizes: CELL_SIZE_RULES.map(({ perCell, rule }) => ({
       perCell,
-      cellSize: cellSideFor(perCell, validArea, nInside),
+      cellSize: cellSizeForExpected(perCell, validArea, nInside),
       rule,
     })),
   };

@@ -3,6 +3,7 @@
  * flat open rings, shells counter-clockwise, holes clockwise, signed areas adding up to `area`.
  */
 import type { BBox, Region } from '../../workers/types.js';
+import { ringSignedArea } from '../../workers/geometry/ring-area.js';
 import { signedRingArea } from './planar-rings.js';
 
 function flatOpenRing(ring: number[][], counterClockwise: boolean): Float64Array {
@@ -20,18 +21,6 @@ function flatOpenRing(ring: number[][], counterClockwise: boolean): Float64Array
   return flat;
 }
 
-function flatSignedArea(ring: Float64Array): number {
-  const n = ring.length / 2;
-  const x0 = ring[0];
-  const y0 = ring[1];
-  let twice = 0;
-  for (let k = 0; k < n; k += 1) {
-    const next = (k + 1) % n;
-    twice += (ring[2 * k] - x0) * (ring[2 * next + 1] - y0) - (ring[2 * next] - x0) * (ring[2 * k + 1] - y0);
-  }
-  return twice / 2;
-}
-
 export function toRegion(multi: number[][][][]): Region {
   const rings: Float64Array[] = [];
   const bbox: BBox = { minX: Infinity, minY: Infinity, maxX: -Infinity, maxY: -Infinity };
@@ -40,7 +29,7 @@ export function toRegion(multi: number[][][][]): Region {
     polygon.forEach((ring, index) => {
       const flat = flatOpenRing(ring, index === 0);
       rings.push(flat);
-      area += flatSignedArea(flat);
+      area += ringSignedArea(flat);
       if (index === 0) {
         for (let k = 0; k < flat.length; k += 2) {
           bbox.minX = Math.min(bbox.minX, flat[k]);

@@ -3,6 +3,7 @@
  * cells were handled, how the p-values were calibrated, with the references. Plain text; the renderer escapes it.
  */
 import type { SweepSummary } from '../contracts.js';
+import { OVERALL_TEST_METHOD } from '../summary/overall-test.js';
 import { formatMetres, formatNumber } from '../../client/src/charts/format.js';
 
 export interface Reference {
@@ -66,7 +67,8 @@ function calibrationText(summary: SweepSummary): string {
   const { plan, dataset } = summary;
   if (plan.sims <= 0) {
     return (
-      'No CSR simulations were run: the per-placement p-values come from the chi-square distribution and are not ' +
+      'No CSR simulations were run, so no test of the sweep as a whole was made: the results are per-placement evidence. ' +
+      'The per-placement p-values come from the chi-square distribution and are not ' +
       'corrected for the choice among placements, so a significant result on some grids does not make the pattern ' +
       'significant.'
     );
@@ -77,7 +79,8 @@ function calibrationText(summary: SweepSummary): string {
     'the same placements as the data. The placement-robust p-value for clustering is (1 + number of simulated ' +
     'medians of chi-square / df at or above the observed median) / (R + 1), with R the number of simulations, and ' +
     'likewise at or below for regularity; the same test on the maximum across placements answers the worst case ' +
-    'of picking the most striking grid. The CSR envelope is the 2.5 to 97.5 % range of the simulated medians. ' +
+    'of picking the most striking grid. These per-size p-values each test one size. ' + OVERALL_TEST_METHOD + ' ' +
+    'The CSR envelope is the 2.5 to 97.5 % range of the simulated medians. ' +
     `The random seed was ${plan.seed}, so the run can be repeated exactly.`
   );
 }

@@ -66,7 +66,7 @@ export function renderReport(summary: SweepSummary, rows: PlacementRow[]): strin
 <h1>${escapeHtml(title)}</h1>
 <p class="meta">Quadrat test over ${summary.plan.placements} grid placements and ${summary.sizes.length} cell size${summary.sizes.length === 1 ? '' : 's'}; seed ${summary.plan.seed}; finished ${escapeHtml(summary.timings.finishedAt)}.</p>
 <section class="cautions" aria-label="Cautions"><h2>Read before you act on these results</h2><ul>${CAUTIONS.map((caution) => `<li>${escapeHtml(caution)}</li>`).join('')}</ul></section>
-<section><h2>Conclusion</h2><p class="conclusion">${escapeHtml(summary.conclusion)}</p>${warnings}</section>
+<section><h2>Conclusion</h2>${warnings}<p class="conclusion">${escapeHtml(summary.conclusion)}</p></section>
 ${datasetSection(summary)}
 ${planSection(summary)}
 <section><h2>Results across cell sizes</h2>${sizeTable(summary)}${overview.map(figure).join('\n')}</section>

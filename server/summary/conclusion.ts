@@ -1,4 +1,5 @@
-import type { MonteCarloResult, SizeSummary } from '../contracts.js';
+import type { MonteCarloResult, OverallTest, SizeSummary } from '../contracts.js';
+import { formatPValue, pPhrase } from '../../shared/p-value.js';
 import type { Verdict } from '../../workers/types.js';
 
 /** Agreement below this share means the verdict depends on where the grid falls (our choice, stated in the text). */
@@ -18,9 +19,9 @@ export function formatShare(share: number): string {
   return `${percent} %`;
 }
 
-/** A p-value with two significant digits (0.01, 0.23, 0.0050). */
+/** A p-value for text (shared/p-value.ts: "< 1e-300" below the smallest double, never "0"). */
 export function formatP(p: number): string {
-  return Number.isFinite(p) ? String(Number(p.toPrecision(2))) : 'n/a';
+  return formatPValue(p);
 }
 
 /** A length in metres with at most 4 significant digits. */
@@ -29,7 +30,7 @@ export function formatMetres(metres: number): string {
 }
 
 function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string {
-  const sims = `R = ${monteCarlo.sims}`;
+  const sims = `R = ${monteCarlo.sims}, this size only`;
   if (verdict === 'regular') {
     return `Monte Carlo p = ${formatP(monteCarlo.pMedianRegular)} on the median chi2/df, ${formatP(monteCarlo.pMinRegular)} on the minimum (${sims})`;
   }
@@ -49,28 +50,35 @@ export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string
   const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
   if (others.length > 0) parts[0] += ` (${others.map((v) => `${VERDICT_WORDS[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
   if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));
-  else parts.push('no Monte Carlo test (sims = 0)');
+  else parts.push('per-placement evidence only, no Monte Carlo test (sims = 0)');
   return parts.join('; ');
 }
 
 /**
- * The overall conclusion across cell sizes: at how many sizes the placement-robust Monte Carlo test on the median
- * rejects CSR at alpha (for clustering or regularity), or without sims what most placements say, and at how many
- * sizes the verdict depends on the placement (agreement below LOW_AGREEMENT).
+ * The overall conclusion across cell sizes. With sims: the result of the one overall Monte Carlo test across sizes
+ * and both tails (overall-test.ts), the only sentence that claims significance for the sweep as a whole; the
+ * per-size p-values stay in the per-size conclusions, labelled per size. Without sims: what most placements say,
+ * labelled as per-placement evidence, not a test (shared/monte-carlo-rule.ts). Then at how many sizes the verdict
+ * depends on the placement (agreement below LOW_AGREEMENT).
  */
-export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'>[], alpha: number): string {
+export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'>[], alpha: number,
+  overall: OverallTest | null = null): string {
   const total = sizes.length;
   const sentences: string[] = [];
-  if (total > 0 && sizes.every((size) => size.monteCarlo)) {
-    const clustered = sizes.filter((size) => (size.monteCarlo as MonteCarloResult).pMedianClustered <= alpha).length;
-    const regular = sizes.filter((size) => (size.monteCarlo as MonteCarloResult).pMedianRegular <= alpha).length;
-    if (clustered === 0 && regular === 0) {
-      sentences.push(`The placement-robust Monte Carlo test finds no departure from CSR at alpha ${alpha} at any of ${total} cell sizes`);
+  const sizesWords = total === 1 ? 'the 1 cell size' : `all ${total} cell sizes`;
+  if (overall !== null) {
+    const pText = pPhrase(overall.p);
+    if (overall.rejects) {
+      const kind = overall.direction === 'regular' ? 'regularity' : 'clustering';
+      sentences.push(
+        `The overall Monte Carlo test across ${sizesWords} and both tails finds a departure from CSR at alpha ${alpha} ` +
+          `(${pText}, R = ${overall.sims}): ${kind}, most marked at ${formatMetres(overall.strongestCellSize)} m cells`,
+      );
     } else {
-      const found: string[] = [];
-      if (clustered > 0) found.push(`clustering at ${clustered} of ${total} cell sizes`);
-      if (regular > 0) found.push(`regularity at ${regular} of ${total} cell sizes`);
-      sentences.push(`The placement-robust Monte Carlo test (median chi2/df across placements) finds ${found.join(' and ')} at alpha ${alpha}`);
+      sentences.push(
+        `The overall Monte Carlo test across ${sizesWords} and both tails finds no departure from CSR at alpha ${alpha} ` +
+          `(${pText}, R = ${overall.sims})`,
+      );
     }
   } else {
     const counts: Record<Verdict, number> = { clustered: 0, regular: 0, csr: 0 };
@@ -78,7 +86,7 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
     const words = (['clustered', 'regular', 'csr'] as Verdict[])
       .filter((v) => counts[v] > 0)
       .map((v) => `${VERDICT_WORDS[v]} at ${counts[v]} of ${total} cell sizes`);
-    sentences.push(`Most placements say ${words.join(', ')} at alpha ${alpha}; run with sims > 0 for a placement-robust p-value`);
+    sentences.push(`Per-placement evidence only, not a test (sims = 0): most placements say ${words.join(', ')} at alpha ${alpha}; run with sims > 0 for a Monte Carlo test`);
   }
   const unstable = sizes.filter((size) => size.agreement < LOW_AGREEMENT).length;
   if (unstable > 0) {

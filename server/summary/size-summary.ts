@@ -3,6 +3,7 @@ import { sizeConclusion } from './conclusion.js';
 import { quantiles, median } from './quantiles.js';
 import { extremeIndices, referenceRank } from './reference-rank.js';
 import { verdictShares } from './verdict-shares.js';
+import { withLogPValues } from './log-p-values.js';
 
 /**
  * Summary of one cell size from its placement rows (placement 0 is the reference placement, angle 0, offset 0,0):
@@ -29,11 +30,11 @@ export function summarizeSize(rows: readonly PlacementRow[], monteCarlo: MonteCa
     verdictShares: shares.shares,
     mostCommon: shares.mostCommon,
     agreement: shares.agreement,
-    reference: rows[referenceIndex],
+    reference: withLogPValues(rows[referenceIndex]),
     referenceRank: rank.rank,
     referenceInTail: rank.inTail,
-    lowestVmr: rows[extremes.lowest < 0 ? referenceIndex : extremes.lowest],
-    highestVmr: rows[extremes.highest < 0 ? referenceIndex : extremes.highest],
+    lowestVmr: withLogPValues(rows[extremes.lowest < 0 ? referenceIndex : extremes.lowest]),
+    highestVmr: withLogPValues(rows[extremes.highest < 0 ? referenceIndex : extremes.highest]),
     monteCarlo,
   };
   return { ...summary, conclusion: sizeConclusion(summary) };

@@ -1,5 +1,6 @@
 import type { DatasetSummary, Plan, SizeSummary, SweepSummary } from '../contracts.js';
 import { overallConclusion } from './conclusion.js';
+import { overallMonteCarloTest } from './overall-test.js';
 import { sweepWarnings } from './sweep-warnings.js';
 
 export interface SweepSummaryInput {
@@ -13,11 +14,16 @@ export interface SweepSummaryInput {
 
 /** Assembles the summary of a whole sweep: per-size summaries, overall conclusion, warnings, versions, timings. */
 export function buildSweepSummary(input: SweepSummaryInput): SweepSummary {
+  const withSims = input.sizes.length > 0 && input.sizes.every((size) => size.monteCarlo !== null);
+  const overallTest = withSims
+    ? overallMonteCarloTest(input.sizes.map((size) => ({ cellSize: size.cellSize, monteCarlo: size.monteCarlo! })), input.plan.alpha)
+    : null;
   return {
     plan: input.plan,
     dataset: input.dataset,
     sizes: input.sizes,
-    conclusion: overallConclusion(input.sizes, input.plan.alpha),
+    overallTest,
+    conclusion: overallConclusion(input.sizes, input.plan.alpha, overallTest),
     warnings: sweepWarnings(input.dataset, input.sizes),
     versions: input.versions,
     timings: {

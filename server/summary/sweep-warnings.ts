@@ -1,8 +1,6 @@
 import type { DatasetSummary, SizeSummary } from '../contracts.js';
+import { RULE_OF_5_EXPECTED } from '../../workers/stats/expected-per-cell.js';
 import { formatMetres, formatShare } from './conclusion.js';
-
-/** Expected points per whole cell below which the chi-square approximation is doubtful (common practice: 5). */
-export const RULE_OF_5 = 5;
 
 /**
  * Warnings of a sweep in plain words: the dataset's input warnings, a reference (default) grid whose vmr ranks in
@@ -21,9 +19,9 @@ export function sweepWarnings(dataset: DatasetSummary, sizes: readonly SizeSumma
           'a default grid would have given an unrepresentative answer',
       );
     }
-    if (size.expectedPerCell < RULE_OF_5) {
+    if (size.expectedPerCell < RULE_OF_5_EXPECTED) {
       warnings.push(
-        `${label}: ${size.expectedPerCell.toPrecision(3)} expected points per cell, fewer than ${RULE_OF_5} ` +
+        `${label}: ${size.expectedPerCell.toPrecision(3)} expected points per cell, fewer than ${RULE_OF_5_EXPECTED} ` +
           '(common practice); the chi-square p-values of single placements are approximate, prefer the Monte Carlo p-values',
       );
     }

@@ -4,8 +4,9 @@
  * Every bad value is a GS_ERR_PARAMETER error naming the field and the allowed range.
  */
 import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../contracts.js';
-import { parameterError } from '../errors.js';
+import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
+import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 
 /** Allowed ranges of the plan fields (shared with the HTTP schema and the CLI help). */
@@ -63,7 +64,9 @@ function sizeList(name: 'cells' | 'perCell', value: unknown): number[] {
 /**
  * Validates a plan and fills in the defaults of DEFAULT_PLAN. Exactly one of `cells` (metres) or `perCell`
  * (expected points per cell) must be given. Unknown fields are refused so that typos do not pass silently.
- * @throws GridshakeError GS_ERR_PARAMETER naming the field and its allowed range
+ * A plan whose Monte Carlo test could never reject (1/(R+1) > alpha with R = sims > 0) is refused with
+ * GS_ERR_TOO_FEW_SIMS (shared/monte-carlo-rule.ts).
+ * @throws GridshakeError GS_ERR_PARAMETER naming the field and its allowed range, or GS_ERR_TOO_FEW_SIMS
  */
 export function normalizePlan(input: unknown): Plan {
   if (!isRecord(input)) throw parameterError(`plan must be an object, got ${JSON.stringify(input)}`);
@@ -98,6 +101,12 @@ export function normalizePlan(input: unknown): Plan {
   };
   if (hasCells) plan.cells = sizeList('cells', input.cells);
   else plan.perCell = sizeList('perCell', input.perCell);
+  const refusal = tooFewSimsMessage(plan.sims, plan.alpha);
+  if (refusal !== null) {
+    // the rule's sentence starts "sims R is too few ...": the field named per audience
+    const rest = refusal.replace(/^sims /, '');
+    throw tooFewSimsError(twoWays(`--sims ${rest}`, `${fieldRef('sims')}: ${rest}`));
+  }
   return plan;
 }
 

@@ -1,6 +1,13 @@
 /** Plain-text tables for the benchmark output. */
 export type Cell = string | number;
 
+/** Where the tables go: stdout, or stderr when `--json` keeps stdout for the JSON object. */
+let tableStream: NodeJS.WritableStream = process.stdout;
+
+export function sendTablesTo(stream: NodeJS.WritableStream): void {
+  tableStream = stream;
+}
+
 function show(value: Cell): string {
   if (typeof value === 'string') return value;
   if (!Number.isFinite(value)) return 'n/a';
@@ -12,8 +19,8 @@ export function printTable(title: string, header: string[], rows: Cell[][]): voi
   const text = [header, ...rows.map((row) => row.map(show))];
   const widths = header.map((_, column) => Math.max(...text.map((row) => row[column].length)));
   const line = (row: string[]): string => row.map((cell, column) => cell.padEnd(widths[column])).join('  ');
-  process.stdout.write(`\n${title}\n${line(text[0])}\n${widths.map((w) => '-'.repeat(w)).join('  ')}\n`);
-  for (const row of text.slice(1)) process.stdout.write(`${line(row)}\n`);
+  tableStream.write(`\n${title}\n${line(text[0])}\n${widths.map((w) => '-'.repeat(w)).join('  ')}\n`);
+  for (const row of text.slice(1)) tableStream.write(`${line(row)}\n`);
 }
 
 /** Wall time of fn in seconds: the best of `repeats` runs. */

@@ -14,8 +14,9 @@ describe('format helpers', () => {
     expect(formatMetres(249.6)).toBe('250 m');
     expect(formatMetres(7.25)).toBe('7.3 m');
     expect(formatPercent(0.843)).toBe('84 %');
-    expect(formatP(0.0004)).toBe('< 0.001');
-    expect(formatP(0.01)).toBe('0.010');
+    expect(formatP(0.0004)).toBe('0.0004');
+    expect(formatP(0.01)).toBe('0.01');
+    expect(formatP(0)).toBe('< 1e-300');
     expect(formatDuration(185)).toBe('3 min 05 s');
     expect(formatDuration(42.4)).toBe('42 s');
     expect(formatDuration(null)).toBe('-');

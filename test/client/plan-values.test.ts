@@ -32,6 +32,15 @@ describe('readPlan(values)', () => {
     expect(rest).toEqual({ ...DEFAULT_PLAN });
   });
 
+  it('shows the smallest number of simulations that can reject at the chosen alpha (1/(R+1) <= alpha)', () => {
+    const reading = readPlan(form({ sims: '9', alpha: '0.05' }));
+    expect(reading.plan).toBeNull();
+    expect(reading.errors.join(' ')).toContain('use at least 19');
+    expect(readPlan(form({ sims: '9', alpha: '0.01' })).errors.join(' ')).toContain('use at least 99');
+    expect(readPlan(form({ sims: '0' })).errors).toEqual([]);
+    expect(readPlan(form({ sims: '19' })).errors).toEqual([]);
+  });
+
   it('names every field at fault', () => {
     const reading = readPlan(form({ extraSides: 'ten', placements: '2.5', minCoverage: '0', alpha: '0.7', sims: '-1', seed: 'x' }));
     expect(reading.plan).toBeNull();

@@ -18,7 +18,7 @@ describe('sizeNumbers(size)', () => {
       'Chi-square / df: median 1.6, 5-95 % of placements 1 to 2.3.',
       'Verdicts: 75 % clustered, 25 % no departure from CSR, 0 % regular; agreement 75 %.',
       'Reference grid: VMR 2.35, verdict clustered, 97 % of placements have a lower VMR (in the tail: the default grid is not typical).',
-      'Monte Carlo (99 CSR patterns): p = 0.010 for clustering and 1.000 for regularity on the median; p < 0.001 on the maximum.',
+      'Monte Carlo (99 CSR patterns): p = 0.01 for clustering and 1 for regularity on the median; p = 0.0004 on the maximum.',
     ]);
   });
 

@@ -9,7 +9,7 @@ let close: () => Promise<void>;
 let heath: { id: string; nInside?: unknown; [key: string]: unknown };
 let doneSweep: Record<string, unknown>;
 
-const SMALL_PLAN = { cells: [80, 120], placements: 16, rotation: true, sims: 9, seed: 7 };
+const SMALL_PLAN = { cells: [80, 120], placements: 16, rotation: true, sims: 9, alpha: 0.1, seed: 7 };
 /** Large enough to be caught running: 360 points x 8192 placements x 2 sizes x 100 patterns. */
 const LONG_PLAN = { cells: [60, 90], placements: 8192, rotation: true, sims: 99, seed: 3 };
 
@@ -80,6 +80,14 @@ describe('POST /api/sweeps', () => {
     expect(huge.statusCode).toBe(400);
     expect(huge.json().message).toMatch(/^cell side 1 gives cells of 5000 m/);
     expect((await app.inject({ method: 'GET', url: '/api/sweeps' })).json().length).toBe(before);
+  });
+
+  // With R simulations no Monte Carlo p is below 1/(R+1) (Besag & Diggle 1977): R = 9 cannot reject at alpha 0.05
+  it('refuses a plan whose Monte Carlo test could never reject with GS_ERR_TOO_FEW_SIMS (400), naming the least R', async () => {
+    const response = await app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId: heath.id, plan: { ...SMALL_PLAN, alpha: 0.05, sims: 9 } } });
+    expect(response.statusCode).toBe(400);
+    expect(response.json().code).toBe('GS_ERR_TOO_FEW_SIMS');
+    expect(response.json().message).toContain('at least 19');
   });
 
   it('refuses a body that is not JSON, or empty, with GS_ERR_VALIDATION', async () => {

@@ -107,7 +107,7 @@ describe('SIGKILL and restart', () => {
     server = await start();
     const survey = await upload(smallDatasetParts(21, 'pond survey'));
     const bulky = await upload(bulkyParts(1));
-    const finishedSweep = (await post('/api/sweeps', { datasetId: survey.id, plan: { cells: [120, 200], placements: 32, sims: 9 } })).id;
+    const finishedSweep = (await post('/api/sweeps', { datasetId: survey.id, plan: { cells: [120, 200], placements: 32, sims: 9, alpha: 0.1 } })).id;
     await waitFor(finishedSweep, (r) => r.status === 'done');
     const datasets = new Map<string, string>([[survey.id, await datasetDigest(survey.id)], [bulky.id, await datasetDigest(bulky.id)]]);
     const sweeps = new Map<string, string>([[finishedSweep, await sweepDigest(finishedSweep)]]);
@@ -154,7 +154,7 @@ describe('SIGKILL and restart', () => {
     }
     const kills = duringSweep + duringUpload;
     // the interrupted sweep can be run again to completion after all this
-    const rerun = (await post('/api/sweeps', { datasetId: survey.id, plan: { cells: [120, 200], placements: 32, sims: 9 } })).id;
+    const rerun = (await post('/api/sweeps', { datasetId: survey.id, plan: { cells: [120, 200], placements: 32, sims: 9, alpha: 0.1 } })).id;
     await waitFor(rerun, (r) => r.status === 'done');
     expect(await text(`/api/sweeps/${rerun}/placements.csv`)).toBe(await text(`/api/sweeps/${finishedSweep}/placements.csv`));
     console.log(

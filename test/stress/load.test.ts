@@ -72,7 +72,7 @@ describe('load while a large sweep computes', () => {
     const finished = await fetch(`${server.base}/api/sweeps`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ datasetId: small.id, plan: { cells: [150, 250], placements: 16, sims: 9 } }),
+      body: JSON.stringify({ datasetId: small.id, plan: { cells: [150, 250], placements: 16, sims: 9, alpha: 0.1 } }),
     });
     const finishedId = ((await finished.json()) as { id: string }).id;
     for (let k = 0; k < 200; k += 1) {

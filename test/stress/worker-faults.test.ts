@@ -30,7 +30,7 @@ module.exports = function faultyTask(task) {
 `;
 
 async function startSweep(cells: number[]): Promise<string> {
-  const response = await app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId, plan: { cells, placements: 8, sims: 4 } } });
+  const response = await app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId, plan: { cells, placements: 8, sims: 4, alpha: 0.2 } } });
   expect(response.statusCode).toBe(202);
   return response.json().id as string;
 }

@@ -1,3 +1,4 @@
+import type { OverallTest } from '../../server/contracts.js';
 import { describe, it, expect } from 'vitest';
 import type { MonteCarloResult } from '../../server/contracts.js';
 import { overallConclusion, sizeConclusion, formatShare } from '../../server/summary/conclusion.js';
@@ -71,7 +72,7 @@ describe('summarizeSize', () => {
     expect(summary.highestVmr.placementIndex).toBe(1);
     expect(summary.conclusion).toBe(
       '100 m cells: clustered in 75 % of 4 placements (no departure from CSR in 25 %); ' +
-        'Monte Carlo p = 0.01 on the median chi2/df, 0.02 on the maximum (R = 99)',
+        'Monte Carlo p = 0.01 on the median chi2/df, 0.02 on the maximum (R = 99, this size only)',
     );
   });
 
@@ -94,13 +95,21 @@ describe('conclusions', () => {
     expect(formatShare(1)).toBe('100 %');
   });
 
-  it('says at how many sizes the Monte Carlo test rejects and where the verdict is unstable', () => {
+  it('states the one overall test across sizes and tails, and where the verdict is unstable', () => {
     const stable = summarizeSize([placementRow(0, 2, 'clustered'), placementRow(1, 2, 'clustered')], monteCarlo(0.01, 0.01));
     const unstable = summarizeSize([placementRow(0, 1, 'csr', 1, 50), placementRow(1, 2, 'clustered', 1, 50)], monteCarlo(0.3, 0.1));
-    expect(overallConclusion([stable, unstable], 0.05)).toBe(
-      'The placement-robust Monte Carlo test (median chi2/df across placements) finds clustering at 1 of 2 cell sizes at alpha 0.05. ' +
+    const overall: OverallTest = { method: 'monte-carlo-max-standardized-median', statistic: 3.1, p: 0.01, sims: 99, alpha: 0.05,
+      canReject: true, rejects: true, direction: 'clustered', strongestCellSize: 100 };
+    expect(overallConclusion([stable, unstable], 0.05, overall)).toBe(
+      'The overall Monte Carlo test across all 2 cell sizes and both tails finds a departure from CSR at alpha 0.05 ' +
+        '(p = 0.01, R = 99): clustering, most marked at 100 m cells. ' +
         'The verdict depends on where the grid falls at 1 of 2 cell sizes (agreement below 90 %).',
     );
+    expect(overallConclusion([stable], 0.05, { ...overall, p: 0.3, rejects: false, direction: 'csr' })).toMatch(
+      /^The overall Monte Carlo test across the 1 cell size and both tails finds no departure from CSR at alpha 0.05 \(p = 0.3, R = 99\)/,
+    );
+    // without sims: labelled as per-placement evidence, not a test
+    expect(overallConclusion([stable, unstable], 0.05, null)).toMatch(/^Per-placement evidence only, not a test \(sims = 0\)/);
     expect(sizeConclusion({ ...stable, monteCarlo: null })).toContain('no Monte Carlo test (sims = 0)');
   });
 });

@@ -44,7 +44,7 @@ describe('gridshake sweep (compiled command)', () => {
     // stdout: one conclusion per size, then the overall conclusion
     expect(stdout).toMatch(/^80 m cells: clustered in 100 % of 40 placements; Monte Carlo p = 0\.05 on the median chi2\/df/m);
     expect(stdout).toMatch(/^140 m cells: clustered/m);
-    expect(stdout).toContain('finds clustering at 2 of 2 cell sizes at alpha 0.05');
+    expect(stdout).toContain('The overall Monte Carlo test across all 2 cell sizes and both tails finds a departure from CSR at alpha 0.05 (p = 0.05, R = 19): clustering');
     expect(stderr).toMatch(/\[#+\] 100 % 80\/80 placements/);
 
     const csvText = readFileSync(join(out, 'placements.csv'), 'utf8');

@@ -54,7 +54,7 @@ describe('SweepPool.runSweep', () => {
     const asIs: Dataset = { ...uniform, xy, inside, ids: Array.from({ length: inside.length }, (_, k) => `s${k}`), outsideIds: [] };
     expect(isShareableAsIs(asIs)).toBe(true);
     expect(isShareableAsIs(uniform)).toBe(false);
-    const plan = normalizePlan({ cells: [90], placements: 40, sims: 5 });
+    const plan = normalizePlan({ cells: [90], placements: 40, sims: 5, alpha: 0.2 });
     const [copied, shared] = await Promise.all([double.runSweep(uniform, plan), double.runSweep(asIs, plan)]);
     expect(shared.rows).toEqual(copied.rows);
     expect(shared.summary.sizes[0].monteCarlo).toEqual(copied.summary.sizes[0].monteCarlo);
@@ -159,7 +159,7 @@ describe('SweepPool cancellation and failures', () => {
     expect((failure as Error).name).toBe('AbortError');
     expect((failure as Error).message).toBe('the sweep was cancelled');
     expect(stoppedAfter).toBeLessThan(1000);
-    const after = await double.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 3 }));
+    const after = await double.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 3, alpha: 0.25 }));
     expect(after.rows).toHaveLength(8);
   });
 
@@ -176,10 +176,10 @@ describe('SweepPool cancellation and failures', () => {
     );
     const pool = new SweepPool({ threads: 2, filename });
     try {
-      await expect(pool.runSweep(uniform, normalizePlan({ cells: [90, 13], placements: 16, sims: 2 }))).rejects.toThrow(
+      await expect(pool.runSweep(uniform, normalizePlan({ cells: [90, 13], placements: 16, sims: 2, alpha: 0.5 }))).rejects.toThrow(
         'engine failure at 13 m cells',
       );
-      const after = await pool.runSweep(uniform, normalizePlan({ cells: [90], placements: 16, sims: 2 }));
+      const after = await pool.runSweep(uniform, normalizePlan({ cells: [90], placements: 16, sims: 2, alpha: 0.5 }));
       expect(after.summary.sizes).toHaveLength(1);
       expect(after.rows).toHaveLength(16);
     } finally {

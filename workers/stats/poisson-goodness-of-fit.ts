@@ -1,7 +1,7 @@
-import gammainc from '@stdlib/math-base-special-gammainc';
 import type { FrequencyClass, PoissonFit } from '../types.js';
 import type { CellSums } from './cell-sums.js';
 import { chiSquareUpperTail } from './chi-square.js';
+import { regularizedGammaP } from './incomplete-gamma.js';
 
 /** A frequency class before labelling: counts lowest..highest, highest = Infinity for the open class. */
 export interface CountClass {
@@ -44,7 +44,7 @@ function addPoissonRow(expected: Float64Array, cellExpected: number, cells: numb
 /** P(X >= K) for X ~ Poisson(lambda), given p_(K-1) (NaN when unknown). */
 function openClassProbability(lambda: number, openClassFrom: number, previousProbability: number): number {
   if (openClassFrom === 0) return 1;
-  if (openClassFrom <= lambda || !(previousProbability > 0)) return gammainc(lambda, openClassFrom);
+  if (openClassFrom <= lambda || !(previousProbability > 0)) return regularizedGammaP(openClassFrom, lambda);
   let term = (previousProbability * lambda) / openClassFrom;
   let tail = 0;
   for (let k = openClassFrom; term > tail * 1e-17; k++) {

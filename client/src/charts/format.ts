@@ -1,4 +1,5 @@
 /** Number formatting shared by the page, the charts and the report (plain ASCII, no locale surprises). */
+import { formatPValue, pPhrase as sharedPPhrase } from '../../../shared/p-value.js';
 
 /** A number with `digits` significant digits, trailing zeros removed; '-' for null or non-finite. */
 export function formatNumber(value: number | null | undefined, digits = 3): string {
@@ -30,11 +31,9 @@ export function formatPercent(share: number): string {
   return `${Math.round(share * 100)} %`;
 }
 
-/** A p-value: three decimals, or "< 0.001". */
+/** A p-value (shared/p-value.ts, the one formatter of CLI, report and page): "0.0123", "3.65e-202", "< 1e-300". */
 export function formatP(p: number | null | undefined): string {
-  if (p === null || p === undefined || !Number.isFinite(p)) return '-';
-  if (p < 0.001) return '< 0.001';
-  return p.toFixed(3);
+  return formatPValue(p);
 }
 
 /** Seconds as "42 s", "3 min 05 s" or "1 h 02 min". */
@@ -47,8 +46,7 @@ export function formatDuration(seconds: number | null | undefined): string {
   return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`;
 }
 
-/** "p = 0.012" or "p < 0.001". */
+/** "p = 0.012" or "p < 1e-300". */
 export function pPhrase(p: number | null | undefined): string {
-  const text = formatP(p);
-  return text.startsWith('<') ? `p ${text}` : `p = ${text}`;
+  return sharedPPhrase(p);
 }

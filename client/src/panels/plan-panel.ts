@@ -3,6 +3,7 @@
  * with room for more), placements, design, rotation, minCoverage, alpha, sims and seed; a live cost estimate and
  * the budget refusal before anything starts.
  */
+import { smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
 import { api, ApiError } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
 import { formatNumber } from '../charts/format.js';
@@ -90,7 +91,7 @@ function buildForm(container: HTMLElement, store: Store): void {
         field('Placement design', design),
         field('minCoverage (0-1)', minCoverage, 'Cells with less of their area in the valid region are left out; 1 = whole cells only.'),
         field('alpha (two-sided)', alpha),
-        field('CSR simulations', sims, '0 = no Monte Carlo calibration.'),
+        field('CSR simulations', sims, `At least ${smallestWorkingSims(0.05)} at alpha 0.05, ${smallestWorkingSims(0.01)} at 0.01 (no p-value below 1/(R+1)); 0 = per-placement evidence only, no test.`),
         field('Seed', seed),
       ),
       el('div', { class: 'check-row' }, rotation, el('label', { for: rotation.id }, 'Rotate the grids (angles 0 to 90 degrees)')),

@@ -113,8 +113,10 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
     sizeSelect.addEventListener('change', () => store.update({ sizeIndex: Number(sizeSelect.value) }));
     clear(
       container,
-      el('div', { class: 'conclusion-box' }, el('h3', {}, 'In plain words'), el('p', { class: 'conclusion', 'data-testid': 'overall-conclusion' }, summary.conclusion),
-        summary.warnings.length > 0 ? el('ul', { class: 'warning-list', 'aria-label': 'Warnings about this run' }, ...summary.warnings.map((warning) => el('li', {}, warning))) : null),
+      // warnings first: a warning that makes a p-value meaningless is read before the p-value
+      el('div', { class: 'conclusion-box' }, el('h3', {}, 'In plain words'),
+        summary.warnings.length > 0 ? el('ul', { class: 'warning-list', 'aria-label': 'Warnings about this run' }, ...summary.warnings.map((warning) => el('li', {}, warning))) : null,
+        el('p', { class: 'conclusion', 'data-testid': 'overall-conclusion' }, summary.conclusion)),
       el('h3', {}, 'All cell sides'),
       field('Spread shown', measureSelect),
       overviewBox,

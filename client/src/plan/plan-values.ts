@@ -4,6 +4,7 @@
  * the plan again; this only lets the page refuse early and say why.
  */
 import type { Plan, PlacementDesign } from '../../../server/contracts.js';
+import { simsCanReject, smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
 
 export interface PlanFormValues {
   /** suggested or typed cell sides: text of the number field and whether it is included */
@@ -58,6 +59,9 @@ export function readPlan(values: PlanFormValues): PlanReading {
   const alpha = numberIn('alpha', values.alpha, (value) => value > 0 && value <= 0.5, 'a number above 0 and at most 0.5', errors);
   const sims = numberIn('CSR simulations', values.sims, (value) => integer(value) && value >= 0 && value <= 9999, 'a whole number from 0 to 9999', errors);
   const seed = numberIn('Seed', values.seed, (value) => Number.isSafeInteger(value), 'a whole number', errors);
+  if (errors.length === 0 && sims > 0 && !simsCanReject(sims, alpha)) {
+    errors.push(`CSR simulations: ${sims} is too few for a test at alpha ${alpha} (no p-value below 1/(R+1)); use at least ${smallestWorkingSims(alpha)}, or 0 for per-placement evidence without a test`);
+  }
   if (errors.length > 0) return { plan: null, errors: [...new Set(errors)] };
   return { plan: { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed }, errors };
 }
