@@ -113,7 +113,8 @@ describe('engine properties through the sweep pool', () => {
     for (const [s, sims, seed] of samples) {
       const { dataset } = build(s);
       const side = Math.sqrt(dataset.region.area / 12);
-      const plan = normalizePlan({ cells: [side, side / 2], placements: 6, sims, seed, minCoverage: 1e-9 });
+      // alpha 0.5 lets every R from 1 up run (1/(R+1) <= alpha, shared/monte-carlo-rule.ts)
+      const plan = normalizePlan({ cells: [side, side / 2], placements: 6, sims, seed, minCoverage: 1e-9, alpha: 0.5 });
       const { rows, summary } = await pool.runSweep(dataset, plan);
       expect(rows).toHaveLength(12);
       for (const row of rows) expect(row.points).toBe(dataset.inside.length);
