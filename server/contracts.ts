@@ -6,7 +6,10 @@ import type { BBox, Origin, PlacementStatistics, Region, Verdict } from '../work
 
 export interface InputWarning {
   code: string;
+  /** in the page's words (its field labels) */
   message: string;
+  /** the same warning in the command line's words, when they differ (flags instead of field labels) */
+  cliMessage?: string;
   /** record ids or feature numbers concerned, possibly truncated */
   ids?: string[];
 }

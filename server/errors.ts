@@ -3,6 +3,8 @@
  * the HTTP layer sends `{ statusCode, code, message }`, the CLI prints the message and exits non-zero.
  * Messages say what is wrong and where (file, line, feature), with no trailing period.
  */
+import { referencedFields, renderMessage, type FieldName } from './messages/field-names.js';
+
 /** Longest message kept whole; longer ones (e.g. echoing a 20 MB field) keep their start and end. */
 export const MAX_ERROR_MESSAGE_LENGTH = 2000;
 
@@ -15,12 +17,19 @@ function shortenMessage(message: string): string {
 export class GridshakeError extends Error {
   readonly code: string;
   readonly statusCode: number;
+  /** the message in the command line's words (flags such as --x), see server/messages/field-names.ts */
+  readonly cliMessage: string;
+  /** the inputs the message names, e.g. ['x'] */
+  readonly fields: FieldName[];
 
+  /** `message` may carry field references (fieldRef); `.message` names them as the page does. */
   constructor(code: string, statusCode: number, message: string) {
-    super(shortenMessage(message));
+    super(shortenMessage(renderMessage(message, 'page')));
     this.name = 'GridshakeError';
     this.code = code;
     this.statusCode = statusCode;
+    this.cliMessage = shortenMessage(renderMessage(message, 'cli'));
+    this.fields = referencedFields(message);
   }
 }
 
@@ -73,6 +82,14 @@ export function gridTooLargeError(message: string): GridshakeError {
 /** A grid GeoPackage asked for while another is being written (429). */
 export function exportBusyError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_EXPORT_BUSY', 429, message);
+}
+
+/**
+ * Rows of a CSV without usable coordinates (blank, "n/a", not a number): every such row is listed by line, with a
+ * count, and the message says how to skip them (400).
+ */
+export function badRowsError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_BAD_ROWS', 400, message);
 }
 
 export function isGridshakeError(value: unknown): value is GridshakeError {

@@ -6,6 +6,7 @@ import { DEFAULT_PLAN } from '../contracts.js';
 import { parameterError } from '../errors.js';
 import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
 import { assertCellCountWithinLimit } from '../sweeps/plan.js';
+import { fieldRef } from '../messages/field-names.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import { logPValues } from '../summary/log-p-values.js';
@@ -64,7 +65,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   const parameters = countParameters(values);
   const dataset = loadDatasetFromFlags(values);
   // the server's limits on one placement: cells in the valid region (coverage costs O(cells)) and the work budget
-  assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, '--cell');
+  assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, fieldRef('cell'));
   const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: 0 };
   assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv()));
   const summary = summarizeDataset(dataset);
@@ -72,7 +73,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   const keptCells = (): never => {
     throw parameterError(
       `--cell ${parameters.cellSize} m leaves fewer than 2 cells with coverage >= ${parameters.minCoverage} in the ` +
-        `valid region (${(summary.validArea / 1e6).toPrecision(4)} km^2); use smaller cells or a lower --min-coverage`,
+        `valid region (${(summary.validArea / 1e6).toPrecision(4)} km²); use smaller cells or a lower --min-coverage`,
     );
   };
   let evaluated: ReturnType<typeof evaluatePlacement>;

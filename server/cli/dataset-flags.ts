@@ -24,6 +24,7 @@ export const DATASET_OPTIONS: OptionSpecs = {
   x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
   y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
   id: { type: 'string', value: 'COL', description: 'CSV column of record ids; default: id, fid, record, ... or the record number' },
+  'skip-bad-rows': { type: 'boolean', description: 'leave out CSV rows whose coordinates are blank or n/a (listed in a warning)' },
 };
 
 /** The server's limits on the input files, as options of count and sweep (listed after each command's own). */
@@ -38,7 +39,7 @@ function inputLimits(values: OptionValues): InputLimits {
   return text === undefined ? DEFAULT_INPUT_LIMITS : { ...DEFAULT_INPUT_LIMITS, fileBytes: parseMegabytes(text, 'body-limit') };
 }
 
-/** The dataset named by --points, --area, --no-data, --crs, --x, --y and --id. */
+/** The dataset named by --points, --area, --no-data, --crs, --x, --y, --id and --skip-bad-rows. */
 export function loadDatasetFromFlags(values: OptionValues): Dataset {
   const pointsPath = requireString(values, 'points');
   const areaPath = optionalString(values, 'area');
@@ -57,6 +58,7 @@ export function loadDatasetFromFlags(values: OptionValues): Dataset {
       x: optionalString(values, 'x'),
       y: optionalString(values, 'y'),
       id: optionalString(values, 'id'),
+      skipBadRows: values['skip-bad-rows'] === true,
       maxPoints,
     },
   );

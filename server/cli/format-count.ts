@@ -60,7 +60,7 @@ export function formatCount(result: CountResult): string {
   lines.push(`gridshake count: ${result.dataset.name} (${result.pointsTotal} points, coordinates ${result.dataset.crs})`);
   lines.push(`Projection used: ${result.dataset.projectionUsed}`);
   lines.push(
-    `Grid: ${result.shape === 'hex' ? `hexagonal cells of ${result.cellSize} m x ${result.cellSize} m area` : `${result.cellSize} m cells`}, angle ${placement.angle} deg, offset (${placement.u}, ${placement.v}), ` +
+    `Grid: ${result.shape === 'hex' ? `hexagonal cells of ${result.cellSize} m x ${result.cellSize} m area` : `${result.cellSize} m cells`}, angle ${placement.angle}°, offset (${placement.u}, ${placement.v}) cells, ` +
       `cells kept with coverage >= ${result.minCoverage}`,
   );
   // warnings first: a warning that makes the p-value meaningless is read before the p-value
@@ -69,7 +69,7 @@ export function formatCount(result: CountResult): string {
     lines.push('Warnings:');
     for (const warning of result.warnings) {
       const ids = warning.ids && warning.ids.length > 0 ? ` [ids: ${warning.ids.join(', ')}]` : '';
-      lines.push(`  - ${warning.message}${ids}`);
+      lines.push(`  - ${warning.cliMessage ?? warning.message}${ids}`);
     }
   }
   const caveat = pValueCaveat(result);

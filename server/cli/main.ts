@@ -61,7 +61,7 @@ export async function runCli(argv: string[], io: CliIo = PROCESS_IO): Promise<nu
       return 2;
     }
     if (isGridshakeError(error)) {
-      io.stderr(`gridshake: ${error.message}\n`);
+      io.stderr(`gridshake: ${error.cliMessage}\n`);
       return CLI_EXIT_CODES[error.code] ?? 1;
     }
     io.stderr(unexpectedErrorText(error));

@@ -4,7 +4,6 @@
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
 import type { Plan, SweepProgress } from '../contracts.js';
-import { GridshakeError } from '../errors.js';
 import { renderReport } from '../report/render-report.js';
 import { reportMap } from '../report/report-map.js';
 import { normalizePlan } from '../sweeps/plan.js';
@@ -45,26 +44,6 @@ const OPTIONS: OptionSpecs = {
   ...INPUT_LIMIT_OPTIONS,
 };
 
-const FLAG_NAMES: Record<string, string> = {
-  'plan.perCell': '--per-cell',
-  'plan.cells': '--cells',
-  'plan.minCoverage': '--min-coverage',
-  'plan.placements': '--placements',
-  'plan.alpha': '--alpha',
-  'plan.sims': '--sims',
-  'plan.seed': '--seed',
-  'plan.design': '--design',
-};
-
-/** A plan error in the words of the command line (--per-cell rather than plan.perCell). */
-function asFlagError(error: unknown): unknown {
-  if (!(error instanceof GridshakeError) || (error.code !== 'GS_ERR_PARAMETER' && error.code !== 'GS_ERR_TOO_FEW_SIMS')) return error;
-  let message = error.message.replace('plan needs exactly one of cells (cell sides in metres) or perCell (expected points per cell)',
-    'give exactly one of --cells (cell sides in metres) or --per-cell (expected points per cell)');
-  for (const [field, flag] of Object.entries(FLAG_NAMES)) message = message.split(field).join(flag);
-  return new GridshakeError(error.code, error.statusCode, message);
-}
-
 function planFromFlags(values: OptionValues): Plan {
   const text = (name: string): string | undefined => optionalString(values, name);
   const input: Record<string, unknown> = { rotation: values['no-rotation'] !== true };
@@ -76,11 +55,7 @@ function planFromFlags(values: OptionValues): Plan {
   if (text('alpha') !== undefined) input.alpha = parseAlpha(text('alpha') as string);
   if (text('sims') !== undefined) input.sims = parseWholeNumber(text('sims') as string, 'sims', 0);
   if (text('seed') !== undefined) input.seed = parseNumber(text('seed') as string, 'seed', 'an integer');
-  try {
-    return normalizePlan(input);
-  } catch (error) {
-    throw asFlagError(error);
-  }
+  return normalizePlan(input);
 }
 
 function progressWriter(io: CliIo): { update(progress: SweepProgress): void; end(): void } {
@@ -122,12 +97,13 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
     createOutDir();
     const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
     writeOutputs(outDir, [
-      [csvName, placementsToCsv(rows)],
+      [csvName, placementsToCsv(rows, { summary })],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
     ]);
-    // warnings first: a warning that makes a p-value meaningless is read before the p-value
-    for (const warning of summary.warnings) io.stderr(`warning: ${warning}\n`);
+    // warnings first: a warning that makes a p-value meaningless is read before the p-value; the dataset's
+    // warnings (first in the list) in the command line's words
+    summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
     io.stdout(`${lines.join('\n')}\n`);
     io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
@@ -138,7 +114,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       io.stderr('gridshake sweep: cancelled; nothing was written\n');
       return 130;
     }
-    throw asFlagError(error);
+    throw error;
   } finally {
     process.removeListener('SIGINT', onInterrupt);
     await pool.destroy();

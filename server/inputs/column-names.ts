@@ -3,6 +3,7 @@
  * Longitude/latitude names make the data geographic; x/y, easting/northing names make it projected.
  */
 import { inputError } from '../errors.js';
+import { FIELD_NAMES, fieldRef, twoWays } from '../messages/field-names.js';
 
 export type CoordinateKind = 'lonlat' | 'xy';
 
@@ -34,11 +35,11 @@ function findIndex(header: string[], names: string[]): number {
   return -1;
 }
 
-function findGiven(fileName: string, header: string[], given: string, option: string): number {
+function findGiven(fileName: string, header: string[], given: string, option: 'x' | 'y' | 'id'): number {
   const index = header.map(normalize).indexOf(normalize(given));
   if (index < 0) {
     throw inputError(
-      `${fileName}: line 1: no column named '${given}' (given with ${option}); columns seen: ${header.join(', ')}`,
+      `${fileName}: line 1: no column named '${given}' (given in ${fieldRef(option)}); columns seen: ${header.join(', ')}`,
     );
   }
   return index;
@@ -54,10 +55,10 @@ export function findCoordinateColumns(
   let y: number;
   if (given.x !== undefined || given.y !== undefined) {
     if (given.x === undefined || given.y === undefined) {
-      throw inputError(`${fileName}: give both --x and --y, or neither to find the columns by name`);
+      throw inputError(`${fileName}: give both ${fieldRef('x')} and ${fieldRef('y')}, or neither to find the columns by name`);
     }
-    x = findGiven(fileName, header, given.x, '--x');
-    y = findGiven(fileName, header, given.y, '--y');
+    x = findGiven(fileName, header, given.x, 'x');
+    y = findGiven(fileName, header, given.y, 'y');
   } else {
     x = findIndex(header, LONGITUDE_NAMES);
     y = findIndex(header, LATITUDE_NAMES);
@@ -68,11 +69,11 @@ export function findCoordinateColumns(
     if (x < 0 || y < 0) {
       throw inputError(
         `${fileName}: line 1: no coordinate columns found (expected x/y, easting/northing or lon/lat); ` +
-          `columns seen: ${header.join(', ')}; name them with --x COL --y COL`,
+          `columns seen: ${header.join(', ')}; ${twoWays('name them with --x COL --y COL', `name them in the "${FIELD_NAMES.x.label}" and "${FIELD_NAMES.y.label}" fields`)}`,
       );
     }
   }
-  const id = given.id !== undefined ? findGiven(fileName, header, given.id, '--id') : findIndex(header, ID_NAMES);
+  const id = given.id !== undefined ? findGiven(fileName, header, given.id, 'id') : findIndex(header, ID_NAMES);
   const xName = header[x].trim();
   const yName = header[y].trim();
   const kind: CoordinateKind =

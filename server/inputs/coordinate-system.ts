@@ -14,6 +14,7 @@ import type { ProjectionInfo } from '../contracts.js';
 import { inputError, parameterError } from '../errors.js';
 import type { CoordinateKind } from './column-names.js';
 import { epsgDefinition } from './epsg-definition.js';
+import { fieldRef, twoWays } from '../messages/field-names.js';
 
 const WGS84_LONLAT = '+proj=longlat +datum=WGS84 +no_defs';
 
@@ -35,7 +36,7 @@ export function resolveCoordinateSystem(crs: string | undefined, kind: Coordinat
     if (kind === 'xy') {
       throw inputError(
         `${pointsName}: line 1: the coordinate columns look projected (x/y or easting/northing), so the coordinate ` +
-          'system must be given: --crs planar when they are metres already, or --crs EPSG:n',
+          `system must be given: ${twoWays('--crs planar when they are metres already, or --crs EPSG:n', 'in the "Coordinate system" field, "planar metres" when they are metres already, or their EPSG code')}`,
       );
     }
     return { crs: 'EPSG:4326', geographic: true, sourceProj4: WGS84_LONLAT, toMetre: 1, warnings: [] };
@@ -45,7 +46,7 @@ export function resolveCoordinateSystem(crs: string | undefined, kind: Coordinat
     return { crs: 'planar', geographic: false, sourceProj4: '', toMetre: 1, warnings: [] };
   }
   const match = /^epsg:(\d{4,6})$/i.exec(text);
-  if (!match) throw parameterError(`--crs must be 'planar' or 'EPSG:n', got '${crs}'`);
+  if (!match) throw parameterError(`${fieldRef('crs')} must be 'planar' or 'EPSG:n', got '${crs}'`);
   const definition = epsgDefinition(Number(match[1]));
   const name = `EPSG:${definition.code}`;
   if (definition.geographic) {

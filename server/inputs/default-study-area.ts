@@ -6,6 +6,7 @@ import type { InputWarning } from '../contracts.js';
 import { inputError } from '../errors.js';
 import { defaultAreaWarning } from './input-warnings.js';
 import type { LabelledRings } from './valid-region.js';
+import { fieldRef } from '../messages/field-names.js';
 
 export function defaultStudyArea(xy: Float64Array, pointsName: string): { polygon: LabelledRings; warning: InputWarning } {
   let minX = Infinity;
@@ -23,7 +24,7 @@ export function defaultStudyArea(xy: Float64Array, pointsName: string): { polygo
   if (!(width > 0) || !(height > 0)) {
     throw inputError(
       `${pointsName}: the points' bounding box has zero ${width > 0 ? 'height' : 'width'}, so it cannot serve as the ` +
-        'study area; give one with --area',
+        `study area; give one with ${fieldRef('area')}`,
     );
   }
   const margin = 1e-9 * Math.max(width, height);

@@ -1,6 +1,7 @@
 /** EPSG definitions from the epsg-index package (one JSON file per code), read on demand. */
 import { createRequire } from 'node:module';
 import { parameterError } from '../errors.js';
+import { fieldRef } from '../messages/field-names.js';
 
 const require = createRequire(import.meta.url);
 
@@ -31,12 +32,12 @@ export function epsgDefinition(code: number): EpsgDefinition {
   try {
     entry = require(`epsg-index/s/${code}.json`) as EpsgIndexEntry;
   } catch {
-    throw parameterError(`--crs: EPSG:${code} is not a known coordinate reference system`);
+    throw parameterError(`${fieldRef('crs')}: EPSG:${code} is not a known coordinate reference system`);
   }
-  if (!entry.proj4) throw parameterError(`--crs: EPSG:${code} (${entry.name}) has no proj4 definition`);
+  if (!entry.proj4) throw parameterError(`${fieldRef('crs')}: EPSG:${code} (${entry.name}) has no proj4 definition`);
   const geographic = entry.kind === 'CRS-GEOGCRS' || /\+proj=longlat\b/.test(entry.proj4);
   if (!geographic && entry.kind !== 'CRS-PROJCRS') {
-    throw parameterError(`--crs: EPSG:${code} (${entry.name}) is a ${entry.kind}, not a 2D projected or geographic system`);
+    throw parameterError(`${fieldRef('crs')}: EPSG:${code} (${entry.name}) is a ${entry.kind}, not a 2D projected or geographic system`);
   }
   const box = Array.isArray(entry.bbox) && entry.bbox.length === 4 && entry.bbox.every(Number.isFinite) ? entry.bbox : null;
   const areaOfUse: EpsgDefinition['areaOfUse'] = box ? [box[1]!, box[2]!, box[3]!, box[0]!] : null;

@@ -5,6 +5,7 @@
 import { inputError } from '../errors.js';
 import { ID_NAMES } from './column-names.js';
 import { parseJsonText } from './parse-json.js';
+import { legacyGeoJsonCrs } from './legacy-geojson-crs.js';
 
 export interface GeoJsonGeometry {
   type: string;
@@ -65,15 +66,24 @@ function featureOf(value: unknown, fileName: string, index: number, idProperty?:
 }
 
 export function readGeoJsonFeatures(fileName: string, text: string, idProperty?: string): LabelledFeature[] {
+  return readGeoJson(fileName, text, idProperty).features;
+}
+
+/** The features and the coordinate system a legacy `crs` member declares (see legacy-geojson-crs.ts), if any. */
+export function readGeoJson(fileName: string, text: string, idProperty?: string): { features: LabelledFeature[]; declaredCrs?: string } {
   const root = parseJsonText(fileName, text);
   if (!isObject(root) || typeof root.type !== 'string') {
     throw inputError(`${fileName}: not GeoJSON (expected an object with a "type" member)`);
   }
-  if (root.type === 'FeatureCollection') {
-    if (!Array.isArray(root.features)) throw inputError(`${fileName}: the FeatureCollection has no "features" array`);
-    return root.features.map((feature, index) => featureOf(feature, fileName, index, idProperty));
-  }
-  if (root.type === 'Feature') return [featureOf(root, fileName, 0, idProperty)];
-  const label = `${fileName}: geometry`;
-  return [{ label, id: '1', geometry: asGeometry(root, label) }];
+  const declaredCrs = legacyGeoJsonCrs(fileName, root.crs);
+  const features = (() => {
+    if (root.type === 'FeatureCollection') {
+      if (!Array.isArray(root.features)) throw inputError(`${fileName}: the FeatureCollection has no "features" array`);
+      return root.features.map((feature, index) => featureOf(feature, fileName, index, idProperty));
+    }
+    if (root.type === 'Feature') return [featureOf(root, fileName, 0, idProperty)];
+    const label = `${fileName}: geometry`;
+    return [{ label, id: '1', geometry: asGeometry(root, label) }];
+  })();
+  return declaredCrs === undefined ? { features } : { features, declaredCrs };
 }

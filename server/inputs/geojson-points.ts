@@ -1,6 +1,6 @@
 /** Points from a GeoJSON FeatureCollection of Point and MultiPoint features (each point of a MultiPoint a record). */
 import { inputError } from '../errors.js';
-import { readGeoJsonFeatures, type LabelledFeature } from './geojson-features.js';
+import { readGeoJson, type LabelledFeature } from './geojson-features.js';
 import { parseCoordinate } from './parse-coordinate.js';
 import type { RawPoints } from './raw-points.js';
 
@@ -21,7 +21,10 @@ function position(value: unknown, where: string): [number, number] {
 
 /** Points of a GeoJSON text; record ids as in featureId (`idProperty`: the --id option naming a property). */
 export function readGeoJsonPoints(fileName: string, text: string, idProperty?: string): RawPoints {
-  return pointsFromFeatures(fileName, readGeoJsonFeatures(fileName, text, idProperty), 'geojson');
+  const { features, declaredCrs } = readGeoJson(fileName, text, idProperty);
+  const points = pointsFromFeatures(fileName, features, 'geojson');
+  // a legacy crs member (honoured): the coordinates are in that system, not RFC 7946 longitude/latitude
+  return declaredCrs === undefined ? points : { ...points, declaredCrs, kind: declaredCrs === 'EPSG:4326' ? 'lonlat' : 'xy' };
 }
 
 /** Points of already-read features (GeoJSON or GeoPackage): each Point a record, each part of a MultiPoint one. */

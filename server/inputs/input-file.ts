@@ -3,6 +3,7 @@
  * The CLI reads files from disk, the server passes multipart uploads; both end up here.
  */
 import { inputError } from '../errors.js';
+import { refuseForeignFormat } from './file-signature.js';
 
 export interface InputFile {
   name: string;
@@ -29,6 +30,7 @@ export function megabytes(bytes: number): string {
  * Throws GS_ERR_INPUT when the file is empty, blank or binary (e.g. a GeoPackage or a spreadsheet).
  */
 export function readText(file: InputFile): string {
+  refuseForeignFormat(file);
   let text = typeof file.content === 'string' ? file.content : new TextDecoder('utf-8').decode(file.content);
   if (text.startsWith(BYTE_ORDER_MARK)) text = text.slice(1);
   if (text.trim() === '') throw inputError(`${file.name}: the file is empty`);

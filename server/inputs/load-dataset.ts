@@ -11,13 +11,15 @@ import { resolveCoordinateSystem, type CoordinateSystem } from './coordinate-sys
 import { isSqliteFile, readGeoPackageFeatures } from './geopackage/read-geopackage.js';
 import { defaultStudyArea } from './default-study-area.js';
 import { findDuplicates } from './find-duplicates.js';
-import { polygonsFromFeatures, readGeoJsonPolygons, type RawPolygon } from './geojson-polygons.js';
+import { polygonsFromFeatures, type RawPolygon } from './geojson-polygons.js';
+import { readGeoJson } from './geojson-features.js';
 import { readText, type InputFile } from './input-file.js';
-import { duplicateWarning, outsideWarning, projectionWarning } from './input-warnings.js';
+import { duplicateWarning, outsideWarning, projectionWarning, skippedRowsWarning } from './input-warnings.js';
 import { projectInputs } from './project-inputs.js';
 import { readPoints } from './read-points.js';
 import { toRegion } from './to-region.js';
 import { buildValidRegion, type LabelledRings } from './valid-region.js';
+import { fieldRef, twoWays } from '../messages/field-names.js';
 
 export interface DatasetInput {
   points: InputFile;
@@ -32,6 +34,8 @@ export interface DatasetOptions {
   id?: string;
   name?: string;
   maxPoints?: number;
+  /** leave out CSV rows whose coordinates are blank or n/a, with a warning listing their lines */
+  skipBadRows?: boolean;
 }
 
 /** Polygons of a GeoJSON or GeoPackage file; a GeoPackage must declare the same system as the points, or none. */
@@ -44,7 +48,11 @@ function readPolygons(file: InputFile, system: CoordinateSystem, role: string, p
     }
     polygons = polygonsFromFeatures(file.name, layer.features);
   } else {
-    polygons = readGeoJsonPolygons(file.name, readText(file));
+    const { features, declaredCrs } = readGeoJson(file.name, readText(file));
+    if (declaredCrs !== undefined && system.crs !== 'planar' && declaredCrs !== system.crs) {
+      throw inputError(`${file.name}: the GeoJSON "crs" member says ${declaredCrs} but the points are in ${system.crs}; give every file in one coordinate system`);
+    }
+    polygons = polygonsFromFeatures(file.name, features);
   }
   const geographic = system.geographic;
   for (const polygon of polygons) checkPolygonIsLonLat(system, polygon, role, pointsFile);
@@ -67,7 +75,7 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   }
   const crs = options.crs ?? raw.declaredCrs;
   if (crs === undefined && raw.format === 'geopackage') {
-    throw inputError(`${input.points.name}: the GeoPackage layer declares no EPSG coordinate system; give --crs planar or --crs EPSG:n`);
+    throw inputError(`${input.points.name}: the GeoPackage layer declares no EPSG coordinate system; give ${twoWays('--crs planar or --crs EPSG:n', 'choose "planar metres" or an EPSG code in the "Coordinate system" field')}`);
   }
   const system = resolveCoordinateSystem(crs, raw.kind, input.points.name);
   const area = input.area ? readPolygons(input.area, system, 'study area', input.points.name) : [];
@@ -75,6 +83,7 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   const sanityWarnings = checkCoordinateSanity(system, raw, area, zones);
   const projected = projectInputs(system, raw, area, zones);
   const warnings: InputWarning[] = [...system.warnings.map(projectionWarning), ...sanityWarnings];
+  if (raw.skippedLines && raw.skippedLines.length > 0) warnings.push(skippedRowsWarning(input.points.name, raw.skippedLines));
 
   let studyRings = projected.area;
   if (studyRings.length === 0) {
@@ -88,7 +97,7 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   if (!Number.isFinite(region.area) || !Number.isFinite(studyRegion.area)) {
     throw inputError(
       `${input.area?.name ?? input.points.name}: the coordinates are too large: the study area's size overflows ` +
-        '(are they metres in a projected system? check --crs)',
+        `(are they metres in a projected system? check ${fieldRef('crs')})`,
     );
   }
 

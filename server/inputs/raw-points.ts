@@ -13,4 +13,6 @@ export interface RawPoints {
   kind: CoordinateKind;
   /** the file and line (CSV) or feature (GeoJSON) of record `index`, for messages */
   locate(index: number): string;
+  /** CSV lines left out because their coordinates were blank or n/a (only with skipBadRows) */
+  skippedLines?: number[];
 }

@@ -2,6 +2,7 @@
 import type { SweepSummary } from '../contracts.js';
 import { formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
 import { datasetSummaryEntries, warningRecords } from '../../client/src/charts/dataset-entries.js';
+import { warningTitle } from '../messages/warning-titles.js';
 import { escapeHtml } from './html-escape.js';
 import { definitionTable, htmlTable } from './html-table.js';
 
@@ -11,7 +12,7 @@ export function datasetSection(summary: SweepSummary): string {
   const warnings = dataset.warnings.length === 0
     ? '<p>The inputs raised no warnings.</p>'
     : `<ul class="warnings">${dataset.warnings
-        .map((warning) => `<li><code>${escapeHtml(warning.code)}</code> ${escapeHtml(warning.message + warningRecords(warning))}</li>`)
+        .map((warning) => `<li><strong>${escapeHtml(warningTitle(warning.code))}:</strong> ${escapeHtml(warning.message + warningRecords(warning))}</li>`)
         .join('')}</ul>`;
   return `<section><h2>Dataset</h2>${definitionTable('Dataset summary', entries)}<h3>Input warnings</h3>${warnings}</section>`;
 }

@@ -37,6 +37,8 @@ const UPLOAD_BODY = {
     x: fieldPart({ type: 'string', maxLength: 100 }),
     y: fieldPart({ type: 'string', maxLength: 100 }),
     id: fieldPart({ type: 'string', maxLength: 100 }),
+    /** "true" to leave out CSV rows whose coordinates are blank or n/a (the page's checkbox) */
+    skipBadRows: fieldPart({ type: 'string', enum: ['true', 'false', 'on', ''] }),
   },
 } as const;
 
@@ -64,6 +66,7 @@ interface UploadBody {
   x?: MultipartValue<string>;
   y?: MultipartValue<string>;
   id?: MultipartValue<string>;
+  skipBadRows?: MultipartValue<string>;
 }
 
 function megabytes(bytes: number): string {
@@ -95,7 +98,7 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
         }
         if (length > bodyLimit) {
           throw tooLargeError(
-            `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (--body-limit)`,
+            `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (the upload limit set when the server was started)`,
           );
         }
       },
@@ -118,6 +121,7 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
         x: fieldValue(body.x),
         y: fieldValue(body.y),
         id: fieldValue(body.id),
+        skipBadRows: ['true', 'on'].includes(fieldValue(body.skipBadRows) ?? ''),
       });
       return reply.code(201).send(summary);
     },

@@ -44,9 +44,9 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
   if (TOO_LARGE_CODES.has(code)) {
     const what =
       code === 'FST_ERR_CTP_BODY_TOO_LARGE'
-        ? `the request body is larger than the limit of ${megabytes(limits.bodyLimit)} (--body-limit)`
+        ? `the request body is larger than the limit of ${megabytes(limits.bodyLimit)} (the upload limit set when the server was started)`
         : code === 'FST_REQ_FILE_TOO_LARGE'
-          ? `an uploaded file is larger than the limit of ${megabytes(limits.fileLimit)} (--body-limit)`
+          ? `an uploaded file is larger than the limit of ${megabytes(limits.fileLimit)} (the upload limit set when the server was started)`
           : `the upload has too many files or fields (${fastifyError.message ?? code})`;
     return { statusCode: 413, code: 'GS_ERR_TOO_LARGE', message: what };
   }

@@ -30,7 +30,7 @@ export function registerSweepExportRoutes(app: FastifyInstance, exportsOf: Sweep
     async (request, reply) =>
       reply
         .type('text/csv; charset=utf-8')
-        .header('content-disposition', attachment(`placements-${request.params.id.slice(0, 8)}.csv`))
+        .header('content-disposition', attachment(exportsOf.downloadName(request.params.id, 'placements', 'csv')))
         .send(exportsOf.csv(request.params.id)),
   );
 
@@ -92,7 +92,7 @@ export function registerSweepExportRoutes(app: FastifyInstance, exportsOf: Sweep
       const html = exportsOf.report(request.params.id);
       reply.type('text/html; charset=utf-8').header('content-security-policy', REPORT_POLICY);
       if (request.query.download === 1) {
-        reply.header('content-disposition', attachment(`gridshake-report-${request.params.id.slice(0, 8)}.html`));
+        reply.header('content-disposition', attachment(exportsOf.downloadName(request.params.id, 'report', 'html')));
       }
       return reply.send(html);
     },

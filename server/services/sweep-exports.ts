@@ -20,6 +20,7 @@ import type { GridshakeStore } from '../store/store.js';
 import { ROWS_PER_CHUNK } from '../store/placement-store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
+import { downloadName } from '../messages/download-names.js';
 import type { DatasetService } from './dataset-service.js';
 import type { SweepService } from './sweep-service.js';
 
@@ -44,7 +45,14 @@ export class SweepExports {
   }
 
   csv(id: string): string {
-    return placementsToCsv(this.rows(id));
+    const record = this.finished(id);
+    return placementsToCsv(this.store.placements.read(id), { sweepId: id, summary: record.summary! });
+  }
+
+  /** The download name of an export of sweep `id`: dataset name and cell sides, e.g. gridshake-heath-250m-report.html. */
+  downloadName(id: string, what: string, extension: string): string {
+    const summary = this.finished(id).summary!;
+    return downloadName(summary.dataset.name, summary.sizes.map((size) => size.cellSize), what, extension);
   }
 
   report(id: string): string {

@@ -1,52 +1,96 @@
 /**
  * placements.csv: one row per (cell size, placement) with the placement's parameters and all its statistics.
- * RFC 4180 text (comma separated, CRLF line ends, header row); numbers in JavaScript's shortest round-trip form,
- * empty fields for undefined values (NaN, null), booleans as true / false. Used by the CLI and the HTTP export.
+ * Comma separated with LF line ends; a first comment line (starting with '#') names the run; then a header row whose
+ * column names carry their units (cell_side_m, angle_deg, offset_u_cells); numbers with the precision they merit
+ * (see PLACEMENT_CSV_COLUMNS); empty fields for undefined values (NaN, null); booleans as true / false.
+ * placements.json keeps every number at full precision. Used by the CLI and the HTTP export; README documents
+ * the columns.
  */
-import type { PlacementRow } from '../contracts.js';
+import type { PlacementRow, SweepSummary } from '../contracts.js';
 
-/** Column order of placements.csv (the PlacementRow field names). */
-export const PLACEMENT_COLUMNS: readonly (keyof PlacementRow)[] = [
-  'sizeIndex',
-  'cellSize',
-  'placementIndex',
-  'u',
-  'v',
-  'angle',
-  'cells',
-  'points',
-  'mean',
-  'variance',
-  'vmr',
-  'chi2',
-  'df',
-  'chi2PerDf',
-  'pClustered',
-  'pRegular',
-  'verdict',
-  'expectedPerCell',
-  'meetsRuleOf5',
-  'meetsRuleOf1_6',
-  'morisita',
-  'morisitaStandardized',
-  'meanCrowding',
-  'patchiness',
-  'green',
-  'negativeBinomialK',
-  'poissonChi2',
-  'poissonDf',
-  'poissonP',
+type Rounding = 'integer' | 'text' | { significant: number } | { decimals: number };
+
+/** Column of placements.csv: its name (with unit), the PlacementRow field and how its numbers are written. */
+export interface PlacementCsvColumn {
+  name: string;
+  field: keyof PlacementRow;
+  rounding: Rounding;
+}
+
+const SIG6 = { significant: 6 };
+const SIG4 = { significant: 4 };
+
+/** Column order and names of placements.csv. */
+export const PLACEMENT_CSV_COLUMNS: readonly PlacementCsvColumn[] = [
+  { name: 'size_index', field: 'sizeIndex', rounding: 'integer' },
+  { name: 'cell_side_m', field: 'cellSize', rounding: SIG6 },
+  { name: 'placement', field: 'placementIndex', rounding: 'integer' },
+  // offsets and angles come from a low-discrepancy sequence; 1e-6 cell and 1e-4 degree are far below any effect
+  { name: 'offset_u_cells', field: 'u', rounding: { decimals: 6 } },
+  { name: 'offset_v_cells', field: 'v', rounding: { decimals: 6 } },
+  { name: 'angle_deg', field: 'angle', rounding: { decimals: 4 } },
+  { name: 'cells_kept', field: 'cells', rounding: 'integer' },
+  { name: 'points_counted', field: 'points', rounding: 'integer' },
+  { name: 'mean_points_per_cell', field: 'mean', rounding: SIG6 },
+  { name: 'variance_points2', field: 'variance', rounding: SIG6 },
+  { name: 'vmr', field: 'vmr', rounding: SIG6 },
+  { name: 'chi2', field: 'chi2', rounding: SIG6 },
+  { name: 'df', field: 'df', rounding: 'integer' },
+  { name: 'chi2_per_df', field: 'chi2PerDf', rounding: SIG6 },
+  // p-values: four significant digits keep small tails readable (1.234e-9) without false precision
+  { name: 'p_clustered', field: 'pClustered', rounding: SIG4 },
+  { name: 'p_regular', field: 'pRegular', rounding: SIG4 },
+  { name: 'verdict', field: 'verdict', rounding: 'text' },
+  { name: 'expected_points_per_whole_cell', field: 'expectedPerCell', rounding: SIG6 },
+  { name: 'meets_rule_of_5', field: 'meetsRuleOf5', rounding: 'text' },
+  { name: 'meets_rule_of_1_6', field: 'meetsRuleOf1_6', rounding: 'text' },
+  { name: 'morisita_index', field: 'morisita', rounding: SIG6 },
+  { name: 'morisita_standardized', field: 'morisitaStandardized', rounding: SIG6 },
+  { name: 'mean_crowding_points', field: 'meanCrowding', rounding: SIG6 },
+  { name: 'patchiness', field: 'patchiness', rounding: SIG6 },
+  { name: 'green_index', field: 'green', rounding: SIG6 },
+  { name: 'negative_binomial_k', field: 'negativeBinomialK', rounding: SIG6 },
+  { name: 'poisson_fit_chi2', field: 'poissonChi2', rounding: SIG6 },
+  { name: 'poisson_fit_df', field: 'poissonDf', rounding: 'integer' },
+  { name: 'poisson_fit_p', field: 'poissonP', rounding: SIG4 },
 ];
 
-function field(value: PlacementRow[keyof PlacementRow]): string {
+/** The PlacementRow fields in CSV column order. */
+export const PLACEMENT_COLUMNS: readonly (keyof PlacementRow)[] = PLACEMENT_CSV_COLUMNS.map((column) => column.field);
+
+function field(value: PlacementRow[keyof PlacementRow], rounding: Rounding): string {
   if (value === null || value === undefined) return '';
-  if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) return '';
+    if (rounding === 'integer' || rounding === 'text' || Number.isInteger(value)) return String(value);
+    if ('significant' in rounding) return String(Number(value.toPrecision(rounding.significant)));
+    return String(Number(value.toFixed(rounding.decimals)));
+  }
   return String(value);
 }
 
-/** The rows as CSV text, in the order given. Cost O(rows x columns). */
-export function placementsToCsv(rows: readonly PlacementRow[]): string {
-  const lines = [PLACEMENT_COLUMNS.join(',')];
-  for (const row of rows) lines.push(PLACEMENT_COLUMNS.map((column) => field(row[column])).join(','));
-  return `${lines.join('\r\n')}\r\n`;
+/** What the first comment line says about the run. */
+export interface CsvRun {
+  sweepId?: string;
+  summary: Pick<SweepSummary, 'dataset' | 'plan' | 'sizes'>;
+}
+
+/** "# gridshake placements: dataset "Heath", sweep 1a2b3c4d, cell sides 100, 200 m, 256 placements, ..." */
+export function runCommentLine(run: CsvRun): string {
+  const { dataset, plan, sizes } = run.summary;
+  const sides = sizes.map((size) => Number(size.cellSize.toPrecision(6))).sort((a, b) => a - b).join(', ');
+  const name = dataset.name.replace(/[\r\n]+/g, ' ');
+  return (
+    `# gridshake placements: dataset "${name}"${run.sweepId ? `, sweep ${run.sweepId}` : ''}, cell sides ${sides} m, ` +
+    `${plan.placements} placements per side (${plan.design}, rotation ${plan.rotation ? 'on' : 'off'}), minCoverage ${plan.minCoverage}, ` +
+    `alpha ${plan.alpha}, ${plan.sims} CSR simulations, seed ${plan.seed}; coordinates ${dataset.crs}; full precision in placements.json`
+  );
+}
+
+/** The rows as CSV text, in the order given, after the comment line naming the run. Cost O(rows x columns). */
+export function placementsToCsv(rows: readonly PlacementRow[], run?: CsvRun): string {
+  const lines = run ? [runCommentLine(run)] : [];
+  lines.push(PLACEMENT_CSV_COLUMNS.map((column) => column.name).join(','));
+  for (const row of rows) lines.push(PLACEMENT_CSV_COLUMNS.map((column) => field(row[column.field], column.rounding)).join(','));
+  return `${lines.join('\n')}\n`;
 }

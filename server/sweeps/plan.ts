@@ -5,6 +5,7 @@
  */
 import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../contracts.js';
 import { parameterError, tooFewSimsError } from '../errors.js';
+import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 
@@ -33,16 +34,16 @@ function isRecord(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
 
-function integerField(name: string, value: unknown, min: number, max: number): number {
+function integerField(name: FieldName, value: unknown, min: number, max: number): number {
   if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
-    throw parameterError(`plan.${name} must be an integer from ${min} to ${max}, got ${JSON.stringify(value)}`);
+    throw parameterError(`${fieldRef(name)} must be an integer from ${min} to ${max}, got ${JSON.stringify(value)}`);
   }
   return value;
 }
 
-function openClosedField(name: string, value: unknown, max: number): number {
+function openClosedField(name: FieldName, value: unknown, max: number): number {
   if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0 || value > max) {
-    throw parameterError(`plan.${name} must be a number in (0, ${max}], got ${JSON.stringify(value)}`);
+    throw parameterError(`${fieldRef(name)} must be a number in (0, ${max}], got ${JSON.stringify(value)}`);
   }
   return value;
 }
@@ -50,11 +51,11 @@ function openClosedField(name: string, value: unknown, max: number): number {
 function sizeList(name: 'cells' | 'perCell', value: unknown): number[] {
   const unit = name === 'cells' ? 'cell sides in metres' : 'expected points per cell';
   if (!Array.isArray(value) || value.length === 0 || value.length > PLAN_LIMITS.maxCellSizes) {
-    throw parameterError(`plan.${name} must be a list of 1 to ${PLAN_LIMITS.maxCellSizes} ${unit}, got ${JSON.stringify(value)}`);
+    throw parameterError(`${fieldRef(name)} must be a list of 1 to ${PLAN_LIMITS.maxCellSizes} ${unit}, got ${JSON.stringify(value)}`);
   }
   value.forEach((entry, index) => {
     if (typeof entry !== 'number' || !Number.isFinite(entry) || entry <= 0) {
-      throw parameterError(`plan.${name}[${index}] must be a positive finite number (${unit}), got ${JSON.stringify(entry)}`);
+      throw parameterError(`${fieldRef(name, index)} must be a positive finite number (${unit}), got ${JSON.stringify(entry)}`);
     }
   });
   return [...(value as number[])];
@@ -70,22 +71,24 @@ function sizeList(name: 'cells' | 'perCell', value: unknown): number[] {
 export function normalizePlan(input: unknown): Plan {
   if (!isRecord(input)) throw parameterError(`plan must be an object, got ${JSON.stringify(input)}`);
   for (const key of Object.keys(input)) {
-    if (!PLAN_FIELDS.has(key)) throw parameterError(`plan.${key} is not a plan field (allowed: ${[...PLAN_FIELDS].join(', ')})`);
+    if (!PLAN_FIELDS.has(key)) throw parameterError(`${twoWays(`plan.${key}`, `plan.${key}`)} is not a plan field (allowed: ${[...PLAN_FIELDS].join(', ')})`);
   }
   const hasCells = input.cells !== undefined;
   const hasPerCell = input.perCell !== undefined;
   if (hasCells === hasPerCell) {
-    throw parameterError('plan needs exactly one of cells (cell sides in metres) or perCell (expected points per cell)');
+    throw parameterError(
+      `${twoWays('give', 'the plan needs')} exactly one of ${fieldRef('cells')} (cell sides in metres) or ${fieldRef('perCell')} (expected points per cell)`,
+    );
   }
   const merged = { ...DEFAULT_PLAN, ...input } as Record<string, unknown>;
   if (typeof merged.rotation !== 'boolean') {
-    throw parameterError(`plan.rotation must be true or false, got ${JSON.stringify(merged.rotation)}`);
+    throw parameterError(`${fieldRef('rotation')} must be true or false, got ${JSON.stringify(merged.rotation)}`);
   }
   if (!DESIGNS.includes(merged.design as PlacementDesign)) {
-    throw parameterError(`plan.design must be one of ${DESIGNS.join(', ')}, got ${JSON.stringify(merged.design)}`);
+    throw parameterError(`${fieldRef('design')} must be one of ${DESIGNS.join(', ')}, got ${JSON.stringify(merged.design)}`);
   }
   if (typeof merged.seed !== 'number' || !Number.isSafeInteger(merged.seed)) {
-    throw parameterError(`plan.seed must be an integer, got ${JSON.stringify(merged.seed)}`);
+    throw parameterError(`${fieldRef('seed')} must be an integer, got ${JSON.stringify(merged.seed)}`);
   }
   const plan: Plan = {
     placements: integerField('placements', merged.placements, PLAN_LIMITS.placements.min, PLAN_LIMITS.placements.max),
@@ -99,7 +102,11 @@ export function normalizePlan(input: unknown): Plan {
   if (hasCells) plan.cells = sizeList('cells', input.cells);
   else plan.perCell = sizeList('perCell', input.perCell);
   const refusal = tooFewSimsMessage(plan.sims, plan.alpha);
-  if (refusal !== null) throw tooFewSimsError(`plan.${refusal}`);
+  if (refusal !== null) {
+    // the rule's sentence starts "sims R is too few ...": the field named per audience
+    const rest = refusal.replace(/^sims /, '');
+    throw tooFewSimsError(twoWays(`--sims ${rest}`, `${fieldRef('sims')}: ${rest}`));
+  }
   VALIDATED.add(plan);
   return plan;
 }
@@ -128,22 +135,22 @@ export function validatedPlan(input: Plan): Plan {
  * @throws GridshakeError GS_ERR_PARAMETER
  */
 export function resolveCellSizes(plan: Plan, validArea: number, nInside: number): number[] {
-  if (!(validArea > 0)) throw parameterError(`the valid region has no area (${validArea} m^2); check the study area and no-data zones`);
+  if (!(validArea > 0)) throw parameterError(`the valid region has no area (${validArea} m²); check the study area and no-data zones`);
   let sizes: number[];
   if (plan.cells) {
     sizes = plan.cells;
   } else {
-    if (nInside < 1) throw parameterError('plan.perCell needs at least one point inside the valid region');
+    if (nInside < 1) throw parameterError(`${fieldRef('perCell')} needs at least one point inside the valid region`);
     sizes = (plan.perCell ?? []).map((k) => cellSizeForExpected(k, validArea, nInside));
   }
   const largest = Math.sqrt(validArea / PLAN_LIMITS.minCellsInRegion);
   sizes.forEach((size, index) => {
-    const field = plan.cells ? `plan.cells[${index}]` : `plan.perCell[${index}]`;
+    const field = plan.cells ? fieldRef('cells', index) : fieldRef('perCell', index);
     assertCellCountWithinLimit(size, validArea, field);
     if (size > largest) {
       throw parameterError(
         `${field} gives cells of ${formatMetres(size)} m, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
-          `valid region of ${formatMetres(validArea)} m^2; use cells of at most ${formatMetres(largest)} m`,
+          `valid region of ${formatMetres(validArea)} m²; use cells of at most ${formatMetres(largest)} m`,
       );
     }
   });
@@ -152,7 +159,7 @@ export function resolveCellSizes(plan: Plan, validArea: number, nInside: number)
 
 /**
  * Refuses a cell side that puts more than PLAN_LIMITS.maxCellsInRegion cells' worth of area (A / side^2) in the
- * valid region; `field` names the value in the message (plan.cells[0] for a plan, --cell for `gridshake count`).
+ * valid region; `field` names the value in the message (a field reference: fieldRef('cells', 0), or fieldRef('cell')).
  * @throws GridshakeError GS_ERR_PARAMETER
  */
 export function assertCellCountWithinLimit(size: number, validArea: number, field: string): void {
@@ -161,7 +168,7 @@ export function assertCellCountWithinLimit(size: number, validArea: number, fiel
   const cells = validArea / (size * size);
   throw parameterError(
     `${field} gives cells of ${formatMetres(size)} m, ${Number.isFinite(cells) ? `about ${formatMetres(cells)}` : 'too many'} cells in the ` +
-      `valid region of ${formatMetres(validArea)} m^2, more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
+      `valid region of ${formatMetres(validArea)} m², more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
       `${formatMetres(smallest)} m`,
   );
 }

@@ -58,7 +58,7 @@ describe('gridshake command line', () => {
   it('refuses a cell size that leaves fewer than 2 kept cells', async () => {
     const result = await run([...base, '--cell', '800']);
     expect(result.code).toBe(1);
-    expect(result.stderr).toMatch(/^gridshake: --cell 800 m leaves fewer than 2 cells with coverage >= 0\.5 in the valid region \(1\.000 km\^2\); use smaller cells/);
+    expect(result.stderr).toMatch(/^gridshake: --cell 800 m leaves fewer than 2 cells with coverage >= 0\.5 in the valid region \(1\.000 km²\); use smaller cells/);
   });
 
   it('names an unreadable file', async () => {

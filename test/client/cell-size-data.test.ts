@@ -37,6 +37,9 @@ describe('cellSizeSeries(sizes, measure)', () => {
     expect(series.median).toEqual([1.7, 3.1]);
     expect(series.reference).toEqual([1.9, 4.5]);
     expect(series.envelopeLo).toEqual([null, null]);
+    // the chart says why the envelope is missing rather than dropping it silently
+    const subtitle = (cellSizeChartSpec(series, 64).options.plugins as { subtitle: { text: string[] } }).subtitle.text;
+    expect(subtitle.join(' ')).toMatch(/No CSR envelope for VMR: .*choose chi-square \/ df to see it/);
   });
 });
 
@@ -73,6 +76,8 @@ describe('cellSizeChartSpec(series, placements)', () => {
   it('has no envelope datasets without simulations', () => {
     const spec = cellSizeChartSpec(cellSizeSeries([large], 'chi2PerDf'), 64);
     expect(spec.data.datasets.some((dataset) => String(dataset.label).startsWith('CSR envelope'))).toBe(false);
+    const subtitle = (spec.options.plugins as { subtitle: { text: string[] } }).subtitle.text;
+    expect(subtitle.join(' ')).toContain('No CSR envelope: this sweep ran no CSR simulations');
   });
 
   it('hides the helper datasets from the legend once hydrated', () => {

@@ -45,13 +45,19 @@ describe('readPlan(values)', () => {
     const reading = readPlan(form({ extraSides: 'ten', placements: '2.5', minCoverage: '0', alpha: '0.7', sims: '-1', seed: 'x' }));
     expect(reading.plan).toBeNull();
     expect(reading.errors).toEqual([
-      'More cell sides must be positive numbers of metres, got "ten"',
+      'More cell sides: "ten" is not a positive number of metres (write e.g. 150, 400)',
       'Placements must be a whole number from 1 to 65536, got "2.5"',
       'minCoverage must be a number above 0 and at most 1, got "0"',
       'alpha must be a number above 0 and at most 0.5, got "0.7"',
       'CSR simulations must be a whole number from 0 to 9999, got "-1"',
       'Seed must be a whole number, got "x"',
     ]);
+  });
+
+  it('reads sides written with their unit and says one message per problem, never the same twice', () => {
+    expect(readPlan(form({ extraSides: '150 m, 400m; 90' })).plan?.cells).toEqual([90, 150, 190, 400]);
+    const reading = readPlan(form({ extraSides: 'm, m, 5 km, x' }));
+    expect(reading.errors).toEqual(['More cell sides: "m", "km", "x" are not positive numbers of metres (write e.g. 150, 400)']);
   });
 
   it('asks for at least one cell side', () => {

@@ -192,6 +192,8 @@ describe('the analyst page in Chromium', () => {
   it('5 Report: downloads a PNG with a white background, the grid, and the HTML report with its content', async () => {
     await page.locator('#step-report').scrollIntoViewIfNeeded();
     const [png] = await Promise.all([page.waitForEvent('download'), page.click('[data-png-download="cell-size"]')]);
+    // download names carry the dataset name and the cell sides
+    expect(png.suggestedFilename()).toMatch(/^gridshake-[a-z0-9-]+-[\d.-]+m-chart-cell-size\.png$/);
     const pngBytes = readFileSync((await png.path())!);
     expect([...pngBytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
     const corner = await page.evaluate(async (base64) => {
@@ -208,6 +210,7 @@ describe('the analyst page in Chromium', () => {
     expect(corner).toEqual([255, 255, 255, 255]);
     expect(await page.getAttribute('#download-grid', 'href')).toMatch(/grid\.geojson\?size=\d+&placement=\d+$/);
     const [report] = await Promise.all([page.waitForEvent('download'), page.click('#download-report')]);
+    expect(report.suggestedFilename()).toMatch(/^gridshake-[a-z0-9-]+-[\d.-]+m-report\.html$/);
     const reportPath = join(ARTIFACTS, 'page-report.html');
     await report.saveAs(reportPath);
     const html = readFileSync(reportPath, 'utf8');

@@ -55,7 +55,7 @@ describe('GeoPackage input', () => {
   it('asks for --crs when the layer declares no coordinate system', () => {
     const error = thrown(() => loadDataset({ points: gpkg('nests.gpkg', pointLayer(undefined)) }));
     expect(error.code).toBe('GS_ERR_INPUT');
-    expect(error.message).toBe('nests.gpkg: the GeoPackage layer declares no EPSG coordinate system; give --crs planar or --crs EPSG:n');
+    expect(error.cliMessage).toBe('nests.gpkg: the GeoPackage layer declares no EPSG coordinate system; give --crs planar or --crs EPSG:n');
   });
 
   it('refuses a file with two feature layers, naming them', () => {

@@ -21,8 +21,7 @@ describe('loadDataset rejects bad point files', () => {
     ['a header without records', file('pts.csv', 'x,y\n'), /^pts\.csv: no point records after the header \(line 1\)$/],
     ['missing coordinate columns', file('pts.csv', 'id,east_m,north_m\n1,2,3\n'), /^pts\.csv: line 1: no coordinate columns found.*columns seen: id, east_m, north_m/],
     ['a non-numeric x', file('pts.csv', 'x,y\n1,2\nabc,3\n'), /^pts\.csv: line 3: the 'x' value 'abc' is not a number$/],
-    ['a decimal comma', file('pts.csv', 'x;y\n1,5;2\n'), /^pts\.csv: line 2: the 'x' value '1,5' is not a number \(a decimal comma/],
-    ['an empty y', file('pts.csv', 'x,y\n1,\n'), /^pts\.csv: line 2: the 'y' value is empty$/],
+    ['a decimal comma in a comma-separated file', file('pts.csv', 'x,y\n"1,5",2\n'), /^pts\.csv: line 2: the 'x' value '1,5' is not a number \(a decimal comma/],
     ['a non-finite value', file('pts.csv', 'x,y\n1,2\n3,1e999\n'), /^pts\.csv: line 3: the 'y' value '1e999' is not finite$/],
     ['a short record', file('pts.csv', 'id,x,y\n1,2,3\n2,4\n'), /^pts\.csv: line 3: 2 fields where the header \(line 1\) has 3$/],
     ['a GeoJSON without points', file('pts.geojson', '{"type":"FeatureCollection","features":[]}'), /^pts\.geojson: the file holds no point features$/],
@@ -51,8 +50,9 @@ describe('loadDataset rejects bad point files', () => {
     expect(inputMessage(() => loadDataset({ points: geo }))).toMatch(/^pts\.geojson: feature 1 \(id '7'\): latitude 4100000 is beyond/);
   });
 
-  it('asks for --crs when the columns are x/y and no system is given', () => {
-    expect(inputMessage(() => loadDataset({ points: goodPoints }))).toMatch(/^pts\.csv: line 1: .*--crs planar .*--crs EPSG:n$/);
+  it('asks for --crs (on the page: the Coordinate system field) when the columns are x/y and no system is given', () => {
+    expect(thrown(() => loadDataset({ points: goodPoints })).cliMessage).toMatch(/^pts\.csv: line 1: .*--crs planar .*--crs EPSG:n$/);
+    expect(inputMessage(() => loadDataset({ points: goodPoints }))).toMatch(/^pts\.csv: line 1: .*in the "Coordinate system" field, "planar metres" .* or their EPSG code$/);
   });
 
   it('refuses more points than maxPoints with GS_ERR_TOO_LARGE', () => {
@@ -63,10 +63,11 @@ describe('loadDataset rejects bad point files', () => {
   });
 
   it('names an unknown or malformed --crs as a parameter error', () => {
-    expect(thrown(() => loadDataset({ points: goodPoints }, { crs: 'EPSG:99999' })).message).toBe('--crs: EPSG:99999 is not a known coordinate reference system');
+    expect(thrown(() => loadDataset({ points: goodPoints }, { crs: 'EPSG:99999' })).cliMessage).toBe('--crs: EPSG:99999 is not a known coordinate reference system');
+    expect(thrown(() => loadDataset({ points: goodPoints }, { crs: 'EPSG:99999' })).message).toBe('the "Coordinate system" field: EPSG:99999 is not a known coordinate reference system');
     const malformed = thrown(() => loadDataset({ points: goodPoints }, { crs: 'wgs84' }));
     expect(malformed.code).toBe('GS_ERR_PARAMETER');
-    expect(malformed.message).toBe("--crs must be 'planar' or 'EPSG:n', got 'wgs84'");
+    expect(malformed.cliMessage).toBe("--crs must be 'planar' or 'EPSG:n', got 'wgs84'");
   });
 });
 

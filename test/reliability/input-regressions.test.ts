@@ -41,7 +41,8 @@ describe('input regressions: message length', () => {
     const error = refusal(() => loadDataset({ points }, { crs: 'planar' }));
     expect(error.message.length).toBeLessThanOrEqual(2000);
     expect(error.message).toMatch(/^pts\.csv: line 1: no coordinate columns found/);
-    expect(error.message).toMatch(/name them with --x COL --y COL$/);
+    expect(error.cliMessage).toMatch(/name them with --x COL --y COL$/);
+    expect(error.message).toMatch(/name them in the "x \/ longitude column" and "y \/ latitude column" fields$/);
   });
 });
 

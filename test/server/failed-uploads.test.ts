@@ -62,7 +62,8 @@ describe('a failed upload changes nothing', () => {
       [{ field: 'points', value: sampleFile('brannock-heath', 'points.csv'), filename: 'points.csv' }, { field: 'crs', value: 'mercator-ish' }],
       400,
       'GS_ERR_PARAMETER',
-      /crs/,
+      // named as the page names it (the command line says --crs)
+      /^the "Coordinate system" field must be 'planar' or 'EPSG:n', got 'mercator-ish'$/,
     ],
     [
       'projected columns without a crs',

@@ -78,7 +78,7 @@ describe('POST /api/sweeps', () => {
     expect(both.json().code).toBe('GS_ERR_PARAMETER');
     const huge = await app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId: heath.id, plan: { ...SMALL_PLAN, cells: [5000] } } });
     expect(huge.statusCode).toBe(400);
-    expect(huge.json().message).toContain('plan.cells[0]');
+    expect(huge.json().message).toMatch(/^cell side 1 gives cells of 5000 m/);
     expect((await app.inject({ method: 'GET', url: '/api/sweeps' })).json().length).toBe(before);
   });
 
@@ -199,15 +199,27 @@ describe('exports of a done sweep', () => {
     const response = await app.inject({ method: 'GET', url: `/api/sweeps/${doneSweep.id}/placements.csv` });
     expect(response.statusCode).toBe(200);
     expect(response.headers['content-type']).toContain('text/csv');
-    expect(response.headers['content-disposition']).toMatch(/^attachment; filename="placements-[0-9a-f]{8}\.csv"$/);
-    const rows = (await app.inject({ method: 'GET', url: `/api/sweeps/${doneSweep.id}/placements.json` })).json() as Record<string, unknown>[];
-    const lines = response.body.trim().split(/\r?\n/);
-    const header = lines[0]!.split(',');
-    expect(lines).toHaveLength(33);
-    for (const column of ['vmr', 'chi2', 'pClustered', 'u', 'v', 'angle']) {
+    // the download name carries the dataset name and the cell sides
+    expect(response.headers['content-disposition']).toMatch(/^attachment; filename="gridshake-[a-z0-9-]+-[0-9.-]+m-placements\.csv"$/);
+    const rows = (await app.inject({ method: 'GET', url: `/api/sweeps/${doneSweep.id}/placements.json` })).json() as Record<string, number>[];
+    expect(response.body).not.toContain('\r');
+    const lines = response.body.trim().split('\n');
+    expect(lines[0]).toMatch(new RegExp(`^# gridshake placements: dataset ".*", sweep ${doneSweep.id}, cell sides `));
+    const header = lines[1]!.split(',');
+    expect(lines).toHaveLength(34);
+    // each column with the precision it merits: 6 significant digits, p-values 4, offsets 6 decimals, angles 4
+    const precision: [string, string, (value: number) => number][] = [
+      ['vmr', 'vmr', (value) => Number(value.toPrecision(6))],
+      ['chi2', 'chi2', (value) => Number(value.toPrecision(6))],
+      ['p_clustered', 'pClustered', (value) => Number(value.toPrecision(4))],
+      ['offset_u_cells', 'u', (value) => Number(value.toFixed(6))],
+      ['offset_v_cells', 'v', (value) => Number(value.toFixed(6))],
+      ['angle_deg', 'angle', (value) => Number(value.toFixed(4))],
+    ];
+    for (const [column, fieldName, round] of precision) {
       const at = header.indexOf(column);
-      expect(at).toBeGreaterThanOrEqual(0);
-      lines.slice(1).forEach((line, k) => expect(Number(line.split(',')[at])).toBe(rows[k]![column]));
+      expect(at, column).toBeGreaterThanOrEqual(0);
+      lines.slice(2).forEach((line, k) => expect(Number(line.split(',')[at])).toBe(round(rows[k]![fieldName])));
     }
   });
 
@@ -279,7 +291,7 @@ describe('exports of a done sweep', () => {
     expect(response.body).toMatch(/^<!doctype html>/i);
     expect(response.body).toContain('brannock-heath');
     const download = await app.inject({ method: 'GET', url: `/api/sweeps/${doneSweep.id}/report.html?download=1` });
-    expect(download.headers['content-disposition']).toMatch(/^attachment; filename="gridshake-report-/);
+    expect(download.headers['content-disposition']).toMatch(/^attachment; filename="gridshake-[a-z0-9-]+-[0-9.-]+m-report\.html"$/);
   });
 });
 

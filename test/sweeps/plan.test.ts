@@ -30,22 +30,25 @@ describe('normalizePlan', () => {
   });
 
   it('needs exactly one of cells or perCell', () => {
-    expect(parameterFailure({}).message).toMatch(/exactly one of cells .* or perCell/);
-    expect(parameterFailure({ cells: [1], perCell: [5] }).message).toMatch(/exactly one of cells/);
+    // one message source, two phrasings: the page's field labels, the command line's flags
+    expect(parameterFailure({}).message).toBe('the plan needs exactly one of the "Cell sides" field (cell sides in metres) or the "Expected points per cell" field (expected points per cell)');
+    expect(parameterFailure({}).cliMessage).toBe('give exactly one of --cells (cell sides in metres) or --per-cell (expected points per cell)');
+    expect(parameterFailure({ cells: [1], perCell: [5] }).message).toMatch(/exactly one of the "Cell sides" field/);
   });
 
   it('names the field and the allowed range of every bad value', () => {
-    expect(parameterFailure({ cells: [1], placements: 0 }).message).toBe('plan.placements must be an integer from 1 to 65536, got 0');
+    expect(parameterFailure({ cells: [1], placements: 0 }).message).toBe('the "Placements per cell side" field must be an integer from 1 to 65536, got 0');
+    expect(parameterFailure({ cells: [1], placements: 0 }).cliMessage).toBe('--placements must be an integer from 1 to 65536, got 0');
     expect(parameterFailure({ cells: [1], placements: 65537 }).message).toContain('from 1 to 65536');
-    expect(parameterFailure({ cells: [1], placements: 2.5 }).message).toContain('plan.placements');
-    expect(parameterFailure({ cells: [1], sims: 10000 }).message).toBe('plan.sims must be an integer from 0 to 9999, got 10000');
-    expect(parameterFailure({ cells: [1], alpha: 0 }).message).toBe('plan.alpha must be a number in (0, 0.5], got 0');
+    expect(parameterFailure({ cells: [1], placements: 2.5 }).message).toContain('"Placements per cell side"');
+    expect(parameterFailure({ cells: [1], sims: 10000 }).message).toBe('the "CSR simulations" field must be an integer from 0 to 9999, got 10000');
+    expect(parameterFailure({ cells: [1], alpha: 0 }).message).toBe('the "alpha" field must be a number in (0, 0.5], got 0');
     expect(parameterFailure({ cells: [1], alpha: 0.6 }).message).toContain('(0, 0.5]');
-    expect(parameterFailure({ cells: [1], minCoverage: 1.01 }).message).toBe('plan.minCoverage must be a number in (0, 1], got 1.01');
-    expect(parameterFailure({ cells: [1], minCoverage: 0 }).message).toContain('plan.minCoverage');
-    expect(parameterFailure({ cells: [1], seed: 1.5 }).message).toBe('plan.seed must be an integer, got 1.5');
-    expect(parameterFailure({ cells: [1], rotation: 'yes' }).message).toContain('plan.rotation must be true or false');
-    expect(parameterFailure({ cells: [1], design: 'random' }).message).toBe('plan.design must be one of halton, lattice, got "random"');
+    expect(parameterFailure({ cells: [1], minCoverage: 1.01 }).message).toBe('the "minCoverage" field must be a number in (0, 1], got 1.01');
+    expect(parameterFailure({ cells: [1], minCoverage: 0 }).cliMessage).toContain('--min-coverage');
+    expect(parameterFailure({ cells: [1], seed: 1.5 }).message).toBe('the "Seed" field must be an integer, got 1.5');
+    expect(parameterFailure({ cells: [1], rotation: 'yes' }).message).toContain('the "Rotate the grids" field must be true or false');
+    expect(parameterFailure({ cells: [1], design: 'random' }).message).toBe('the "Placement design" field must be one of halton, lattice, got "random"');
     expect(parameterFailure({ cells: [1], placement: 4 }).message).toContain('plan.placement is not a plan field');
     expect(parameterFailure('cells=1').message).toContain('plan must be an object');
   });
@@ -54,9 +57,10 @@ describe('normalizePlan', () => {
     expect(normalizePlan({ cells: Array.from({ length: 16 }, (_, i) => i + 1) }).cells).toHaveLength(16);
     expect(parameterFailure({ cells: Array.from({ length: 17 }, (_, i) => i + 1) }).message).toContain('1 to 16 cell sides in metres');
     expect(parameterFailure({ cells: [] }).message).toContain('1 to 16');
-    expect(parameterFailure({ cells: [100, -1] }).message).toBe('plan.cells[1] must be a positive finite number (cell sides in metres), got -1');
-    expect(parameterFailure({ perCell: [5, null] }).message).toContain('plan.perCell[1] must be a positive finite number (expected points per cell)');
-    expect(parameterFailure({ cells: [1e400] }).message).toContain('plan.cells[0]');
+    expect(parameterFailure({ cells: [100, -1] }).message).toBe('cell side 2 must be a positive finite number (cell sides in metres), got -1');
+    expect(parameterFailure({ cells: [100, -1] }).cliMessage).toBe('--cells value 2 must be a positive finite number (cell sides in metres), got -1');
+    expect(parameterFailure({ perCell: [5, null] }).cliMessage).toContain('--per-cell value 2 must be a positive finite number (expected points per cell)');
+    expect(parameterFailure({ cells: [1e400] }).message).toContain('cell side 1 ');
   });
 });
 
@@ -79,9 +83,10 @@ describe('resolveCellSizes', () => {
     })();
     expect(error.code).toBe('GS_ERR_PARAMETER');
     expect(error.message).toBe(
-      'plan.cells[1] gives cells of 800 m, which leave fewer than 2 cells in the valid region of 1000000 m^2; use cells of at most 707.107 m',
+      'cell side 2 gives cells of 800 m, which leave fewer than 2 cells in the valid region of 1000000 m²; use cells of at most 707.107 m',
     );
-    expect(() => resolveCellSizes(normalizePlan({ perCell: [300] }), 1e6, 400)).toThrow(/plan.perCell\[0\] gives cells of/);
+    expect(error.cliMessage).toMatch(/^--cells value 2 gives cells of 800 m/);
+    expect(() => resolveCellSizes(normalizePlan({ perCell: [300] }), 1e6, 400)).toThrow(/the cell side for expected points per cell value 1 gives cells of/);
   });
 });
 

@@ -47,10 +47,15 @@ describe('gridshake sweep (compiled command)', () => {
     expect(stdout).toContain('The overall Monte Carlo test across all 2 cell sizes and both tails finds a departure from CSR at alpha 0.05 (p = 0.05, R = 19): clustering');
     expect(stderr).toMatch(/\[#+\] 100 % 80\/80 placements/);
 
-    const rows = parse(readFileSync(join(out, 'placements.csv'), 'utf8'), { columns: true }) as Record<string, string>[];
+    const csvText = readFileSync(join(out, 'placements.csv'), 'utf8');
+    // LF line ends; a first comment line names the run; column names carry their units
+    expect(csvText).not.toContain('\r');
+    expect(csvText.split('\n')[0]).toMatch(/^# gridshake placements: dataset ".*", cell sides 80, 140 m, 40 placements per side \(halton, rotation on\), .*seed 4; coordinates planar/);
+    const rows = parse(csvText, { columns: true, comment: '#' }) as Record<string, string>[];
     expect(rows).toHaveLength(80);
-    expect(rows[0]).toMatchObject({ sizeIndex: '0', cellSize: '80', placementIndex: '0', u: '0', v: '0', angle: '0', verdict: 'clustered' });
-    expect(Number(rows[0].chi2) / Number(rows[0].df)).toBeCloseTo(Number(rows[0].chi2PerDf), 12);
+    expect(rows[0]).toMatchObject({ size_index: '0', cell_side_m: '80', placement: '0', offset_u_cells: '0', offset_v_cells: '0', angle_deg: '0', verdict: 'clustered' });
+    // six significant digits: chi2 / df agrees with chi2_per_df to the rounding
+    expect(Number(rows[0].chi2) / Number(rows[0].df)).toBeCloseTo(Number(rows[0].chi2_per_df), 3);
 
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8')) as SweepSummary;
     expect(summary.plan).toMatchObject({ cells: [80, 140], placements: 40, sims: 19, seed: 4, rotation: true, design: 'halton' });
@@ -75,7 +80,7 @@ describe('gridshake sweep (flags)', () => {
     expect(placements.stderr).toContain('--placements must be an integer from 1 to 65536, got 70000');
     const large = await inProcess(['sweep', '--points', files.points, '--area', files.area, '--crs', 'planar', '--cells', '5000', '--out', out]);
     expect(large.code).toBe(1);
-    expect(large.stderr).toMatch(/--cells\[0\] gives cells of 5000 m, which leave fewer than 2 cells/);
+    expect(large.stderr).toMatch(/--cells value 1 gives cells of 5000 m, which leave fewer than 2 cells/);
     const missing = await inProcess(['sweep', '--points', files.points, '--cells', '50']);
     expect(missing.code).toBe(2);
     expect(existsSync(out)).toBe(false);

@@ -79,6 +79,8 @@ export const api = {
     request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
   sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),
   sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
+  deleteDataset: (id: string) => request<void>(`/api/datasets/${id}`, { method: 'DELETE' }),
+  deleteSweep: (id: string) => request<void>(`/api/sweeps/${id}`, { method: 'DELETE' }),
   cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
   grid: (id: string, size: number, placement: number) =>

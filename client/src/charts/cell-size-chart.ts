@@ -29,6 +29,7 @@ export function cellSizeChartSpec(series: CellSizeSeries, placements: number): C
     );
   }
   const subtitle = [`${placements} placements per size; the triangle is the reference grid (angle 0, offset 0,0)`];
+  if (series.envelopeNote) subtitle.push(series.envelopeNote);
   const options = baseOptions(`Spread of ${label} across grid placements, by cell size`, subtitle, {
     x: axis('cell side (m)', { type: 'linear', ...cellSideBounds(series.cellSizes) }),
     y: axis(`${label} (ratio)`, { grace: '5%' }),

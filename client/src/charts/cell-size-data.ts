@@ -1,6 +1,16 @@
 import type { SizeSummary } from '../../../server/contracts.js';
 import { formatMetres } from './format.js';
 
+/** Why the CSR envelope is missing from the chart of `measure`, or null when every size has one. */
+export function envelopeNote(sizes: readonly SizeSummary[], measure: SpreadMeasure): string | null {
+  const simulated = sizes.filter((size) => size.monteCarlo);
+  if (simulated.length === 0) return 'No CSR envelope: this sweep ran no CSR simulations (set CSR simulations above 0 to get one)';
+  if (measure === 'vmr') {
+    return 'No CSR envelope for VMR: the simulations summarise chi-square / df (equal to VMR only when every kept cell is whole); choose chi-square / df to see it';
+  }
+  return simulated.length < sizes.length ? 'The CSR envelope is shown for the cell sides that were simulated' : null;
+}
+
 /** Which dispersion measure the cell-size chart spreads: chi2/df (index of dispersion per df) or VMR. */
 export type SpreadMeasure = 'chi2PerDf' | 'vmr';
 
@@ -18,6 +28,8 @@ export interface CellSizeSeries {
   /** CSR envelope (2.5 and 97.5 % of simulated medians of chi2/df); null without simulations or for VMR */
   envelopeLo: (number | null)[];
   envelopeHi: (number | null)[];
+  /** why the chart shows no CSR envelope (or only for some sizes), in words; null when every size has one */
+  envelopeNote: string | null;
   /** the reference placement's value (angle 0, offset (0,0)) */
   reference: number[];
   referenceInTail: boolean[];
@@ -45,6 +57,7 @@ export function cellSizeSeries(sizes: readonly SizeSummary[], measure: SpreadMea
     p95: ordered.map((size) => quantile(size).p95),
     envelopeLo: ordered.map((size) => envelope(size)?.lo ?? null),
     envelopeHi: ordered.map((size) => envelope(size)?.hi ?? null),
+    envelopeNote: envelopeNote(ordered, measure),
     reference: ordered.map((size) => size.reference[measure]),
     referenceInTail: ordered.map((size) => size.referenceInTail),
     referencePlacementIndex: ordered.map((size) => size.reference.placementIndex),

@@ -16,6 +16,17 @@ export function hydrateChartSpec(spec: any): any {
     const dataset = data.datasets[item.datasetIndex];
     return !(dataset && dataset.legendHidden);
   };
+  // a data point that carries its own tooltip text (`tip`, e.g. which placement a dot is) shows it
+  const tooltip = plugins.tooltip || (plugins.tooltip = {});
+  const callbacks = tooltip.callbacks || (tooltip.callbacks = {});
+  if (!callbacks.label) {
+    callbacks.label = function (context: any) {
+      const raw = context.raw;
+      if (raw && typeof raw.tip === 'string') return raw.tip;
+      const label = context.dataset && context.dataset.label ? context.dataset.label + ': ' : '';
+      return label + context.formattedValue;
+    };
+  }
   return spec;
 }
 

@@ -18,11 +18,11 @@ export function formatMetres(metres: number): string {
   return metres >= 10 ? `${Math.round(metres)} m` : `${formatNumber(metres, 2)} m`;
 }
 
-/** An area in square metres, shown in km2 from 1e6 m2 upward. */
+/** An area in square metres, shown in km² from 1e6 m² upward. */
 export function formatArea(squareMetres: number): string {
   if (!Number.isFinite(squareMetres)) return '-';
-  if (squareMetres >= 1e6) return `${formatNumber(squareMetres / 1e6, 4)} km2`;
-  return `${formatNumber(squareMetres, 4)} m2`;
+  if (squareMetres >= 1e6) return `${formatNumber(squareMetres / 1e6, 4)} km²`;
+  return `${formatNumber(squareMetres, 4)} m²`;
 }
 
 /** A share in [0, 1] as a whole percentage: 0.843 -> "84 %". */

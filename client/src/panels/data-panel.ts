@@ -1,7 +1,7 @@
 /** Step 1: choose a demo scenario or an earlier upload, or upload new files; then see the summary and warnings. */
 import { api, type StoredDataset } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { clear, el, field, message } from '../ui/dom.js';
+import { clear, confirmButton, el, field, message } from '../ui/dom.js';
 import { datasetSummaryView } from './dataset-summary-view.js';
 import { initEarlierSweeps } from './earlier-sweeps.js';
 import { uploadForm } from './upload-form.js';
@@ -42,8 +42,29 @@ export function initDataPanel(container: HTMLElement, store: Store): void {
       uploads.length > 0 ? el('optgroup', { label: 'Your uploads' }, ...uploads.map(option)) : null,
     );
     useButton.disabled = datasets.length === 0;
+    renderDelete();
     if (datasets.length === 0) clear(status, message('info', 'No datasets yet: upload your own files below.'));
   }
+
+  const deleteBox = el('span', {});
+  /** the delete button of the dataset selected in the list (its name in the question) */
+  const renderDelete = () => {
+    const id = select.value;
+    const option = select.selectedOptions[0];
+    if (!id || !option) {
+      clear(deleteBox);
+      return;
+    }
+    clear(deleteBox, confirmButton('Delete this dataset', `Delete ${option.textContent ?? 'this dataset'} and every sweep run on it?`, async () => {
+      await api.deleteDataset(id);
+      if (store.state.dataset?.id === id) {
+        store.update({ dataset: null, geometry: null, sweepId: null, summary: null, rows: [], sizeIndex: null, placement: null });
+      }
+      await refreshList();
+      clear(status, message('info', 'The dataset and its sweeps were deleted.'));
+    }, { id: 'delete-dataset' }));
+  };
+  select.addEventListener('change', renderDelete);
 
   useButton.addEventListener('click', async () => {
     if (!select.value) return;
@@ -61,7 +82,7 @@ export function initDataPanel(container: HTMLElement, store: Store): void {
   clear(
     container,
     el('p', {}, 'Start from an invented demo scenario, or bring your own points with a study area and no-data zones.'),
-    el('div', { class: 'field-row' }, field('Dataset', select), useButton),
+    el('div', { class: 'field-row' }, field('Dataset', select), useButton, deleteBox),
     status,
     upload,
     summary,

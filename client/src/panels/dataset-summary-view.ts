@@ -3,6 +3,7 @@ import type { StoredDataset } from '../api/api-client.js';
 import { datasetSummaryEntries, warningRecords } from '../charts/dataset-entries.js';
 import { formatMetres, formatNumber } from '../charts/format.js';
 import { el } from '../ui/dom.js';
+import { warningTitle } from '../../../server/messages/warning-titles.js';
 
 export function datasetSummaryView(dataset: StoredDataset): HTMLElement {
   const entries: [string, string][] = [
@@ -16,7 +17,7 @@ export function datasetSummaryView(dataset: StoredDataset): HTMLElement {
         'ul',
         { class: 'warning-list', 'aria-label': 'Input warnings' },
         ...dataset.warnings.map((warning) =>
-          el('li', {}, el('code', {}, warning.code), ' ', warning.message, warningRecords(warning)),
+          el('li', { 'data-warning': warning.code }, el('strong', {}, `${warningTitle(warning.code)}: `), warning.message, warningRecords(warning)),
         ),
       );
   return el('div', { class: 'dataset-summary' }, el('h3', {}, 'Summary'), list, el('h3', {}, `Warnings (${dataset.warnings.length})`), warnings);

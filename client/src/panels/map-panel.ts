@@ -2,6 +2,7 @@
  * The map aside: draws the dataset, and the chosen placement's grid with its caption and colour key. Also the
  * `pick` action the charts call: fetch GET /api/sweeps/:id/grid.geojson?size=K&placement=J and show it.
  */
+import { verdictWords } from '../charts/verdict-data.js';
 import { api } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
 import { formatMetres, formatNumber } from '../charts/format.js';
@@ -37,7 +38,7 @@ export function initMapPanel(canvas: HTMLCanvasElement, caption: HTMLElement, le
         const leftOut = placement.grid.features.length - kept;
         caption.textContent =
           `Placement ${placement.placementIndex} at ${size ? formatMetres(size.cellSize) : '?'}: ` +
-          (row ? `offset (${formatNumber(row.u)}, ${formatNumber(row.v)}), angle ${formatNumber(row.angle)} degrees, VMR ${formatNumber(row.vmr)}, verdict ${row.verdict}; ` : '') +
+          (row ? `offset (${formatNumber(row.u)}, ${formatNumber(row.v)}), angle ${formatNumber(row.angle)} degrees, VMR ${formatNumber(row.vmr)}, ${verdictWords(row.verdict)}; ` : '') +
           `${kept} cells kept, ${leftOut} left out (hatched); counts 0 to ${map.maxCount()}.`;
         const ramp = el('span', { class: 'ramp', 'aria-hidden': 'true' });
         ramp.style.background = sequentialGradientCss();

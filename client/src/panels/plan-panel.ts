@@ -14,6 +14,7 @@ import { clear, el, field, message } from '../ui/dom.js';
 export function initPlanPanel(container: HTMLElement, store: Store): void {
   store.subscribe((state, changed) => {
     if (changed.has('dataset') && state.dataset) buildForm(container, store);
+    if (changed.has('dataset') && !state.dataset) clear(container, el('p', { class: 'hint' }, 'Choose a dataset first.'));
     if (changed.has('health') && state.dataset) container.querySelector('form')?.dispatchEvent(new Event('change'));
   });
 }

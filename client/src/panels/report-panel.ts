@@ -7,6 +7,7 @@ import type { Store } from '../app-state.js';
 import { formatMetres } from '../charts/format.js';
 import { chartViews } from '../ui/chart-view.js';
 import { clear, el } from '../ui/dom.js';
+import { downloadName } from '../../../server/messages/download-names.js';
 
 export function initReportPanel(container: HTMLElement, store: Store): void {
   const render = () => {
@@ -24,19 +25,21 @@ export function initReportPanel(container: HTMLElement, store: Store): void {
         return el('li', {}, button);
       }),
     );
+    const sides = summary.sizes.map((candidate) => candidate.cellSize);
+    const named = (what: string, extension: string, only?: number) => downloadName(summary.dataset.name, only === undefined ? sides : [only], what, extension);
     const size = placement ? summary.sizes.find((candidate) => candidate.sizeIndex === placement.sizeIndex) : undefined;
     const gridLink = placement && size
       ? el('div', { class: 'download-row' },
-          el('a', { class: 'button', id: 'download-grid', href: downloads.grid(sweepId, placement.sizeIndex, placement.placementIndex), download: `grid-${Math.round(size.cellSize)}m-placement-${placement.placementIndex}.geojson` }, `Grid on the map (${formatMetres(size.cellSize)}, placement ${placement.placementIndex}) as GeoJSON`),
-          el('a', { class: 'button', id: 'download-grid-gpkg', href: downloads.gridGeoPackage(sweepId, placement.sizeIndex, placement.placementIndex), download: `grid-${Math.round(size.cellSize)}m-placement-${placement.placementIndex}.gpkg` }, 'as GeoPackage'),
+          el('a', { class: 'button', id: 'download-grid', href: downloads.grid(sweepId, placement.sizeIndex, placement.placementIndex), download: named(`grid-placement-${placement.placementIndex}`, 'geojson', size.cellSize) }, `Grid on the map (${formatMetres(size.cellSize)}, placement ${placement.placementIndex}) as GeoJSON`),
+          el('a', { class: 'button', id: 'download-grid-gpkg', href: downloads.gridGeoPackage(sweepId, placement.sizeIndex, placement.placementIndex), download: named(`grid-placement-${placement.placementIndex}`, 'gpkg', size.cellSize) }, 'as GeoPackage'),
         )
       : el('p', { class: 'hint' }, 'Show a placement on the map to download its grid as GeoJSON (longitude/latitude where the coordinate system is known) or GeoPackage.');
     clear(
       container,
       el('p', {}, 'Attach the HTML report to your own: it holds the dataset summary, plan, charts, tables, methods, versions, seed and cautions, works offline and prints cleanly to PDF.'),
       el('div', { class: 'download-row' },
-        el('a', { class: 'button button-primary', id: 'download-report', href: downloads.report(sweepId), download: 'gridshake-report.html' }, 'HTML report'),
-        el('a', { class: 'button', id: 'download-csv', href: downloads.placementsCsv(sweepId), download: 'placements.csv' }, 'Placements (CSV)'),
+        el('a', { class: 'button button-primary', id: 'download-report', href: downloads.report(sweepId), download: named('report', 'html') }, 'HTML report'),
+        el('a', { class: 'button', id: 'download-csv', href: downloads.placementsCsv(sweepId), download: named('placements', 'csv') }, 'Placements (CSV)'),
       ),
       el('h3', {}, 'Chosen grid'),
       gridLink,

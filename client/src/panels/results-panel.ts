@@ -9,7 +9,8 @@ import { overviewBundles, sizeBundles } from '../charts/chart-bundles.js';
 import { cellSizeSeries, type SpreadMeasure } from '../charts/cell-size-data.js';
 import { formatMetres } from '../charts/format.js';
 import { sizeNumbers } from '../charts/size-numbers.js';
-import { ChartView, type ChartClick } from '../ui/chart-view.js';
+import { ChartView, setPngNamer, type ChartClick } from '../ui/chart-view.js';
+import { downloadName } from '../../../server/messages/download-names.js';
 import { clear, el, field } from '../ui/dom.js';
 import { heatmapLegend } from './heatmap-legend.js';
 import { placementPicker } from './placement-picker.js';
@@ -94,6 +95,13 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
   });
 
   function buildLayout(summary: SweepSummary): void {
+    // chart PNGs carry the dataset name and the cell side: a per-size chart (id "angle-2") its own, the others all
+    setPngNamer((bundleId) => {
+      const sizeIndex = /-(\d+)$/.exec(bundleId);
+      const size = sizeIndex ? summary.sizes.find((candidate) => candidate.sizeIndex === Number(sizeIndex[1])) : undefined;
+      const sides = size ? [size.cellSize] : summary.sizes.map((candidate) => candidate.cellSize);
+      return downloadName(summary.dataset.name, sides, `chart-${bundleId.replace(/-\d+$/, '')}`, 'png');
+    });
     const measureSelect = el('select', { id: 'measure-select' }, el('option', { value: 'chi2PerDf' }, 'chi-square / df'), el('option', { value: 'vmr' }, 'VMR'));
     measureSelect.value = measure;
     measureSelect.addEventListener('change', () => {

@@ -25,6 +25,7 @@ export function initRunPanel(container: HTMLElement, store: Store): void {
     stopFollowing?.();
     stopFollowing = null;
     if (state.sweepId) stopFollowing = follow(container, store, state.sweepId);
+    else clear(container, el('p', { class: 'hint' }, 'Start a sweep from the plan.'));
   });
 }
 

@@ -1,5 +1,5 @@
 /** Upload of points, an optional study area and no-data zones, with the coordinate system choice. */
-import { api, type StoredDataset } from '../api/api-client.js';
+import { api, ApiError, type StoredDataset } from '../api/api-client.js';
 import { el, field, message } from '../ui/dom.js';
 
 export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLElement {
@@ -21,6 +21,7 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
   const name = el('input', { type: 'text', name: 'name', maxlength: 200 });
   const x = el('input', { type: 'text', name: 'x', maxlength: 100, placeholder: 'found by name' });
   const y = el('input', { type: 'text', name: 'y', maxlength: 100, placeholder: 'found by name' });
+  const skipBadRows = el('input', { type: 'checkbox', name: 'skipBadRows', id: 'upload-skip-bad-rows' });
   const feedback = el('div', { 'aria-live': 'polite' });
   const submit = el('button', { type: 'submit', class: 'button' }, 'Upload and check');
   const form = el(
@@ -33,6 +34,13 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
     field('EPSG code', epsg),
     field('Dataset name', name),
     el('div', { class: 'field-row' }, field('x / longitude column', x), field('y / latitude column', y)),
+    el(
+      'div',
+      { class: 'check-row' },
+      skipBadRows,
+      el('label', { for: skipBadRows.id }, 'Skip rows without coordinates'),
+      el('span', { class: 'field-hint' }, 'CSV rows whose coordinates are blank or n/a are left out and listed in a warning.'),
+    ),
     submit,
     feedback,
   );
@@ -50,6 +58,7 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
     const crsValue = crs.value === 'other' ? `EPSG:${epsg.value.trim()}` : crs.value;
     if (crsValue) body.append('crs', crsValue);
     for (const [key, input] of [['name', name], ['x', x], ['y', y]] as const) if (input.value.trim()) body.append(key, input.value.trim());
+    if (skipBadRows.checked) body.append('skipBadRows', 'true');
     submit.disabled = true;
     feedback.replaceChildren(message('info', 'Reading and checking the files...'));
     try {
@@ -58,6 +67,8 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
       onUploaded(dataset);
     } catch (error) {
       feedback.replaceChildren(message('error', error instanceof Error ? error.message : String(error)));
+      // rows without coordinates: the way out is the checkbox, so take the keyboard there
+      if (error instanceof ApiError && error.code === 'GS_ERR_BAD_ROWS' && !skipBadRows.checked) skipBadRows.focus();
     } finally {
       submit.disabled = false;
     }

@@ -39,8 +39,16 @@ export function readPlan(values: PlanFormValues): PlanReading {
     if (!size.include) continue;
     sides.push(numberIn(`Cell side (${size.label})`, size.text, (value) => value > 0, 'a positive number of metres', errors));
   }
-  for (const token of values.extraSides.split(/[\s,;]+/).filter((part) => part !== '')) {
-    sides.push(numberIn('More cell sides', token, (value) => value > 0, 'positive numbers of metres', errors));
+  // "150, 400 m" and "150m; 400m" are read as metres; every token that is not a positive number goes into one message
+  const tokens = values.extraSides.replace(/(\d)\s*m\b/gi, '$1').split(/[\s,;]+/).filter((part) => part !== '');
+  const bad: string[] = [];
+  for (const token of tokens) {
+    const value = Number(token);
+    if (Number.isFinite(value) && value > 0) sides.push(value);
+    else if (!bad.includes(token)) bad.push(token);
+  }
+  if (bad.length > 0) {
+    errors.push(`More cell sides: ${bad.map((token) => `"${token}"`).join(', ')} ${bad.length === 1 ? 'is not a' : 'are not'} positive number${bad.length === 1 ? '' : 's'} of metres (write e.g. 150, 400)`);
   }
   const cells = [...new Set(sides.filter((side) => side > 0))].sort((a, b) => a - b);
   if (cells.length === 0 && errors.length === 0) errors.push('Choose at least one cell side');
@@ -54,7 +62,7 @@ export function readPlan(values: PlanFormValues): PlanReading {
   if (errors.length === 0 && sims > 0 && !simsCanReject(sims, alpha)) {
     errors.push(`CSR simulations: ${sims} is too few for a test at alpha ${alpha} (no p-value below 1/(R+1)); use at least ${smallestWorkingSims(alpha)}, or 0 for per-placement evidence without a test`);
   }
-  if (errors.length > 0) return { plan: null, errors };
+  if (errors.length > 0) return { plan: null, errors: [...new Set(errors)] };
   return { plan: { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed }, errors };
 }
 

@@ -6,6 +6,7 @@ import { Chart, registerables, type ChartConfiguration } from 'chart.js';
 import { hydrateChartSpec, whiteBackgroundPlugin } from '../charts/chart-runtime.js';
 import type { ChartBundle } from '../charts/chart-spec.js';
 import { el, textTable } from './dom.js';
+import { NARROW_CHART_WIDTH, narrowLayout } from '../charts/narrow-layout.js';
 
 Chart.register(...registerables, whiteBackgroundPlugin());
 
@@ -14,6 +15,12 @@ export type ChartClick = (datasetIndex: number, index: number) => void;
 
 /** Every chart view on the page by bundle id, for the report step's PNG downloads and for tests. */
 export const chartViews = new Map<string, ChartView>();
+
+/** The PNG file name of a chart; the results panel sets it to carry the dataset name and cell side. */
+let pngName = (bundleId: string): string => `gridshake-${bundleId}.png`;
+export function setPngNamer(namer: (bundleId: string) => string): void {
+  pngName = namer;
+}
 
 export class ChartView {
   readonly element: HTMLElement;
@@ -48,6 +55,7 @@ export class ChartView {
     this.chart?.destroy();
     const spec = hydrateChartSpec(structuredClone(bundle.spec));
     spec.options.devicePixelRatio = Math.max(2, window.devicePixelRatio || 1);
+    narrowLayout(spec.options, this.canvas.parentElement?.clientWidth ?? NARROW_CHART_WIDTH);
     if (this.onClick) {
       const onClick = this.onClick;
       spec.options.onClick = (_event: unknown, elements: { datasetIndex: number; index: number }[]) => {
@@ -70,7 +78,7 @@ export class ChartView {
   }
 
   downloadPng(): void {
-    const link = el('a', { href: this.pngDataUrl(), download: `gridshake-${this.bundle.id}.png` });
+    const link = el('a', { href: this.pngDataUrl(), download: pngName(this.bundle.id) });
     document.body.append(link);
     link.click();
     link.remove();

@@ -56,3 +56,35 @@ export function field(label: string, control: HTMLElement, hint?: string): HTMLE
 export function message(kind: 'error' | 'info' | 'warning', text: string): HTMLElement {
   return el('p', { class: `message message-${kind}`, role: kind === 'error' ? 'alert' : 'status' }, text);
 }
+
+/**
+ * A delete button that asks before acting, in place (no browser dialog): the first press shows the question with
+ * "Yes, delete" and "Keep it"; focus moves to "Keep it" so a second Enter does not delete by accident.
+ */
+export function confirmButton(label: string, question: string, onConfirm: () => Promise<void>, attributes: Record<string, string> = {}): HTMLElement {
+  const box = el('span', { class: 'confirm-box' });
+  const start = el('button', { type: 'button', class: 'button button-small button-danger', ...attributes }, label);
+  const showStart = () => box.replaceChildren(start);
+  start.addEventListener('click', () => {
+    const yes = el('button', { type: 'button', class: 'button button-small button-danger', 'data-confirm': 'yes' }, 'Yes, delete');
+    const no = el('button', { type: 'button', class: 'button button-small', 'data-confirm': 'no' }, 'Keep it');
+    const status = el('span', { role: 'alert', class: 'confirm-question' }, question);
+    no.addEventListener('click', () => {
+      showStart();
+      start.focus();
+    });
+    yes.addEventListener('click', async () => {
+      yes.disabled = true;
+      no.disabled = true;
+      try {
+        await onConfirm();
+      } catch (error) {
+        box.replaceChildren(start, message('error', error instanceof Error ? error.message : String(error)));
+      }
+    });
+    box.replaceChildren(status, ' ', yes, ' ', no);
+    no.focus();
+  });
+  showStart();
+  return box;
+}
