@@ -53,7 +53,7 @@ export async function runQueueBench(): Promise<void> {
   try {
     const n = 2e5;
     const dataset = clusteredDataset(n, 4);
-    const plan = normalizePlan({ cells: [cellSideForExpected(5, n)], placements: 384, sims: 4, seed: 2 });
+    const plan = normalizePlan({ cells: [cellSideForExpected(5, n)], placements: 384, sims: 4, seed: 2, alpha: 0.5 });
     const tasks = estimateSweep(plan, n).tasks;
     const work = n * plan.placements * (1 + plan.sims);
     const rows: (string | number)[][] = [];

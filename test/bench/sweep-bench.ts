@@ -60,7 +60,7 @@ export async function runSweepBench(reference: CReference | null): Promise<Sweep
   let monteCarloSeconds: number;
   let pValue = Number.NaN;
   try {
-    await pool.runSweep(small, { ...monteCarloPlan, placements: 4, sims: 3 });
+    await pool.runSweep(small, { ...monteCarloPlan, placements: 4, sims: 3, alpha: 0.5 });
     monteCarloSeconds = await bestSecondsAsync(async () => {
       const result = await pool.runSweep(small, monteCarloPlan);
       pValue = result.summary.sizes[0].monteCarlo?.pMedianClustered ?? Number.NaN;

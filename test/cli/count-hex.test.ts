@@ -94,7 +94,7 @@ describe('gridshake count --shape hex', () => {
     expect(square.shape).toBe('square');
     const words = await run([...base, '--shape', 'hex']);
     expect(words.code).toBe(0);
-    expect(words.stdout).toMatch(/Grid: hexagonal cells of 900 m x 900 m area, angle 0 deg/);
+    expect(words.stdout).toMatch(/Grid: hexagonal cells of 900 m x 900 m area, angle 0°/);
   });
 
   it('refuses angles outside [0, 60) for hexagons and unknown shapes, in one line', async () => {

@@ -44,7 +44,7 @@ describe('queue faults', () => {
       const controller = new AbortController();
       let progressed = 0;
       const failure = await runner
-        .runSweep(uniform, normalizePlan({ cells: [40, 50, 60, 70], placements: 2048, sims: 9 }), {
+        .runSweep(uniform, normalizePlan({ cells: [40, 50, 60, 70], placements: 2048, sims: 9, alpha: 0.5 }), {
           signal: controller.signal,
           onProgress: (p) => {
             progressed = p.done;
@@ -58,7 +58,7 @@ describe('queue faults', () => {
       expect(progressed).toBeLessThan(4 * 2048);
       expect(await leftovers('cancel')).toEqual([]);
       // the queue stays usable
-      const after = await runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2 }));
+      const after = await runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2, alpha: 0.5 }));
       expect(after.rows).toHaveLength(8);
     } finally {
       await runner.destroy();
@@ -80,7 +80,7 @@ describe('queue faults', () => {
     const workers = logs.map((log) => worker(log, taskFile));
     const runner = queueRunner(redis.url, 'throws');
     try {
-      await expect(runner.runSweep(uniform, normalizePlan({ cells: [90, 13], placements: 16, sims: 2 }))).rejects.toThrow('engine failure at 13 m cells');
+      await expect(runner.runSweep(uniform, normalizePlan({ cells: [90, 13], placements: 16, sims: 2, alpha: 0.5 }))).rejects.toThrow('engine failure at 13 m cells');
       // each worker logs each failed try with its number (job.attemptsMade); the last log line may come a moment
       // after the server heard of the failure
       const tries = (): string[] => logs.flat().filter((line) => /engine failure at 13 m cells/.test(line));
@@ -113,7 +113,7 @@ describe('queue faults', () => {
     const runner = queueRunner(redis.url, 'waiting', { notices });
     let late: QueueWorker | null = null;
     try {
-      const run = runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2 }));
+      const run = runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2, alpha: 0.5 }));
       for (let k = 0; k < 100 && notices.length === 0; k++) await new Promise((resolve) => setTimeout(resolve, 50));
       expect(notices[0]).toMatch(new RegExp(`waiting for a worker to connect to redis://127.0.0.1:${redis.port}/0`));
       late = worker();
@@ -130,7 +130,7 @@ describe('queue faults', () => {
     const runner = queueRunner(`redis://:secret@127.0.0.1:${port}`, 'unreachable', { lostAfterMs: 1500 });
     const started = Date.now();
     try {
-      const failure = (await runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2 })).catch((e) => e)) as Error;
+      const failure = (await runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2, alpha: 0.5 })).catch((e) => e)) as Error;
       expect(failure.message).toMatch(new RegExp(`the Redis queue at redis://127.0.0.1:${port}/0 did not answer for 2 s .*check that Redis runs there`));
       expect(failure.message).not.toContain('secret');
       expect(Date.now() - started).toBeLessThan(10_000);

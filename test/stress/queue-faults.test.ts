@@ -75,7 +75,7 @@ describe('queue faults with worker processes', () => {
     expect(created.statusCode).toBe(201);
     const datasetId = created.json().id as string;
     const startSweep = async (placements: number): Promise<string> => {
-      const response = await app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId, plan: { cells: [50, 70], placements, sims: 9 } } });
+      const response = await app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId, plan: { cells: [50, 70], placements, sims: 9, alpha: 0.5 } } });
       expect(response.statusCode).toBe(202);
       return response.json().id as string;
     };

@@ -71,14 +71,14 @@ afterAll(async () => {
 describe('the sweep runner on an executor', () => {
   it('keeps at most maxInFlight tasks in flight', async () => {
     // 3000 points and 3 sims: 64 placements per chunk, 512 placements x 2 sizes = 16 chunk tasks
-    await runner.runSweep(uniform, normalizePlan({ cells: [80, 120], placements: 512, sims: 3 }));
+    await runner.runSweep(uniform, normalizePlan({ cells: [80, 120], placements: 512, sims: 3, alpha: 0.5 }));
     expect(executor.mostInFlight).toBeGreaterThan(1);
     expect(executor.mostInFlight).toBeLessThanOrEqual(3);
   });
 
   it('keys the shared copy by dataset id and content: a fresh load of the same dataset is not sorted and shared again', async () => {
     const before = executor.inner.sharedCopies;
-    const plan = normalizePlan({ cells: [100], placements: 8, sims: 2 });
+    const plan = normalizePlan({ cells: [100], placements: 8, sims: 2, alpha: 0.5 });
     // two loads of one stored dataset: equal content, different objects (as the store returns them)
     const first = structuredClone(uniform);
     const second = structuredClone(uniform);
