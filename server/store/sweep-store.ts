@@ -95,14 +95,31 @@ export class SweepStore {
     return row === undefined ? undefined : toRecord(row, true);
   }
 
-  /** All sweeps (newest first), without their summaries. */
-  list(datasetId?: string): SweepRecord[] {
+  /** Sweeps (newest first), without their summaries: all of them, or one page (`limit` from `offset`). */
+  list(datasetId?: string, page: { limit: number; offset: number } = { limit: -1, offset: 0 }): SweepRecord[] {
     const rows = (
       datasetId === undefined
-        ? this.db.prepare(`${LIST_COLUMNS} ORDER BY created_at DESC, rowid DESC`).all()
-        : this.db.prepare(`${LIST_COLUMNS} WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC`).all(datasetId)
+        ? this.db.prepare(`${LIST_COLUMNS} ORDER BY created_at DESC, rowid DESC LIMIT ? OFFSET ?`).all(page.limit, page.offset)
+        : this.db
+            .prepare(`${LIST_COLUMNS} WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC LIMIT ? OFFSET ?`)
+            .all(datasetId, page.limit, page.offset)
     ) as SweepRow[];
     return rows.map((row) => toRecord(row, false));
+  }
+
+  /** How many sweeps there are (of one dataset). */
+  count(datasetId?: string): number {
+    const row = (
+      datasetId === undefined
+        ? this.db.prepare('SELECT COUNT(*) AS n FROM sweeps').get()
+        : this.db.prepare('SELECT COUNT(*) AS n FROM sweeps WHERE dataset_id = ?').get(datasetId)
+    ) as { n: number };
+    return row.n;
+  }
+
+  /** How many sweeps wait to run (status `queued`). */
+  countQueued(): number {
+    return (this.db.prepare(`SELECT COUNT(*) AS n FROM sweeps WHERE status = 'queued'`).get() as { n: number }).n;
   }
 
   markRunning(id: string): void {
