@@ -87,7 +87,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   }
   try {
     if (values['no-demo'] !== true && services.store.datasets.count() === 0) {
-      const loaded = loadDemoScenarios(services, SAMPLES_DIR);
+      const loaded = await loadDemoScenarios(services, SAMPLES_DIR);
       io.stderr(`gridshake: loaded ${loaded.length} invented demo scenarios from ${SAMPLES_DIR}\n`);
     }
     await app.listen({ host, port }).catch((error: unknown) => {

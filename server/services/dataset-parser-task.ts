@@ -30,6 +30,8 @@ export interface ParseTask {
   options: DatasetOptions;
   /** the data folder's database file, or null for an in-memory store (the dataset is returned instead) */
   databasePath: string | null;
+  /** the demo scenario's folder name, for a demo dataset */
+  sampleId: string | null;
 }
 
 export type ParseOutcome =
@@ -59,7 +61,7 @@ export default function parseUpload(task: ParseTask): ParseOutcome {
     );
     const summary = summarizeDataset(dataset);
     if (task.databasePath !== null) {
-      return { ok: true, summary: storeFor(task.databasePath).datasets.insert(dataset, summary) };
+      return { ok: true, summary: storeFor(task.databasePath).datasets.insert(dataset, summary, task.sampleId) };
     }
     return { ok: true, summary: null, dataset, datasetSummary: summary };
   } catch (error) {

@@ -42,8 +42,8 @@ export class DatasetParser {
   }
 
   /** Parse and store an upload in the worker; throws the inputs' coded errors (400, 413), nothing stored then. */
-  async create(files: UploadedDataset, options: DatasetOptions): Promise<StoredDatasetSummary> {
-    const task: ParseTask = { ...files, options, databasePath: this.store.path === ':memory:' ? null : this.store.path };
+  async create(files: UploadedDataset, options: DatasetOptions, sampleId: string | null = null): Promise<StoredDatasetSummary> {
+    const task: ParseTask = { ...files, options, databasePath: this.store.path === ':memory:' ? null : this.store.path, sampleId };
     let outcome: ParseOutcome;
     try {
       outcome = (await this.pool.run(task)) as ParseOutcome;
@@ -55,7 +55,7 @@ export class DatasetParser {
     }
     if (!outcome.ok) throw new GridshakeError(outcome.error.code, outcome.error.statusCode, outcome.error.message);
     if (outcome.summary !== null) return outcome.summary;
-    return this.store.datasets.insert(outcome.dataset, outcome.datasetSummary);
+    return this.store.datasets.insert(outcome.dataset, outcome.datasetSummary, sampleId);
   }
 
   async destroy(): Promise<void> {

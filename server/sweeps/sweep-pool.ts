@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import type { ResourceLimits } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../contracts.js';
-import { summarizeDataset } from '../inputs/index.js';
+import { summarizeDataset } from '../inputs/summarize-dataset.js';
 import { PACKAGE_ROOT, PACKAGE_VERSION } from '../services/project-paths.js';
 import { buildSweepSummary } from '../summary/sweep-summary.js';
 import type { ChunkTask, SimulateTask } from '../../workers/sweep/sweep-task.js';
