@@ -128,8 +128,23 @@ export class SweepStore {
       .run(new Date().toISOString(), id);
   }
 
-  saveProgress(id: string, progress: SweepProgress): void {
-    this.db.prepare('UPDATE sweeps SET progress_json = ? WHERE id = ?').run(toStoredJson(progress), id);
+  /**
+   * Save a running sweep's progress. Advisory (the next save follows a second later), so it never waits for the
+   * write lock: while the upload parser's thread stores a large dataset, waiting here would stall the event loop for
+   * as long as that write takes. Returns false when the save was skipped.
+   */
+  saveProgress(id: string, progress: SweepProgress): boolean {
+    const waitMs = Number(this.db.pragma('busy_timeout', { simple: true }));
+    this.db.pragma('busy_timeout = 0');
+    try {
+      this.db.prepare('UPDATE sweeps SET progress_json = ? WHERE id = ?').run(toStoredJson(progress), id);
+      return true;
+    } catch (error) {
+      if ((error as { code?: string }).code === 'SQLITE_BUSY') return false;
+      throw error;
+    } finally {
+      this.db.pragma(`busy_timeout = ${waitMs}`);
+    }
   }
 
   /** Record the end of a sweep: its final status, progress, and summary or error, in one statement. */
