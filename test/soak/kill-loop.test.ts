@@ -90,6 +90,7 @@ async function waitFor(id: string, wanted: (state: SweepState) => boolean, timeo
   for (;;) {
     const state = await sweepState(id);
     if (state !== null && wanted(state)) return state;
+    if (state?.status === 'failed') throw new Error(`sweep ${id} failed: ${state.error}`);
     if (Date.now() > deadline) throw new Error(`sweep ${id} not in the wanted state after ${timeoutMs} ms: ${JSON.stringify(state)}`);
     await new Promise((resolve) => setTimeout(resolve, 15));
   }
