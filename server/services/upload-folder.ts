@@ -16,7 +16,11 @@ export class UploadFolder {
   readonly root: string;
 
   constructor(dataDir: string) {
-    this.root = dataDir === ':memory:' ? join(tmpdir(), `gridshake-uploads-${process.pid}`) : join(resolve(dataDir), UPLOADS_FOLDER_NAME);
+    // an in-memory store has no folder of its own: a fresh one per app (several may run in one process)
+    this.root =
+      dataDir === ':memory:'
+        ? join(tmpdir(), `gridshake-uploads-${process.pid}-${randomBytes(6).toString('hex')}`)
+        : join(resolve(dataDir), UPLOADS_FOLDER_NAME);
   }
 
   /** Remove everything a previous process left (call once at start, under the data folder's lock). */
