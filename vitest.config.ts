@@ -5,7 +5,7 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts'],
-    exclude: ['test/stress/**', 'node_modules/**', 'dist/**'],
+    exclude: ['test/stress/**', 'test/soak/**', 'node_modules/**', 'dist/**'],
     testTimeout: 60_000,
     hookTimeout: 120_000,
     pool: 'forks',

@@ -3,13 +3,15 @@
  * Opens the store, marks sweeps left running by an earlier process `interrupted`, builds the services and the sweep
  * queue on one worker pool, installs the request guards and the one error handler, and registers the routes.
  * Closing the app stops the queue (running sweeps become `interrupted`, event streams get their end), then the
- * connections, the pool and the store.
+ * connections, the pools and the store.
+ * Limits (server/limits.ts): JSON bodies JSON_BODY_LIMIT, uploads --body-limit (multipart only on the upload route),
+ * headers and bodies timed (server/security/request-timeouts.ts), worker threads at most MAX_THREADS_PER_CORE per core.
  */
 import fastifyMultipart from '@fastify/multipart';
 import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import type { AddressInfo } from 'node:net';
 import { registerClientStatic } from './routes/client-static.js';
-import { registerDatasetRoutes, MAX_NO_DATA_FILES } from './routes/dataset-routes.js';
+import { registerDatasetRoutes, MAX_NO_DATA_FILES, uploadFileHandler } from './routes/dataset-routes.js';
 import { ERROR_SCHEMA, installErrorHandling } from './routes/error-handler.js';
 import { registerHealthRoutes } from './routes/health-routes.js';
 import { DATASET_SUMMARY_SCHEMA, SWEEP_SCHEMA } from './routes/schemas/common-schemas.js';
@@ -29,7 +31,11 @@ import { GridshakeStore } from './store/store.js';
 import type { QueueConnection } from './queue/queue-url.js';
 import { SweepPool } from './sweeps/sweep-pool.js';
 import { workBudgetFromEnv } from './sweeps/sweep-budget.js';
-import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from './limits.js';
+import { BODY_TIMEOUT_MS, DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS, HEADERS_TIMEOUT_MS, JSON_BODY_LIMIT } from './limits.js';
+import { installBodyTimeout, serverTimeoutOptions, type RequestTimeouts } from './security/request-timeouts.js';
+import { DatasetParser } from './services/dataset-parser.js';
+import { UploadFolder } from './services/upload-folder.js';
+import { checkThreadCount } from './sweeps/thread-count.js';
 
 
 export interface AppOptions {
@@ -43,8 +49,10 @@ export interface AppOptions {
   maxPoints?: number;
   /** work budget of a sweep in point-placements (default GRIDSHAKE_WORK_BUDGET or the sweeps' default) */
   workBudget?: number;
-  /** worker threads of the pool (default: one per core) */
+  /** worker threads of the pool (default: one per core; at most MAX_THREADS_PER_CORE per core) */
   threads?: number;
+  /** time limits for request headers and bodies (default HEADERS_TIMEOUT_MS, BODY_TIMEOUT_MS) */
+  timeouts?: Partial<RequestTimeouts>;
   /** folder of the built page (default dist/client) */
   clientDir?: string;
   /** send sweeps to this Redis queue instead of the local pool (keys prefixed per data folder) */
@@ -74,19 +82,26 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const bodyLimit = options.bodyLimit ?? DEFAULT_BODY_LIMIT;
   const maxPoints = options.maxPoints ?? DEFAULT_MAX_POINTS;
   const workBudget = options.workBudget ?? workBudgetFromEnv();
-  const store = GridshakeStore.open(options.dataDir ?? './.gridshake');
-  const interruptedAtStart = store.sweeps.markInterrupted();
+  const timeouts: RequestTimeouts = { headersMs: HEADERS_TIMEOUT_MS, bodyMs: BODY_TIMEOUT_MS, ...options.timeouts };
+  if (options.threads !== undefined) checkThreadCount(options.threads);
   const dataDir = options.dataDir ?? './.gridshake';
+  const store = GridshakeStore.open(dataDir);
+  const interruptedAtStart = store.sweeps.markInterrupted();
+  const uploads = new UploadFolder(dataDir);
+  uploads.clearLeftovers();
   const runner =
     options.runner ??
     (options.queue
       ? // loaded only when asked for: the local pool does not load BullMQ
         (await import('./queue/queue-runner.js')).queueSweepRunner(options.queue, dataDir, workBudget)
       : new SweepPool({ threads: options.threads, budget: workBudget }));
+  const parser = new DatasetParser(store);
 
   const app = Fastify({
     logger: options.logger ?? false,
-    bodyLimit,
+    // JSON bodies (plans, ids); the upload route has its own limit
+    bodyLimit: JSON_BODY_LIMIT,
+    ...serverTimeoutOptions(timeouts),
     ajv: { customOptions: { removeAdditional: false, allErrors: false } },
     schemaErrorFormatter: formatValidationErrors,
     return503OnClosing: true,
@@ -94,7 +109,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     forceCloseConnections: true,
   });
   const queue = new SweepQueue(store, runner, app.log);
-  const datasets = new DatasetService(store, queue, maxPoints);
+  const datasets = new DatasetService(store, queue, maxPoints, parser);
   const sweeps = new SweepService(store, queue, workBudget);
   app.decorate('gridshake', { store, queue, datasets, sweeps, runner, interruptedAtStart });
 
@@ -103,7 +118,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     return address !== null && typeof address === 'object' ? address.port : null;
   });
   installRequestGuards(app, policy);
-  installErrorHandling(app, { bodyLimit, fileLimit: bodyLimit });
+  installBodyTimeout(app, timeouts);
+  installErrorHandling(app, { bodyLimit: JSON_BODY_LIMIT, fileLimit: bodyLimit });
   app.addHook('onSend', async (_request, reply) => {
     reply.header('x-content-type-options', 'nosniff');
     reply.header('x-frame-options', 'DENY');
@@ -114,6 +130,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   app.addSchema(SWEEP_SCHEMA);
   await app.register(fastifyMultipart, {
     attachFieldsToBody: true,
+    onFile: uploadFileHandler(uploads, bodyLimit),
     limits: { fileSize: bodyLimit, files: 2 + MAX_NO_DATA_FILES, fields: 10, fieldSize: 4096, parts: 4 + MAX_NO_DATA_FILES + 10 },
   });
 
@@ -124,7 +141,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     datasets: store.datasets.count(),
     workBudget,
   }));
-  registerDatasetRoutes(app, datasets, bodyLimit);
+  registerDatasetRoutes(app, datasets, bodyLimit, uploads);
   registerSweepRoutes(app, sweeps);
   registerSweepEventsRoute(app, sweeps, queue);
   registerSweepExportRoutes(app, new SweepExports(store, datasets, sweeps));
@@ -137,6 +154,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   app.addHook('onClose', async () => {
     await queue.close();
     await runner.destroy();
+    await parser.destroy();
     store.close();
   });
   return app;

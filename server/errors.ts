@@ -95,3 +95,28 @@ export function badRowsError(message: string): GridshakeError {
 export function isGridshakeError(value: unknown): value is GridshakeError {
   return value instanceof GridshakeError;
 }
+
+/** A full sweep queue: too many sweeps are waiting to run (429). */
+export function queueFullError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_QUEUE_FULL', 429, message);
+}
+
+/** Too many event streams open on this server (429). */
+export function tooManyStreamsError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_TOO_MANY_STREAMS', 429, message);
+}
+
+/** Too many uploads in progress at once (429). */
+export function tooManyUploadsError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_TOO_MANY_UPLOADS', 429, message);
+}
+
+/** A request whose headers or body did not arrive in time (408). */
+export function timeoutError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_TIMEOUT', 408, message);
+}
+
+/** A database that fails its schema or integrity check at start (500; the server refuses to start). */
+export function databaseError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_DATABASE', 500, message);
+}

@@ -5,11 +5,12 @@
  */
 import type { AddressInfo } from 'node:net';
 import { buildApp } from '../app.js';
-import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../limits.js';
+import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS, MAX_THREADS_PER_CORE } from '../limits.js';
 import { GridshakeError } from '../errors.js';
 import { loadDemoScenarios } from '../services/demo-loader.js';
 import { SAMPLES_DIR } from '../services/project-paths.js';
 import { lockDataFolder } from '../store/data-folder-lock.js';
+import { checkThreadCount } from '../sweeps/thread-count.js';
 import { optionalString, parseChecked, parseWholeNumber, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
@@ -26,7 +27,7 @@ const OPTIONS: OptionSpecs = {
   data: { type: 'string', value: 'DIR', description: `data folder of the database; default ${DEFAULT_DATA_DIR}` },
   'body-limit': { type: 'string', value: 'MB', description: `largest upload in MB; default ${DEFAULT_BODY_LIMIT / 1048576}` },
   'max-points': { type: 'string', value: 'N', description: `most points in one dataset; default ${DEFAULT_MAX_POINTS}` },
-  threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
+  threads: { type: 'string', value: 'N', description: `worker threads; default one per core, at most ${MAX_THREADS_PER_CORE} per core` },
   'no-demo': { type: 'boolean', description: 'do not load the demo scenarios into an empty database' },
   ...QUEUE_OPTION,
 };
@@ -70,7 +71,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   const pointsText = optionalString(values, 'max-points');
   const maxPoints = pointsText === undefined ? DEFAULT_MAX_POINTS : parseWholeNumber(pointsText, 'max-points', 1);
   const threadsText = optionalString(values, 'threads');
-  const threads = threadsText === undefined ? undefined : parseWholeNumber(threadsText, 'threads', 1);
+  const threads = threadsText === undefined ? undefined : checkThreadCount(parseWholeNumber(threadsText, 'threads', 1));
   const queue = queueFromOptions(values);
 
   const warning = bindWarning(host);
@@ -89,7 +90,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   }
   try {
     if (values['no-demo'] !== true && services.store.datasets.count() === 0) {
-      const loaded = loadDemoScenarios(services, SAMPLES_DIR);
+      const loaded = await loadDemoScenarios(services, SAMPLES_DIR);
       io.stderr(`gridshake: loaded ${loaded.length} invented demo scenarios from ${SAMPLES_DIR}\n`);
     }
     await app.listen({ host, port }).catch((error: unknown) => {

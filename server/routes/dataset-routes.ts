@@ -1,13 +1,18 @@
 /**
  * Dataset routes: upload (multipart: points, area, noData files; crs, name, x, y fields), list, summary, geometry
  * for drawing, delete. Multipart parts arrive as body fields (@fastify/multipart attachFieldsToBody) and are checked
- * by the body schema before the handler runs.
+ * by the body schema before the handler runs; file parts are streamed to the request's upload folder as they arrive
+ * (uploadFileHandler), never held in memory, and parsed in a worker thread (DatasetParser).
+ * The upload is the only route that takes multipart (config.multipart), with the --body-limit; at most
+ * MAX_CONCURRENT_UPLOADS are received at once, more are refused before their body is read.
  */
-import type { FastifyInstance } from 'fastify';
+import type { FastifyInstance, FastifyRequest } from 'fastify';
 import type { MultipartFile, MultipartValue } from '@fastify/multipart';
-import { GridshakeError, tooLargeError } from '../errors.js';
-import type { InputFile } from '../inputs/index.js';
+import { GridshakeError, tooLargeError, tooManyUploadsError } from '../errors.js';
+import { MAX_CONCURRENT_UPLOADS } from '../limits.js';
+import type { UploadedFile } from '../services/dataset-parser.js';
 import type { DatasetService } from '../services/dataset-service.js';
+import type { UploadFolder } from '../services/upload-folder.js';
 import { errorResponses } from './error-handler.js';
 import { BBOX_SCHEMA, ID_PARAMS } from './schemas/common-schemas.js';
 
@@ -57,10 +62,12 @@ const GEOMETRY_RESPONSE = {
   },
 } as const;
 
+type SavedPart = MultipartFile & { savedPath?: string };
+
 interface UploadBody {
-  points: MultipartFile;
-  area?: MultipartFile;
-  noData?: MultipartFile | MultipartFile[];
+  points: SavedPart;
+  area?: SavedPart;
+  noData?: SavedPart | SavedPart[];
   crs?: MultipartValue<string>;
   name?: MultipartValue<string>;
   x?: MultipartValue<string>;
@@ -73,8 +80,42 @@ function megabytes(bytes: number): string {
   return `${Number((bytes / 1048576).toPrecision(3))} MB`;
 }
 
-async function toInputFile(part: MultipartFile): Promise<InputFile> {
-  return { name: part.filename, content: new Uint8Array(await part.toBuffer()) };
+interface UploadState {
+  folder: string | null;
+  parts: number;
+  counted: boolean;
+}
+
+const uploadStates = new WeakMap<FastifyRequest, UploadState>();
+
+function stateOf(request: FastifyRequest): UploadState {
+  let state = uploadStates.get(request);
+  if (state === undefined) {
+    state = { folder: null, parts: 0, counted: false };
+    uploadStates.set(request, state);
+  }
+  return state;
+}
+
+/**
+ * The multipart plugin's onFile: stream a file part into the request's upload folder (created on the first part).
+ * A part cut at the file size limit is refused with 413.
+ */
+export function uploadFileHandler(uploads: UploadFolder, fileLimit: number) {
+  return async function onFile(this: FastifyRequest, part: MultipartFile): Promise<void> {
+    const state = stateOf(this);
+    state.folder ??= uploads.newRequestFolder();
+    state.parts += 1;
+    (part as SavedPart).savedPath = await uploads.save(state.folder, state.parts, part.file);
+    if (part.file.truncated) {
+      throw tooLargeError(`${part.filename}: the file is larger than the limit of ${megabytes(fileLimit)} (--body-limit)`);
+    }
+  };
+}
+
+function uploaded(part: SavedPart): UploadedFile {
+  if (part.savedPath === undefined) throw new GridshakeError('GS_ERR_UPLOAD', 400, `${part.filename}: the file did not arrive whole; send it again`);
+  return { name: part.filename, path: part.savedPath };
 }
 
 function fieldValue(part: MultipartValue<string> | undefined): string | undefined {
@@ -82,12 +123,24 @@ function fieldValue(part: MultipartValue<string> | undefined): string | undefine
   return value === undefined || value === '' ? undefined : value;
 }
 
-export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetService, bodyLimit: number): void {
+export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetService, bodyLimit: number, uploads: UploadFolder): void {
+  let receiving = 0;
+  const release = async (request: FastifyRequest): Promise<void> => {
+    const state = uploadStates.get(request);
+    if (state === undefined) return;
+    uploadStates.delete(request);
+    if (state.counted) receiving -= 1;
+    if (state.folder !== null) uploads.remove(state.folder);
+  };
   app.post<{ Body: UploadBody }>(
     '/api/datasets',
     {
+      config: { multipart: true },
+      bodyLimit,
+      onResponse: release,
+      onRequestAbort: release,
       // before the multipart parser runs: the parser limits each file, this limits the whole request
-      onRequest: async (request) => {
+      onRequest: async (request, reply) => {
         const type = (request.headers['content-type'] ?? '').toLowerCase();
         if (!type.startsWith('multipart/form-data')) {
           throw new GridshakeError('GS_ERR_CONTENT_TYPE', 415, 'POST /api/datasets needs a multipart/form-data upload');
@@ -101,21 +154,29 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
             `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (the upload limit set when the server was started)`,
           );
         }
+        if (receiving >= MAX_CONCURRENT_UPLOADS) {
+          reply.header('connection', 'close');
+          throw tooManyUploadsError(
+            `${MAX_CONCURRENT_UPLOADS} uploads are already in progress; send this one again when one of them has finished`,
+          );
+        }
+        receiving += 1;
+        stateOf(request).counted = true;
       },
       schema: {
         body: UPLOAD_BODY,
-        response: { 201: { $ref: 'gsDatasetSummary#' }, ...errorResponses(400, 411, 413) },
+        response: { 201: { $ref: 'gsDatasetSummary#' }, ...errorResponses(400, 408, 411, 413, 429) },
       },
     },
     async (request, reply) => {
       const body = request.body;
       const noDataParts = body.noData === undefined ? [] : Array.isArray(body.noData) ? body.noData : [body.noData];
       const input = {
-        points: await toInputFile(body.points),
-        area: body.area === undefined ? undefined : await toInputFile(body.area),
-        noData: await Promise.all(noDataParts.map(toInputFile)),
+        points: uploaded(body.points),
+        area: body.area === undefined ? undefined : uploaded(body.area),
+        noData: noDataParts.map(uploaded),
       };
-      const summary = datasets.create(input, {
+      const summary = await datasets.createFromUpload(input, {
         crs: fieldValue(body.crs),
         name: fieldValue(body.name),
         x: fieldValue(body.x),

@@ -14,6 +14,7 @@ export interface ErrorBody {
 }
 
 export interface LimitsForMessages {
+  /** largest JSON body, bytes */
   bodyLimit: number;
   fileLimit: number;
 }
@@ -44,7 +45,7 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
   if (TOO_LARGE_CODES.has(code)) {
     const what =
       code === 'FST_ERR_CTP_BODY_TOO_LARGE'
-        ? `the request body is larger than the limit of ${megabytes(limits.bodyLimit)} (the upload limit set when the server was started)`
+        ? `the request body is larger than the limit of ${limits.bodyLimit / 1024} KB for a JSON request (a plan is a few hundred bytes)`
         : code === 'FST_REQ_FILE_TOO_LARGE'
           ? `an uploaded file is larger than the limit of ${megabytes(limits.fileLimit)} (the upload limit set when the server was started)`
           : `the upload has too many files or fields (${fastifyError.message ?? code})`;

@@ -3,12 +3,16 @@
  * Events: `progress` with { id, status, progress } at once, on every pool report and at least once a second while
  * the sweep waits or runs; then one `end` event with { id, status, progress, error } and the stream closes.
  * A sweep that has already finished gets its `end` event at once. Client disconnects unsubscribe.
+ * At most MAX_EVENT_STREAMS streams are open on the server at once; another is refused with
+ * 429 GS_ERR_TOO_MANY_STREAMS (the page then polls GET /api/sweeps/:id).
  */
 import type { FastifyInstance, FastifyReply } from 'fastify';
 import type { SweepProgress, SweepStatus } from '../contracts.js';
 import type { SweepQueue } from '../services/sweep-queue.js';
 import type { SweepService } from '../services/sweep-service.js';
 import { FINISHED_STATUSES } from '../store/sweep-store.js';
+import { tooManyStreamsError } from '../errors.js';
+import { MAX_EVENT_STREAMS } from '../limits.js';
 import { errorResponses } from './error-handler.js';
 import { ID_PARAMS } from './schemas/common-schemas.js';
 
@@ -19,17 +23,31 @@ function writeEvent(reply: FastifyReply, event: string, data: unknown): void {
 }
 
 export function registerSweepEventsRoute(app: FastifyInstance, sweeps: SweepService, queue: SweepQueue): void {
+  let open = 0;
   app.get<{ Params: { id: string } }>(
     '/api/sweeps/:id/events',
     {
       schema: {
         params: ID_PARAMS,
-        response: { 200: { type: 'string', description: 'text/event-stream' }, ...errorResponses(400, 404) },
+        response: { 200: { type: 'string', description: 'text/event-stream' }, ...errorResponses(400, 404, 429) },
       },
     },
     async (request, reply) => {
       const id = request.params.id;
       const initial = sweeps.progress(id);
+      if (open >= MAX_EVENT_STREAMS) {
+        throw tooManyStreamsError(
+          `${open} event streams are open on this server, the most it keeps (${MAX_EVENT_STREAMS}); close some pages, ` +
+            `or follow the sweep with GET /api/sweeps/${id}`,
+        );
+      }
+      open += 1;
+      let counted = true;
+      const uncount = (): void => {
+        if (counted) open -= 1;
+        counted = false;
+      };
+      reply.raw.once('close', uncount);
       reply.hijack();
       reply.raw.writeHead(200, {
         'content-type': 'text/event-stream; charset=utf-8',

@@ -7,9 +7,8 @@ import type { FastifyInstance } from 'fastify';
 import type { SweepExports } from '../services/sweep-exports.js';
 import { errorResponses } from './error-handler.js';
 import { ID_PARAMS } from './schemas/common-schemas.js';
+import { REPORT_POLICY } from '../security/content-security-policy.js';
 
-const REPORT_POLICY =
-  "default-src 'none'; script-src 'unsafe-inline'; style-src 'unsafe-inline'; img-src data: blob:; base-uri 'none'; form-action 'none'";
 
 const GRID_QUERY_PROPERTIES = { size: { type: 'integer', minimum: 0 }, placement: { type: 'integer', minimum: 0 } } as const;
 

@@ -1,9 +1,11 @@
 /**
- * Sweep routes: start (202 with the estimate; plan and budget refusals are 400 before queuing), list, get,
- * cancel (409 once finished), rerun from the stored plan, delete.
+ * Sweep routes: start (202 with the estimate; plan and budget refusals are 400 before queuing, a full queue 429),
+ * list (newest first, paged: ?limit=1..500, default 100, &offset; the x-total-count header gives the whole count),
+ * get, cancel (409 once finished), rerun from the stored plan, delete.
  */
 import type { FastifyInstance } from 'fastify';
 import type { SweepService } from '../services/sweep-service.js';
+import { SWEEP_PAGE_DEFAULT, SWEEP_PAGE_MAX } from '../limits.js';
 import { errorResponses } from './error-handler.js';
 import { ID_PARAMS, PLAN_SCHEMA, SWEEP_ESTIMATE_SCHEMA } from './schemas/common-schemas.js';
 
@@ -29,19 +31,31 @@ const STARTED_RESPONSE = {
 export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService): void {
   app.post<{ Body: { datasetId: string; plan: unknown } }>(
     '/api/sweeps',
-    { schema: { body: START_BODY, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404) } } },
+    { schema: { body: START_BODY, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 429) } } },
     async (request, reply) => reply.code(202).send(sweeps.start(request.body.datasetId, request.body.plan)),
   );
 
-  app.get<{ Querystring: { datasetId?: string } }>(
+  app.get<{ Querystring: { datasetId?: string; limit: number; offset: number } }>(
     '/api/sweeps',
     {
       schema: {
-        querystring: { type: 'object', additionalProperties: false, properties: { datasetId: ID_PARAMS.properties.id } },
+        querystring: {
+          type: 'object',
+          additionalProperties: false,
+          properties: {
+            datasetId: ID_PARAMS.properties.id,
+            limit: { type: 'integer', minimum: 1, maximum: SWEEP_PAGE_MAX, default: SWEEP_PAGE_DEFAULT },
+            offset: { type: 'integer', minimum: 0, default: 0 },
+          },
+        },
         response: { 200: { type: 'array', items: { $ref: 'gsSweep#' } }, ...errorResponses(400) },
       },
     },
-    async (request) => sweeps.list(request.query.datasetId),
+    async (request, reply) => {
+      const { datasetId, limit, offset } = request.query;
+      const page = sweeps.list(datasetId, { limit, offset });
+      return reply.header('x-total-count', String(page.total)).send(page.sweeps);
+    },
   );
 
   app.get<{ Params: { id: string } }>(
@@ -58,7 +72,7 @@ export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService):
 
   app.post<{ Params: { id: string } }>(
     '/api/sweeps/:id/rerun',
-    { schema: { params: ID_PARAMS, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 409) } } },
+    { schema: { params: ID_PARAMS, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 409, 429) } } },
     async (request, reply) => reply.code(202).send(sweeps.rerun(request.params.id)),
   );
 

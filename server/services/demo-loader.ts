@@ -22,8 +22,8 @@ export interface LoadedScenario {
   sweepId: string | null;
 }
 
-function readFile(folder: string, name: string): { name: string; content: Uint8Array } {
-  return { name, content: new Uint8Array(readFileSync(join(folder, name))) };
+function sampleFile(folder: string, name: string): { name: string; path: string } {
+  return { name, path: join(folder, name) };
 }
 
 export function readScenarioIndex(samplesDir: string): ScenarioEntry[] {
@@ -32,25 +32,26 @@ export function readScenarioIndex(samplesDir: string): ScenarioEntry[] {
   return JSON.parse(readFileSync(indexFile, 'utf8')) as ScenarioEntry[];
 }
 
-/** Load every scenario; with `sweeps` false only the datasets are stored. */
-export function loadDemoScenarios(
+/** Load every scenario (parsed in the upload parser's worker thread); with `sweeps` false only the datasets are stored. */
+export async function loadDemoScenarios(
   services: { datasets: DatasetService; sweeps: SweepService },
   samplesDir: string,
   options: { sweeps?: boolean } = {},
-): LoadedScenario[] {
-  return readScenarioIndex(samplesDir).map((entry) => {
+): Promise<LoadedScenario[]> {
+  const loaded: LoadedScenario[] = [];
+  for (const entry of readScenarioIndex(samplesDir)) {
     const folder = join(samplesDir, entry.folder);
-    const noDataFile = join(folder, 'no-data.geojson');
-    const summary = services.datasets.create(
+    const summary = await services.datasets.createFromUpload(
       {
-        points: readFile(folder, 'points.csv'),
-        area: readFile(folder, 'area.geojson'),
-        noData: existsSync(noDataFile) ? [readFile(folder, 'no-data.geojson')] : [],
+        points: sampleFile(folder, 'points.csv'),
+        area: sampleFile(folder, 'area.geojson'),
+        noData: existsSync(join(folder, 'no-data.geojson')) ? [sampleFile(folder, 'no-data.geojson')] : [],
       },
       { crs: entry.crs, name: entry.name },
       entry.folder,
     );
     const sweepId = options.sweeps === false ? null : services.sweeps.start(summary.id, entry.demoPlan).id;
-    return { folder: entry.folder, datasetId: summary.id, sweepId };
-  });
+    loaded.push({ folder: entry.folder, datasetId: summary.id, sweepId });
+  }
+  return loaded;
 }

@@ -1,10 +1,11 @@
 /**
  * Sweeps: validate a plan against its dataset (normalizePlan, cell sizes, the work budget) and queue it, read
  * status and summaries, cancel, rerun from the stored plan, delete. Refusals are coded 4xx errors raised before
- * anything is stored or queued.
+ * anything is stored or queued; at most MAX_QUEUED_SWEEPS may wait (429 GS_ERR_QUEUE_FULL).
  */
 import type { Plan, SweepProgress, SweepStatus } from '../contracts.js';
-import { conflictError, notFoundError } from '../errors.js';
+import { conflictError, notFoundError, queueFullError } from '../errors.js';
+import { MAX_QUEUED_SWEEPS } from '../limits.js';
 import type { GridshakeStore } from '../store/store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
 import { FINISHED_STATUSES } from '../store/sweep-store.js';
@@ -36,6 +37,13 @@ export class SweepService {
     resolveCellSizes(plan, dataset.validArea, dataset.nInside);
     const estimate = estimateSweep(plan, dataset.nInside, this.workBudget);
     assertWithinBudget(estimate);
+    const waiting = this.store.sweeps.countQueued();
+    if (waiting >= MAX_QUEUED_SWEEPS) {
+      throw queueFullError(
+        `${waiting} sweeps are already waiting to run (the most the queue holds is ${MAX_QUEUED_SWEEPS}); ` +
+          'start this one when some have finished, or cancel some',
+      );
+    }
     const record = this.store.sweeps.create({ datasetId, plan, estimate, rerunOf });
     this.queue.enqueue(record.id);
     return this.view(record, false);
@@ -50,9 +58,11 @@ export class SweepService {
     return this.start(record.datasetId, record.plan, id);
   }
 
-  list(datasetId?: string): SweepView[] {
+  /** One page of sweeps (newest first) and how many there are in all. */
+  list(datasetId?: string, page: { limit: number; offset: number } = { limit: -1, offset: 0 }): { sweeps: SweepView[]; total: number } {
     const names = new Map<string, string | null>();
-    return this.store.sweeps.list(datasetId).map((record) => this.view(record, false, names));
+    const sweeps = this.store.sweeps.list(datasetId, page).map((record) => this.view(record, false, names));
+    return { sweeps, total: this.store.sweeps.count(datasetId) };
   }
 
   get(id: string): SweepView {

@@ -1,12 +1,14 @@
 /**
- * Opens (and creates) the SQLite database of a data folder: WAL journal, foreign keys on, migrations applied.
- * A folder that cannot be created or written gives a coded error, not a stack trace.
+ * Opens (and creates) the SQLite database of a data folder: WAL journal, foreign keys on, migrations applied, then
+ * the schema and integrity check (check-database.ts). A folder that cannot be created or written gives a coded error,
+ * not a stack trace; a damaged file gives GS_ERR_DATABASE.
  */
 import Database from 'better-sqlite3';
 import { mkdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { GridshakeError } from '../errors.js';
 import { MIGRATIONS } from './migrations.js';
+import { checkDatabase, damagedDatabaseError } from './check-database.js';
 
 export const DATABASE_FILE_NAME = 'gridshake.sqlite';
 
@@ -34,8 +36,14 @@ export function openDatabase(dataDir: string): { db: Database.Database; path: st
     db.pragma('foreign_keys = ON');
     db.pragma('busy_timeout = 5000');
     applyMigrations(db);
+    if (path !== ':memory:') checkDatabase(db, path);
   } catch (error) {
+    if (db! !== undefined && db.open) db.close();
     if (error instanceof GridshakeError) throw error;
+    const code = (error as { code?: string }).code ?? '';
+    if (code === 'SQLITE_CORRUPT' || code === 'SQLITE_NOTADB' || code.startsWith('SQLITE_CORRUPT')) {
+      throw damagedDatabaseError(path, `${(error as Error).message} (${code})`);
+    }
     throw storageError(`cannot open the database ${path}: ${(error as Error).message}`);
   }
   return { db, path };

@@ -95,14 +95,31 @@ export class SweepStore {
     return row === undefined ? undefined : toRecord(row, true);
   }
 
-  /** All sweeps (newest first), without their summaries. */
-  list(datasetId?: string): SweepRecord[] {
+  /** Sweeps (newest first), without their summaries: all of them, or one page (`limit` from `offset`). */
+  list(datasetId?: string, page: { limit: number; offset: number } = { limit: -1, offset: 0 }): SweepRecord[] {
     const rows = (
       datasetId === undefined
-        ? this.db.prepare(`${LIST_COLUMNS} ORDER BY created_at DESC, rowid DESC`).all()
-        : this.db.prepare(`${LIST_COLUMNS} WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC`).all(datasetId)
+        ? this.db.prepare(`${LIST_COLUMNS} ORDER BY created_at DESC, rowid DESC LIMIT ? OFFSET ?`).all(page.limit, page.offset)
+        : this.db
+            .prepare(`${LIST_COLUMNS} WHERE dataset_id = ? ORDER BY created_at DESC, rowid DESC LIMIT ? OFFSET ?`)
+            .all(datasetId, page.limit, page.offset)
     ) as SweepRow[];
     return rows.map((row) => toRecord(row, false));
+  }
+
+  /** How many sweeps there are (of one dataset). */
+  count(datasetId?: string): number {
+    const row = (
+      datasetId === undefined
+        ? this.db.prepare('SELECT COUNT(*) AS n FROM sweeps').get()
+        : this.db.prepare('SELECT COUNT(*) AS n FROM sweeps WHERE dataset_id = ?').get(datasetId)
+    ) as { n: number };
+    return row.n;
+  }
+
+  /** How many sweeps wait to run (status `queued`). */
+  countQueued(): number {
+    return (this.db.prepare(`SELECT COUNT(*) AS n FROM sweeps WHERE status = 'queued'`).get() as { n: number }).n;
   }
 
   markRunning(id: string): void {
@@ -111,8 +128,23 @@ export class SweepStore {
       .run(new Date().toISOString(), id);
   }
 
-  saveProgress(id: string, progress: SweepProgress): void {
-    this.db.prepare('UPDATE sweeps SET progress_json = ? WHERE id = ?').run(toStoredJson(progress), id);
+  /**
+   * Save a running sweep's progress. Advisory (the next save follows a second later), so it never waits for the
+   * write lock: while the upload parser's thread stores a large dataset, waiting here would stall the event loop for
+   * as long as that write takes. Returns false when the save was skipped.
+   */
+  saveProgress(id: string, progress: SweepProgress): boolean {
+    const waitMs = Number(this.db.pragma('busy_timeout', { simple: true }));
+    this.db.pragma('busy_timeout = 0');
+    try {
+      this.db.prepare('UPDATE sweeps SET progress_json = ? WHERE id = ?').run(toStoredJson(progress), id);
+      return true;
+    } catch (error) {
+      if ((error as { code?: string }).code === 'SQLITE_BUSY') return false;
+      throw error;
+    } finally {
+      this.db.pragma(`busy_timeout = ${waitMs}`);
+    }
   }
 
   /** Record the end of a sweep: its final status, progress, and summary or error, in one statement. */

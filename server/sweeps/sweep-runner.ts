@@ -6,7 +6,7 @@
  */
 import { setMaxListeners } from 'node:events';
 import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../contracts.js';
-import { summarizeDataset } from '../inputs/index.js';
+import { summarizeDataset } from '../inputs/summarize-dataset.js';
 import { PACKAGE_VERSION } from '../services/project-paths.js';
 import { buildSweepSummary } from '../summary/sweep-summary.js';
 import { datasetRef } from './dataset-key.js';

