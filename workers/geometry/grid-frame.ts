@@ -38,8 +38,8 @@ export function cosSinDegrees(angleDegrees: number): { cos: number; sin: number 
   return { cos: Math.cos(radians), sin: Math.sin(radians) };
 }
 
-/** The frame of one placement; throws a RangeError on a cell size that is not a positive finite number. */
-export function createGridFrame(origin: Origin, cellSize: number, placement: Placement): GridFrame {
+/** Throws a RangeError unless the cell size is a positive finite number and the placement's numbers are finite. */
+export function checkFrameInputs(cellSize: number, placement: Placement): void {
   if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
     throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
   }
@@ -48,6 +48,11 @@ export function createGridFrame(origin: Origin, cellSize: number, placement: Pla
       `placement offset and angle must be finite numbers, got u=${placement.u} v=${placement.v} angle=${placement.angle}`,
     );
   }
+}
+
+/** The frame of one placement; throws a RangeError on a cell size that is not a positive finite number. */
+export function createGridFrame(origin: Origin, cellSize: number, placement: Placement): GridFrame {
+  checkFrameInputs(cellSize, placement);
   const { cos, sin } = cosSinDegrees(placement.angle);
   return { originX: origin.x, originY: origin.y, cellSize, u: placement.u, v: placement.v, cos, sin };
 }

@@ -10,7 +10,7 @@
  * r, m := -q - r; else r := -q - m. The cell is (q, r). Angles repeat every 60 degrees.
  * Cost O(1) per point or cell.
  */
-import { cosSinDegrees } from '../../geometry/grid-frame.js';
+import { checkFrameInputs, cosSinDegrees } from '../../geometry/grid-frame.js';
 import type { Origin, Placement } from '../../types.js';
 
 /** Side a of the hexagon whose area is s^2: 3 sqrt(3) a^2 / 2 = s^2. */
@@ -33,14 +33,7 @@ export interface HexFrame {
 }
 
 export function createHexFrame(origin: Origin, cellSize: number, placement: Placement): HexFrame {
-  if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
-    throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
-  }
-  if (!Number.isFinite(placement.u) || !Number.isFinite(placement.v) || !Number.isFinite(placement.angle)) {
-    throw new RangeError(
-      `placement offset and angle must be finite numbers, got u=${placement.u} v=${placement.v} angle=${placement.angle}`,
-    );
-  }
+  checkFrameInputs(cellSize, placement);
   const { cos, sin } = cosSinDegrees(placement.angle);
   const side = hexSide(cellSize);
   return {
