@@ -6,6 +6,7 @@
  */
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { GridshakeError, isGridshakeError } from '../errors.js';
+import { storageFailure } from '../store/storage-failure.js';
 
 export interface ErrorBody {
   statusCode: number;
@@ -64,10 +65,8 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
       message: `the upload is not a complete multipart/form-data body (${fastifyError.message ?? ''}); send it again`,
     };
   }
-  if (code === 'SQLITE_FULL' || code === 'SQLITE_READONLY' || code.startsWith('SQLITE_IOERR')) {
-    const why = code === 'SQLITE_FULL' ? 'the disk holding the data folder is full' : 'the data folder cannot be written';
-    return { statusCode: 507, code: 'GS_ERR_STORAGE', message: `the database could not be written: ${why} (${code}); nothing was stored` };
-  }
+  const storage = storageFailure(code);
+  if (storage !== null) return storage;
   const status = fastifyError.statusCode ?? 500;
   if (status >= 400 && status < 500) {
     return { statusCode: status, code: 'GS_ERR_REQUEST', message: fastifyError.message ?? 'bad request' };

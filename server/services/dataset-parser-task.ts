@@ -12,6 +12,7 @@ import { dirname } from 'node:path';
 import type { Dataset } from '../contracts.js';
 import { isGridshakeError } from '../errors.js';
 import { loadDataset, summarizeDataset, type DatasetOptions } from '../inputs/index.js';
+import { storageFailure } from '../store/storage-failure.js';
 import type { InputFile } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import { GridshakeStore } from '../store/store.js';
@@ -66,6 +67,9 @@ export default function parseUpload(task: ParseTask): ParseOutcome {
     return { ok: true, summary: null, dataset, datasetSummary: summary };
   } catch (error) {
     if (isGridshakeError(error)) return { ok: false, error: { code: error.code, statusCode: error.statusCode, message: error.message } };
+    // a full or read-only disk: its code would be lost crossing threads
+    const storage = storageFailure((error as NodeJS.ErrnoException).code);
+    if (storage !== null) return { ok: false, error: storage };
     throw error;
   }
 }
