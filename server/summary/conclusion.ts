@@ -29,6 +29,14 @@ export function formatMetres(metres: number): string {
   return String(Number(metres.toPrecision(4)));
 }
 
+/**
+ * How a size's cells are named in sentences: "120 m cells" for squares (as before shapes existed), "120 m hexagonal
+ * cells" for hexagons of area 120^2 m^2.
+ */
+export function cellsLabel(size: Pick<SizeSummary, 'cellSize' | 'shape'>): string {
+  return `${formatMetres(size.cellSize)} m ${size.shape === 'hex' ? 'hexagonal ' : ''}cells`;
+}
+
 function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string {
   const sims = `R = ${monteCarlo.sims}, this size only`;
   if (verdict === 'regular') {
@@ -46,7 +54,7 @@ function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string
  */
 export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string {
   const { verdictShares, mostCommon, placements, monteCarlo } = summary;
-  const parts = [`${formatMetres(summary.cellSize)} m cells: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
+  const parts = [`${cellsLabel(summary)}: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
   const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
   if (others.length > 0) parts[0] += ` (${others.map((v) => `${VERDICT_WORDS[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
   if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));

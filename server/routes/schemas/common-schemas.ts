@@ -84,6 +84,8 @@ export const PLAN_SCHEMA = {
     alpha: { type: 'number', exclusiveMinimum: 0, maximum: 0.5 },
     sims: { type: 'integer', minimum: 0, maximum: 9999 },
     seed: { type: 'integer' },
+    // one shape or a list of them; normalizePlan checks the names and refuses repeats
+    shape: { anyOf: [{ type: 'string' }, { type: 'array', minItems: 1, maxItems: 2, items: { type: 'string' } }] },
   },
 } as const;
 
