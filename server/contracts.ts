@@ -192,6 +192,8 @@ export interface OverallTest {
   direction: Verdict;
   /** the cell side (m) where the observed standardized median is most extreme */
   strongestCellSize: number;
+  /** and the cells' shape there (only in sweeps with hexagons; the test runs across every (shape, size) entry) */
+  strongestShape?: CellShape;
 }
 
 export interface SweepSummary {

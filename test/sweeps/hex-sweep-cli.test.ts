@@ -42,6 +42,9 @@ describe('gridshake sweep --shape', () => {
     expect(sweep.stdout).toMatch(/^90 m cells: /m);
     expect(sweep.stdout).toMatch(/^90 m hexagonal cells: /m);
     expect(sweep.stdout).toMatch(/^150 m hexagonal cells: /m);
+    // the overall test runs across every (shape, size) entry on the same simulated patterns; one sentence on the shape
+    expect(sweep.stdout).toMatch(/The overall Monte Carlo test across all 2 cell sizes, both cell shapes and both tails finds/);
+    expect(sweep.stdout).toMatch(/The conclusion (does not depend|depends) on the cell shape/);
 
     const csvText = readFileSync(join(out, 'placements.csv'), 'utf8');
     expect(csvText.split('\n')[0]).toMatch(/cell sides 90, 150 m, square and hex cells, 12 placements per side/);
