@@ -92,3 +92,18 @@ describe('gridshake sweep --shape', () => {
     expect(result.stderr).toContain("--shape must be one of square, hex, got 'circle'");
   });
 });
+
+describe('report.html of a sweep with both shapes', () => {
+  it('lists each (side, shape) entry side by side and says what was varied for each shape', async () => {
+    const files = scenarioFiles();
+    const out = join(files.folder, 'out');
+    const sweep = await cli(['sweep', '--points', files.points, '--area', files.area, '--crs', 'planar', '--cells', '120', '--placements', '6', '--sims', '0', '--shape', 'square,hex', '--out', out, '--threads', '1']);
+    expect(sweep.code, sweep.stderr).toBe(0);
+    const html = readFileSync(join(out, 'report.html'), 'utf8').replace(/<script[\s\S]*?<\/script>/g, '');
+    expect(html).toContain('<h2>Cell side 120 m</h2>');
+    expect(html).toContain('<h2>Cell side 120 m, hexagonal cells</h2>');
+    expect(html).toContain('120 m hexagons');
+    expect(html).toContain('0 to 90 degrees for squares, 0 to 60 for hexagons');
+    expect(html).toMatch(/The conclusion (does not depend|depends) on the cell shape/);
+  });
+});
