@@ -106,4 +106,13 @@ describe('report.html of a sweep with both shapes', () => {
     expect(html).toContain('0 to 90 degrees for squares, 0 to 60 for hexagons');
     expect(html).toMatch(/The conclusion (does not depend|depends) on the cell shape/);
   });
+
+  it('draws the reference grid of a hexagon-only sweep as hexagons on the report map', async () => {
+    const files = scenarioFiles();
+    const out = join(files.folder, 'out');
+    const sweep = await cli(['sweep', '--points', files.points, '--area', files.area, '--crs', 'planar', '--cells', '150', '--placements', '4', '--sims', '0', '--shape', 'hex', '--out', out, '--threads', '1']);
+    expect(sweep.code, sweep.stderr).toBe(0);
+    const html = readFileSync(join(out, 'report.html'), 'utf8').replace(/<script[\s\S]*?<\/script>/g, '');
+    expect(html).toMatch(/reference grid of 150 m hexagonal cells \(angle 0, offset 0,0\)/);
+  });
 });
