@@ -3,6 +3,7 @@
  * The client imports these as types only.
  */
 import type { BBox, Origin, PlacementStatistics, Region, Verdict } from '../workers/types.js';
+import type { CellShape } from '../workers/lattice/cell-shape.js';
 
 export interface InputWarning {
   code: string;
@@ -79,6 +80,11 @@ export interface Plan {
   alpha: number;
   sims: number;
   seed: number;
+  /**
+   * the cells' shape, or a list of shapes run on the same placement design (absent: square, workers/lattice
+   * DEFAULT_CELL_SHAPE); kept as given so that a square plan reads back unchanged
+   */
+  shape?: CellShape | CellShape[];
 }
 
 export const DEFAULT_PLAN: Readonly<Omit<Plan, 'cells' | 'perCell'>> = Object.freeze({
@@ -93,8 +99,11 @@ export const DEFAULT_PLAN: Readonly<Omit<Plan, 'cells' | 'perCell'>> = Object.fr
 
 /** One row per (cell size, placement): the placement's parameters and all its statistics except the class table. */
 export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
+  /** index of the (shape, cell size) entry in the summary's sizes: every cell size of the first shape, then the next */
   sizeIndex: number;
   cellSize: number;
+  /** the cells' shape; every sweep sets it (absent only in rows stored before shapes existed: square) */
+  shape?: CellShape;
   placementIndex: number;
   u: number;
   v: number;
@@ -145,6 +154,8 @@ export interface MonteCarloResult {
 export interface SizeSummary {
   sizeIndex: number;
   cellSize: number;
+  /** the cells' shape (absent in summaries stored before shapes existed: square) */
+  shape?: CellShape;
   /** expected points per whole cell at this size */
   expectedPerCell: number;
   placements: number;
@@ -181,6 +192,8 @@ export interface OverallTest {
   direction: Verdict;
   /** the cell side (m) where the observed standardized median is most extreme */
   strongestCellSize: number;
+  /** and the cells' shape there (only in sweeps with hexagons; the test runs across every (shape, size) entry) */
+  strongestShape?: CellShape;
 }
 
 export interface SweepSummary {

@@ -16,6 +16,7 @@ import {
   parseMinCoverage,
   parseNumber,
   parsePositiveList,
+  parseShape,
   parseWholeNumber,
   requireString,
   type OptionSpecs,
@@ -38,6 +39,11 @@ const OPTIONS: OptionSpecs = {
   alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
   sims: { type: 'string', value: 'R', description: 'simulated CSR patterns for the Monte Carlo test, 0..9999; default 99' },
   seed: { type: 'string', value: 'S', description: 'seed of the simulations, an integer; default 1' },
+  shape: {
+    type: 'string',
+    value: 'SHAPE',
+    description: 'cell shape: square, hex (pointy-top hexagons of area M^2) or square,hex for both on the same placement design; default square',
+  },
   out: { type: 'string', value: 'DIR', description: 'folder for placements.csv, summary.json and report.html' },
   threads: { type: 'string', value: 'N', description: 'worker threads; default one per core' },
   ...QUEUE_OPTION,
@@ -55,6 +61,11 @@ function planFromFlags(values: OptionValues): Plan {
   if (text('alpha') !== undefined) input.alpha = parseAlpha(text('alpha') as string);
   if (text('sims') !== undefined) input.sims = parseWholeNumber(text('sims') as string, 'sims', 0);
   if (text('seed') !== undefined) input.seed = parseNumber(text('seed') as string, 'seed', 'an integer');
+  const shape = text('shape');
+  if (shape !== undefined) {
+    const shapes = shape.split(',').map((part) => parseShape(part));
+    input.shape = shapes.length === 1 ? shapes[0] : shapes;
+  }
   return normalizePlan(input);
 }
 
@@ -127,6 +138,7 @@ export const sweepCommand: CliCommand = {
   usage:
     'Usage: gridshake sweep --points F [--area F] [--no-data F]... [--crs planar|EPSG:n] (--cells M,M,... | --per-cell K,K,...)\n' +
     '                       [--placements N] [--no-rotation] [--min-coverage T] [--alpha A] [--sims R] [--seed S]\n' +
+    '                       [--shape square|hex|square,hex]\n' +
     '                       [--queue URL] --out DIR',
   options: OPTIONS,
   run: runSweepCommand,

@@ -6,6 +6,7 @@
 import { gridExtent } from '../../workers/geometry/coverage.js';
 import { createCellCounter, describeCellGrid, type CellGrid } from '../../workers/placement/index.js';
 import type { Placement } from '../../workers/types.js';
+import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import type { Dataset } from '../contracts.js';
 import { gridTooLargeError } from '../errors.js';
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
@@ -27,6 +28,8 @@ const BOX_FACTOR = 4;
 
 export interface GridRequest {
   cellSize: number;
+  /** the cells' shape (absent: square); hexagons are exported as 7-point rings */
+  shape?: CellShape;
   placement: Placement;
   minCoverage: number;
   sizeIndex: number;
@@ -58,7 +61,7 @@ function refuse(format: GridFormat, request: GridRequest, cells: number, exact: 
       ? `, or download this placement as a GeoPackage (grid.gpkg?size=${request.sizeIndex}&placement=${request.placementIndex}, up to ${MAX_GEOPACKAGE_GRID_CELLS.toLocaleString('en-US')} cells)`
       : '';
   throw gridTooLargeError(
-    `the grid of size ${request.sizeIndex} (${request.cellSize} m cells) has ${howMany}, more than the ` +
+    `the grid of size ${request.sizeIndex} (${request.cellSize} m ${request.shape === 'hex' ? 'hexagonal ' : ''}cells) has ${howMany}, more than the ` +
       `${limit.toLocaleString('en-US')} a ${format === 'geojson' ? 'GeoJSON' : 'GeoPackage'} grid export may hold: ` +
       `pick a cell size of at least ${side} m${alternative}`,
   );
@@ -80,6 +83,7 @@ export function boundedCellGrid(dataset: Dataset, request: GridRequest, format: 
     cellSize: request.cellSize,
     placement: request.placement,
     minCoverage: request.minCoverage,
+    shape: request.shape,
   });
   if (cells.cellCount > limit) refuse(format, request, cells.cellCount, true);
   return cells;

@@ -48,13 +48,14 @@ function header(input: GridGeoJsonInput): string {
   const epsgMetres = input.projection.kind === 'epsg' && /\+units=m(\s|$)/.test(input.projection.proj4);
   const meta = {
     coordinates: lonlat
-      ? 'longitude/latitude (WGS 84, RFC 7946); cell edges densified to within 1 cm of the planar square'
+      ? `longitude/latitude (WGS 84, RFC 7946); cell edges densified to within 1 cm of the planar ${input.request.shape === 'hex' ? 'hexagon' : 'square'}`
       : `planar metres of the working system (not longitude/latitude): ${system.description}`,
     projection: system.description,
     dataset: input.datasetName,
     sizeIndex: input.request.sizeIndex,
     placementIndex: input.request.placementIndex,
     cellSize: input.request.cellSize,
+    shape: input.request.shape ?? 'square',
     u: input.request.placement.u,
     v: input.request.placement.v,
     angle: input.request.placement.angle,

@@ -142,7 +142,7 @@ export async function writeGridGeoPackage(input: GridGeoPackageInput): Promise<v
     const { request } = input;
     const identifier = `grid ${input.datasetName} size ${request.sizeIndex} placement ${request.placementIndex}`;
     const description =
-      `${request.cellSize} m cells, offset (${request.placement.u}, ${request.placement.v}), angle ${request.placement.angle} deg, ` +
+      `${request.cellSize} m ${request.shape === 'hex' ? 'hexagonal ' : ''}cells, offset (${request.placement.u}, ${request.placement.v}), angle ${request.placement.angle} deg, ` +
       `minCoverage ${request.minCoverage}; ${system.description}`;
     db.prepare('INSERT INTO gpkg_contents (table_name, data_type, identifier, description, srs_id) VALUES (?, ?, ?, ?, ?)').run(
       GRID_TABLE,

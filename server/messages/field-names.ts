@@ -24,6 +24,7 @@ export const FIELD_NAMES = {
   alpha: { label: 'alpha', flag: '--alpha' },
   sims: { label: 'CSR simulations', flag: '--sims' },
   seed: { label: 'Seed', flag: '--seed' },
+  shape: { label: 'Cell shape', flag: '--shape', item: 'cell shape' },
   bodyLimit: { label: 'the server\'s upload limit', flag: '--body-limit' },
   maxPoints: { label: 'the server\'s point limit', flag: '--max-points' },
 } as const;

@@ -144,6 +144,7 @@ export class QueueExecutor implements SweepExecutor {
       seed: work.simulation?.seed ?? 0,
       sims: work.simulation?.sims ?? 0,
       cellSize: work.cellSize,
+      ...(work.shape === undefined || work.shape === 'square' ? {} : { shape: work.shape }),
       minCoverage: work.minCoverage,
       alpha: work.alpha,
       placements: encodePlacements(work.placements),

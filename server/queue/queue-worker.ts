@@ -107,6 +107,7 @@ export class QueueWorker {
           dataset,
           simulation,
           cellSize: task.cellSize,
+          shape: task.shape,
           minCoverage: task.minCoverage,
           alpha: task.alpha,
           placements: task.placementValues,

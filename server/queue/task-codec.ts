@@ -4,6 +4,8 @@
  * its placements (float64, base64, so that they arrive bit for bit). The result is the chunk's Float64Array
  * (workers/sweep/sweep-task.ts layout), stored as raw bytes under the task's result key.
  */
+import { isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
+
 export const TASK_FORMAT = 1;
 
 export interface QueueTaskData {
@@ -14,6 +16,8 @@ export interface QueueTaskData {
   seed: number;
   sims: number;
   cellSize: number;
+  /** the cells' shape (absent: square, as in tasks of versions before shapes) */
+  shape?: CellShape;
   minCoverage: number;
   alpha: number;
   /** base64 of the placements' float64 bytes (u, v, angle triples) */
@@ -30,6 +34,7 @@ export function decodeTask(data: unknown): QueueTaskData & { placementValues: Fl
   if (task === null || typeof task !== 'object' || task.format !== TASK_FORMAT) {
     throw new Error(`the task has format ${String(task?.format)}; this worker reads format ${TASK_FORMAT} (update gridshake on every machine)`);
   }
+  if (task.shape !== undefined && !isCellShape(task.shape)) throw new Error(`the task names cell shape ${JSON.stringify(task.shape)}, which this worker does not know (update gridshake on every machine)`);
   const bytes = Buffer.from(String(task.placements), 'base64');
   if (bytes.byteLength % 24 !== 0) throw new Error('the task placements are damaged');
   const placementValues = new Float64Array(bytes.byteLength / 8);

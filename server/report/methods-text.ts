@@ -25,7 +25,13 @@ function list(values: readonly string[]): string {
 
 function variedText(summary: SweepSummary): string {
   const { plan } = summary;
-  const sides = list(summary.sizes.map((size) => formatMetres(size.cellSize)));
+  const sides = list([...new Set(summary.sizes.map((size) => formatMetres(size.cellSize)))]);
+  const sideCount = new Set(summary.sizes.map((size) => size.cellSize)).size;
+  const hasHex = summary.sizes.some((size) => size.shape === 'hex');
+  const hasSquare = summary.sizes.some((size) => (size.shape ?? 'square') === 'square');
+  const cellWords = hasHex
+    ? `${hasSquare ? 'square cells and, on the same placement design, ' : ''}pointy-top hexagonal cells of area side² (angles over 0 to 60 degrees, their period), of side`
+    : 'square cells of side';
   const sizeSource = plan.perCell
     ? ` (from ${list(plan.perCell.map((k) => formatNumber(k)))} expected points per cell, side = sqrt(k A / n))`
     : '';
@@ -33,11 +39,14 @@ function variedText(summary: SweepSummary): string {
     ? `offsets (u, v) in cell units taken from a Halton low-discrepancy sequence in bases 2, 3 and 5 (${REFERENCES.halton.key})`
     : 'offsets (u, v) in cell units taken on a regular lattice';
   const rotation = plan.rotation
-    ? `${design}, and grid angles spread over 0 to 90 degrees (the period of square cells)`
+    ? `${design}, and grid angles spread over ${
+        !hasHex ? '0 to 90 degrees (the period of square cells)'
+          : hasSquare ? 'each shape\'s period at the same fractions (0 to 90 degrees for squares, 0 to 60 for hexagons)'
+            : '0 to 60 degrees (the period of hexagonal cells)'}`
     : `${design}; rotation was off, so every grid kept angle 0`;
   return (
-    `The quadrat test was repeated over ${plan.placements} grid placements for each of ${summary.sizes.length} cell ` +
-    `size${summary.sizes.length === 1 ? '' : 's'}: square cells of side ${sides}${sizeSource}. Placements used ${rotation}. ` +
+    `The quadrat test was repeated over ${plan.placements} grid placements for each of ${hasHex ? sideCount : summary.sizes.length} cell ` +
+    `size${(hasHex ? sideCount : summary.sizes.length) === 1 ? '' : 's'}: ${cellWords} ${sides}${sizeSource}. Placements used ${rotation}. ` +
     'The reference placement (angle 0, offset (0, 0), origin at the lower-left corner of the study area\'s bounding box) ' +
     'is the grid a default analysis would use; its rank among the placements shows how typical that choice is ' +
     `(the modifiable areal unit problem, ${REFERENCES.openshaw.key}).`

@@ -36,7 +36,7 @@ function sizeSection(summary: SweepSummary, rows: readonly PlacementRow[], sizeI
   const size = summary.sizes.find((candidate) => candidate.sizeIndex === sizeIndex)!;
   const numbers = sizeNumbers(size).map((line) => `<li>${escapeHtml(line)}</li>`).join('');
   return (
-    `<section class="size"><h2>Cell side ${escapeHtml(formatMetres(size.cellSize))}</h2>` +
+    `<section class="size"><h2>Cell side ${escapeHtml(formatMetres(size.cellSize))}${size.shape === 'hex' ? ', hexagonal cells' : ''}</h2>` +
     `<p class="conclusion">${escapeHtml(size.conclusion)}</p><ul class="numbers">${numbers}</ul>` +
     `${bundles.map(figure).join('\n')}</section>`
   );

@@ -64,6 +64,7 @@ export function reportMap(dataset: Dataset, summary: SweepSummary): ReportMap {
       cellSize: chosen.cellSize,
       placement: reference,
       minCoverage: summary.plan.minCoverage,
+      shape: chosen.shape,
     });
     const cells: { corners: [number, number][]; kept: boolean }[] = [];
     for (let k = 0; k < described.grid.coverage.length; k++) {
@@ -73,7 +74,7 @@ export function reportMap(dataset: Dataset, summary: SweepSummary): ReportMap {
     grid = { cellSize: chosen.cellSize, cells };
     const kept = cells.filter((cell) => cell.kept).length;
     gridNote =
-      `reference grid of ${formatMetres(chosen.cellSize)} cells (angle 0, offset 0,0): ${kept} kept (solid), ` +
+      `reference grid of ${formatMetres(chosen.cellSize)} ${chosen.shape === 'hex' ? 'hexagonal ' : ''}cells (angle 0, offset 0,0): ${kept} kept (solid), ` +
       `${cells.length - kept} left out with coverage below ${summary.plan.minCoverage} (dashed)`;
   }
   return {

@@ -17,16 +17,29 @@ export function datasetSection(summary: SweepSummary): string {
   return `<section><h2>Dataset</h2>${definitionTable('Dataset summary', entries)}<h3>Input warnings</h3>${warnings}</section>`;
 }
 
+/** A size entry's side in tables: "90" for squares, "90 hexagons" for hexagons of area 90^2 m^2. */
+export function sideLabel(size: Pick<SweepSummary['sizes'][number], 'cellSize' | 'shape'>): string {
+  return `${formatMetres(size.cellSize)}${size.shape === 'hex' ? ' hexagons' : ''}`;
+}
+
+/** The distinct cell sides of a sweep, in plan order (a sweep of two shapes lists each side once). */
+function distinctSides(summary: SweepSummary): string[] {
+  return [...new Set(summary.sizes.map((size) => formatMetres(size.cellSize)))];
+}
+
 export function planSection(summary: SweepSummary): string {
   const plan = summary.plan;
   const sides = plan.perCell
-    ? `${summary.sizes.map((size) => formatMetres(size.cellSize)).join(', ')} (from ${plan.perCell.join(', ')} expected points per cell)`
-    : summary.sizes.map((size) => formatMetres(size.cellSize)).join(', ');
+    ? `${distinctSides(summary).join(', ')} (from ${plan.perCell.join(', ')} expected points per cell)`
+    : distinctSides(summary).join(', ');
+  const hexagons = summary.sizes.some((size) => size.shape === 'hex');
+  const shapes = [...new Set(summary.sizes.map((size) => (size.shape === 'hex' ? 'hexagons (area = side², pointy-top)' : 'squares')))];
   const entries: [string, string][] = [
     ['cell sides', sides],
+    ...(plan.shape === undefined ? [] : [['cell shapes', shapes.join(' and ')] as [string, string]]),
     ['placements per size', String(plan.placements)],
     ['placement design', plan.design],
-    ['rotation', plan.rotation ? 'on (0 to 90 degrees)' : 'off (angle 0)'],
+    ['rotation', plan.rotation ? (hexagons ? 'on (0 to 90 degrees for squares, 0 to 60 for hexagons)' : 'on (0 to 90 degrees)') : 'off (angle 0)'],
     ['minCoverage', formatNumber(plan.minCoverage)],
     ['alpha (two-sided)', formatNumber(plan.alpha)],
     ['CSR simulations', String(plan.sims)],
@@ -39,7 +52,7 @@ export function sizeTable(summary: SweepSummary): string {
   const rows = [...summary.sizes]
     .sort((a, b) => a.cellSize - b.cellSize)
     .map((size) => [
-      formatMetres(size.cellSize),
+      sideLabel(size),
       formatNumber(size.expectedPerCell),
       String(size.placements),
       formatNumber(size.chi2PerDf.p50),
@@ -65,7 +78,7 @@ export function monteCarloSection(summary: SweepSummary): string {
       const result = size.monteCarlo!;
       const meanShare = result.simulatedShareSignificant.reduce((sum, share) => sum + share, 0) / Math.max(1, result.simulatedShareSignificant.length);
       return [
-        formatMetres(size.cellSize),
+        sideLabel(size),
         String(result.sims),
         formatNumber(result.observedMedian),
         `${formatNumber(result.envelope.lo)} to ${formatNumber(result.envelope.hi)}`,

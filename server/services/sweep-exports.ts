@@ -76,6 +76,7 @@ export class SweepExports {
       datasetId: record.datasetId,
       request: {
         cellSize: row.cellSize,
+        shape: row.shape ?? 'square',
         placement: { u: row.u, v: row.v, angle: row.angle },
         minCoverage: record.plan.minCoverage,
         sizeIndex,

@@ -29,6 +29,14 @@ export function formatMetres(metres: number): string {
   return String(Number(metres.toPrecision(4)));
 }
 
+/**
+ * How a size's cells are named in sentences: "120 m cells" for squares (as before shapes existed), "120 m hexagonal
+ * cells" for hexagons of area 120^2 m^2.
+ */
+export function cellsLabel(size: Pick<SizeSummary, 'cellSize' | 'shape'>): string {
+  return `${formatMetres(size.cellSize)} m ${size.shape === 'hex' ? 'hexagonal ' : ''}cells`;
+}
+
 function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string {
   const sims = `R = ${monteCarlo.sims}, this size only`;
   if (verdict === 'regular') {
@@ -46,7 +54,7 @@ function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string
  */
 export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string {
   const { verdictShares, mostCommon, placements, monteCarlo } = summary;
-  const parts = [`${formatMetres(summary.cellSize)} m cells: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
+  const parts = [`${cellsLabel(summary)}: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
   const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
   if (others.length > 0) parts[0] += ` (${others.map((v) => `${VERDICT_WORDS[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
   if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));
@@ -65,14 +73,20 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
   overall: OverallTest | null = null): string {
   const total = sizes.length;
   const sentences: string[] = [];
-  const sizesWords = total === 1 ? 'the 1 cell size' : `all ${total} cell sizes`;
+  const shapes = shapesOf(sizes);
+  const sides = new Set(sizes.map((size) => size.cellSize)).size;
+  const sizesWords =
+    shapes.length > 1
+      ? `${sides === 1 ? 'the 1 cell size' : `all ${sides} cell sizes`}, both cell shapes`
+      : total === 1 ? 'the 1 cell size' : `all ${total} cell sizes`;
+  const strongest = overall === null ? '' : cellsLabel({ cellSize: overall.strongestCellSize, shape: overall.strongestShape });
   if (overall !== null) {
     const pText = pPhrase(overall.p);
     if (overall.rejects) {
       const kind = overall.direction === 'regular' ? 'regularity' : 'clustering';
       sentences.push(
         `The overall Monte Carlo test across ${sizesWords} and both tails finds a departure from CSR at alpha ${alpha} ` +
-          `(${pText}, R = ${overall.sims}): ${kind}, most marked at ${formatMetres(overall.strongestCellSize)} m cells`,
+          `(${pText}, R = ${overall.sims}): ${kind}, most marked at ${strongest}`,
       );
     } else {
       sentences.push(
@@ -86,13 +100,44 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
     const words = (['clustered', 'regular', 'csr'] as Verdict[])
       .filter((v) => counts[v] > 0)
       .map((v) => `${VERDICT_WORDS[v]} at ${counts[v]} of ${total} cell sizes`);
-    sentences.push(`Per-placement evidence only, not a test (sims = 0): most placements say ${words.join(', ')} at alpha ${alpha}; run with sims > 0 for a Monte Carlo test`);
+    const where = shapes.length > 1 ? 'cell sizes and shapes' : 'cell sizes';
+    sentences.push(`Per-placement evidence only, not a test (sims = 0): most placements say ${words.join(', ').replace(/cell sizes/g, where)} at alpha ${alpha}; run with sims > 0 for a Monte Carlo test`);
   }
   const unstable = sizes.filter((size) => size.agreement < LOW_AGREEMENT).length;
+  const entries = shapes.length > 1 ? 'cell sizes and shapes' : 'cell sizes';
   if (unstable > 0) {
-    sentences.push(`The verdict depends on where the grid falls at ${unstable} of ${total} cell sizes (agreement below ${LOW_AGREEMENT * 100} %)`);
+    sentences.push(`The verdict depends on where the grid falls at ${unstable} of ${total} ${entries} (agreement below ${LOW_AGREEMENT * 100} %)`);
   } else if (total > 0) {
-    sentences.push(`At every cell size at least ${LOW_AGREEMENT * 100} % of placements agree`);
+    sentences.push(`At every cell size${shapes.length > 1 ? ' and shape' : ''} at least ${LOW_AGREEMENT * 100} % of placements agree`);
   }
+  if (shapes.length > 1) sentences.push(shapeSentence(sizes));
   return sentences.join('. ') + '.';
+}
+
+/** The shapes of a sweep's size entries, in order of first appearance (entries without one are squares). */
+function shapesOf(sizes: readonly Pick<SizeSummary, 'shape'>[]): string[] {
+  return [...new Set(sizes.map((size) => size.shape ?? 'square'))];
+}
+
+/**
+ * The one sentence on whether the conclusion depends on the cells' shape: at each cell side, the most common verdict
+ * of the placements with squares against that with hexagons (a description of the placements, not a test; the
+ * tests are the per-size Monte Carlo p-values and the overall test).
+ */
+export function shapeSentence(sizes: readonly Omit<SizeSummary, 'conclusion'>[]): string {
+  const bySide = new Map<number, Map<string, Verdict>>();
+  for (const size of sizes) {
+    const entry = bySide.get(size.cellSize) ?? new Map<string, Verdict>();
+    entry.set(size.shape ?? 'square', size.mostCommon);
+    bySide.set(size.cellSize, entry);
+  }
+  const compared = [...bySide.entries()].filter(([, verdicts]) => verdicts.size > 1);
+  const differing = compared.filter(([, verdicts]) => new Set(verdicts.values()).size > 1);
+  if (differing.length === 0) {
+    return `The conclusion does not depend on the cell shape: at ${compared.length === 1 ? 'the 1 cell size' : `all ${compared.length} cell sizes`} squares and hexagons give the same most common verdict`;
+  }
+  const details = differing
+    .sort(([a], [b]) => a - b)
+    .map(([side, verdicts]) => `${formatMetres(side)} m: ${[...verdicts.entries()].map(([shape, verdict]) => `${shape === 'hex' ? 'hexagons' : 'squares'} ${VERDICT_WORDS[verdict]}`).join(', ')}`);
+  return `The conclusion depends on the cell shape at ${differing.length} of ${compared.length} cell sizes, where squares and hexagons give different most common verdicts (${details.join('; ')})`;
 }

@@ -1,9 +1,12 @@
 import type { MonteCarloResult, OverallTest } from '../contracts.js';
+import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { simsCanReject } from '../../shared/monte-carlo-rule.js';
 
 /** One cell size's Monte Carlo statistics: the observed median chi2/df and the R simulated ones. */
 export interface OverallTestSize {
   cellSize: number;
+  /** given for sweeps with more than one shape or with hexagons: the entry's cell shape */
+  shape?: CellShape;
   monteCarlo: Pick<MonteCarloResult, 'observedMedian' | 'simulatedMedians'>;
 }
 
@@ -67,6 +70,7 @@ export function overallMonteCarloTest(sizes: readonly OverallTestSize[], alpha: 
     rejects,
     direction: rejects ? (observedT.sign >= 0 ? 'clustered' : 'regular') : 'csr',
     strongestCellSize: sizes[observedT.size]!.cellSize,
+    ...(sizes[observedT.size]!.shape === undefined ? {} : { strongestShape: sizes[observedT.size]!.shape }),
   };
 }
 

@@ -23,6 +23,7 @@ export function summarizeSize(rows: readonly PlacementRow[], monteCarlo: MonteCa
   const summary: Omit<SizeSummary, 'conclusion'> = {
     sizeIndex: rows[0].sizeIndex,
     cellSize: rows[0].cellSize,
+    shape: rows[0].shape ?? 'square',
     expectedPerCell: median(rows.map((row) => row.expectedPerCell)),
     placements: rows.length,
     vmr: quantiles(vmr),

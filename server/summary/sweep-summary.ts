@@ -15,8 +15,13 @@ export interface SweepSummaryInput {
 /** Assembles the summary of a whole sweep: per-size summaries, overall conclusion, warnings, versions, timings. */
 export function buildSweepSummary(input: SweepSummaryInput): SweepSummary {
   const withSims = input.sizes.length > 0 && input.sizes.every((size) => size.monteCarlo !== null);
+  // squares-only sweeps keep the overall test exactly as before shapes existed
+  const withShapes = input.sizes.some((size) => (size.shape ?? 'square') !== 'square');
   const overallTest = withSims
-    ? overallMonteCarloTest(input.sizes.map((size) => ({ cellSize: size.cellSize, monteCarlo: size.monteCarlo! })), input.plan.alpha)
+    ? overallMonteCarloTest(
+        input.sizes.map((size) => ({ cellSize: size.cellSize, ...(withShapes ? { shape: size.shape ?? 'square' } : {}), monteCarlo: size.monteCarlo! })),
+        input.plan.alpha,
+      )
     : null;
   return {
     plan: input.plan,

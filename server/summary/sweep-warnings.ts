@@ -1,6 +1,6 @@
 import type { DatasetSummary, SizeSummary } from '../contracts.js';
 import { RULE_OF_5_EXPECTED } from '../../workers/stats/expected-per-cell.js';
-import { formatMetres, formatShare } from './conclusion.js';
+import { cellsLabel, formatShare } from './conclusion.js';
 
 /**
  * Warnings of a sweep in plain words: the dataset's input warnings, a reference (default) grid whose vmr ranks in
@@ -10,7 +10,7 @@ import { formatMetres, formatShare } from './conclusion.js';
 export function sweepWarnings(dataset: DatasetSummary, sizes: readonly SizeSummary[]): string[] {
   const warnings = dataset.warnings.map((warning) => warning.message);
   for (const size of sizes) {
-    const label = `${formatMetres(size.cellSize)} m cells`;
+    const label = cellsLabel(size);
     if (size.referenceInTail) {
       const side = size.referenceRank < 0.5 ? 'lower' : 'higher';
       warnings.push(

@@ -5,6 +5,7 @@
  * Executors: local-executor.ts (piscina, the default) and ../queue/queue-executor.ts (BullMQ on Redis).
  */
 import type { Dataset } from '../contracts.js';
+import type { CellShape } from '../../workers/lattice/cell-shape.js';
 
 /** A dataset the executor has shared with its workers, under a key made of the dataset id and its content hash. */
 export interface DatasetRef {
@@ -38,6 +39,8 @@ export interface ChunkWork {
   dataset: DatasetRef;
   simulation: SimulationRef | null;
   cellSize: number;
+  /** the cells' shape (absent: square) */
+  shape?: CellShape;
   minCoverage: number;
   alpha: number;
   placements: Float64Array;

@@ -89,6 +89,7 @@ export class LocalExecutor implements SweepExecutor {
         simulated: work.simulation === null ? null : this.simulationBuffer(work.simulation, shared.pointCount),
         sims: work.simulation?.sims ?? 0,
         cellSize: work.cellSize,
+        shape: work.shape,
         minCoverage: work.minCoverage,
         alpha: work.alpha,
         placements: work.placements,

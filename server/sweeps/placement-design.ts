@@ -7,10 +7,16 @@ import type { Plan } from '../contracts.js';
 import { haltonPlacements, latticePlacements } from '../../workers/random/index.js';
 import type { Placement } from '../../workers/types.js';
 
-/** u, v, angle of each placement of the plan. Cost O(placements). */
-export function planPlacements(plan: Plan): Float64Array {
+/**
+ * u, v, angle of each placement of the plan, angles spanning `anglePeriod` degrees (the lattice's: 90 for squares,
+ * 60 for hexagons). Two shapes get the same design: equal offsets, and angles at the same fraction of their period.
+ * Cost O(placements).
+ */
+export function planPlacements(plan: Plan, anglePeriod = 90): Float64Array {
   const list: readonly Placement[] =
-    plan.design === 'lattice' ? latticePlacements(plan.placements, plan.rotation) : haltonPlacements(plan.placements, plan.rotation);
+    plan.design === 'lattice'
+      ? latticePlacements(plan.placements, plan.rotation, anglePeriod)
+      : haltonPlacements(plan.placements, plan.rotation, anglePeriod);
   const triples = new Float64Array(plan.placements * 3);
   for (let j = 0; j < plan.placements; j++) {
     triples[3 * j] = list[j].u;

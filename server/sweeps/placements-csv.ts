@@ -24,6 +24,7 @@ const SIG4 = { significant: 4 };
 export const PLACEMENT_CSV_COLUMNS: readonly PlacementCsvColumn[] = [
   { name: 'size_index', field: 'sizeIndex', rounding: 'integer' },
   { name: 'cell_side_m', field: 'cellSize', rounding: SIG6 },
+  { name: 'shape', field: 'shape', rounding: 'text' },
   { name: 'placement', field: 'placementIndex', rounding: 'integer' },
   // offsets and angles come from a low-discrepancy sequence; 1e-6 cell and 1e-4 degree are far below any effect
   { name: 'offset_u_cells', field: 'u', rounding: { decimals: 6 } },
@@ -78,10 +79,12 @@ export interface CsvRun {
 /** "# gridshake placements: dataset "Heath", sweep 1a2b3c4d, cell sides 100, 200 m, 256 placements, ..." */
 export function runCommentLine(run: CsvRun): string {
   const { dataset, plan, sizes } = run.summary;
-  const sides = sizes.map((size) => Number(size.cellSize.toPrecision(6))).sort((a, b) => a - b).join(', ');
+  const sides = [...new Set(sizes.map((size) => Number(size.cellSize.toPrecision(6))))].sort((a, b) => a - b).join(', ');
+  const shapes = [...new Set(sizes.map((size) => size.shape ?? 'square'))];
+  const shapeWords = shapes.length === 1 && shapes[0] === 'square' ? '' : `, ${shapes.join(' and ')} cells`;
   const name = dataset.name.replace(/[\r\n]+/g, ' ');
   return (
-    `# gridshake placements: dataset "${name}"${run.sweepId ? `, sweep ${run.sweepId}` : ''}, cell sides ${sides} m, ` +
+    `# gridshake placements: dataset "${name}"${run.sweepId ? `, sweep ${run.sweepId}` : ''}, cell sides ${sides} m${shapeWords}, ` +
     `${plan.placements} placements per side (${plan.design}, rotation ${plan.rotation ? 'on' : 'off'}), minCoverage ${plan.minCoverage}, ` +
     `alpha ${plan.alpha}, ${plan.sims} CSR simulations, seed ${plan.seed}; coordinates ${dataset.crs}; full precision in placements.json`
   );
@@ -91,6 +94,7 @@ export function runCommentLine(run: CsvRun): string {
 export function placementsToCsv(rows: readonly PlacementRow[], run?: CsvRun): string {
   const lines = run ? [runCommentLine(run)] : [];
   lines.push(PLACEMENT_CSV_COLUMNS.map((column) => column.name).join(','));
-  for (const row of rows) lines.push(PLACEMENT_CSV_COLUMNS.map((column) => field(row[column.field], column.rounding)).join(','));
+  // rows stored before shapes existed name none: they are squares
+  for (const row of rows) lines.push(PLACEMENT_CSV_COLUMNS.map((column) => field(column.field === 'shape' ? (row.shape ?? 'square') : row[column.field], column.rounding)).join(','));
   return `${lines.join('\n')}\n`;
 }

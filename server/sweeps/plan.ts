@@ -8,6 +8,7 @@ import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
+import { CELL_SHAPES, DEFAULT_CELL_SHAPE, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
 
 /** Allowed ranges of the plan fields (shared with the HTTP schema and the CLI help). */
 export const PLAN_LIMITS = Object.freeze({
@@ -27,7 +28,7 @@ export const PLAN_LIMITS = Object.freeze({
   maxCellsInRegion: 1 << 22,
 });
 
-const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed']);
+const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed', 'shape']);
 const DESIGNS: readonly PlacementDesign[] = ['halton', 'lattice'];
 
 function isRecord(value: unknown): value is Record<string, unknown> {
@@ -59,6 +60,26 @@ function sizeList(name: 'cells' | 'perCell', value: unknown): number[] {
     }
   });
   return [...(value as number[])];
+}
+
+/** The plan's `shape`: one shape, or a list of 1 to CELL_SHAPES.length different shapes, kept as given. */
+function shapeField(value: unknown): CellShape | CellShape[] {
+  const allowed = `one of ${CELL_SHAPES.join(', ')} or a list of them`;
+  if (isCellShape(value)) return value;
+  if (!Array.isArray(value) || value.length === 0 || value.length > CELL_SHAPES.length) {
+    throw parameterError(`${fieldRef('shape')} must be ${allowed}, got ${JSON.stringify(value)}`);
+  }
+  value.forEach((entry, index) => {
+    if (!isCellShape(entry)) throw parameterError(`${fieldRef('shape', index)} must be one of ${CELL_SHAPES.join(', ')}, got ${JSON.stringify(entry)}`);
+    if (value.indexOf(entry) !== index) throw parameterError(`${fieldRef('shape')} names ${entry} twice`);
+  });
+  return [...(value as CellShape[])];
+}
+
+/** The shapes a plan runs, in its order (a plan without `shape` runs squares only). */
+export function planShapes(plan: Pick<Plan, 'shape'>): CellShape[] {
+  if (plan.shape === undefined) return [DEFAULT_CELL_SHAPE];
+  return typeof plan.shape === 'string' ? [plan.shape] : [...plan.shape];
 }
 
 /**
@@ -101,6 +122,8 @@ export function normalizePlan(input: unknown): Plan {
   };
   if (hasCells) plan.cells = sizeList('cells', input.cells);
   else plan.perCell = sizeList('perCell', input.perCell);
+  // absent stays absent (squares), so that a plan without shapes reads back exactly as before shapes existed
+  if (input.shape !== undefined) plan.shape = shapeField(input.shape);
   const refusal = tooFewSimsMessage(plan.sims, plan.alpha);
   if (refusal !== null) {
     // the rule's sentence starts "sims R is too few ...": the field named per audience

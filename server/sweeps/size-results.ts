@@ -4,6 +4,7 @@
  * on it, so it does not depend on the number of threads either.
  */
 import type { PlacementRow, SizeSummary } from '../contracts.js';
+import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { placementRobustTest } from '../summary/placement-robust-test.js';
 import { summarizeSize } from '../summary/size-summary.js';
 import { decodeStatistics, STATISTICS_FIELDS } from '../../workers/sweep/statistics-codec.js';
@@ -19,8 +20,10 @@ export class SizeResults {
   constructor(
     readonly sizeIndex: number,
     readonly cellSize: number,
-    private readonly placements: Float64Array,
+    /** u, v, angle triples of this shape's placements */
+    readonly placements: Float64Array,
     private readonly sims: number,
+    readonly shape: CellShape = 'square',
   ) {
     const count = placements.length / 3;
     this.rows = new Array<PlacementRow>(count);
@@ -39,6 +42,7 @@ export class SizeResults {
       this.rows[index] = {
         sizeIndex: this.sizeIndex,
         cellSize: this.cellSize,
+        shape: this.shape,
         placementIndex: index,
         u: this.placements[3 * index],
         v: this.placements[3 * index + 1],

@@ -1,9 +1,11 @@
 /**
  * Work estimate of a sweep and the budget that refuses plans too large to finish in reasonable time or memory.
- * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern.
+ * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern; "sizes"
+ * counts every (shape, cell size) pair of the plan.
  */
 import type { Plan, SweepEstimate } from '../contracts.js';
 import { budgetError } from '../errors.js';
+import { planShapes } from './plan.js';
 
 /**
  * Default work budget (point-placements). A whole sweep measured about 6 ns per point-placement on two threads
@@ -41,8 +43,9 @@ export function chunkPlacements(nInside: number, sims: number): number {
   return Math.max(1, Math.min(MAX_CHUNK_PLACEMENTS, Math.floor(CHUNK_WORK / perPlacement)));
 }
 
+/** (shape, cell size) pairs of the plan. */
 function sizeCount(plan: Plan): number {
-  return (plan.cells ?? plan.perCell ?? []).length;
+  return (plan.cells ?? plan.perCell ?? []).length * planShapes(plan).length;
 }
 
 /**

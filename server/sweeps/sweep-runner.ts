@@ -12,7 +12,8 @@ import { buildSweepSummary } from '../summary/sweep-summary.js';
 import { datasetRef } from './dataset-key.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor } from './executor.js';
 import { planPlacements } from './placement-design.js';
-import { resolveCellSizes, validatedPlan } from './plan.js';
+import { planShapes, resolveCellSizes, validatedPlan } from './plan.js';
+import { latticeOf } from '../../workers/lattice/registry.js';
 import { runBounded } from './bounded-tasks.js';
 import { SizeResults } from './size-results.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv } from './sweep-budget.js';
@@ -79,16 +80,19 @@ export class ExecutorSweepRunner {
       plan.sims > 0 ? { key: `${ref.key}:seed ${plan.seed}:sims ${plan.sims}:run ${process.pid}-${this.runs}`, seed: plan.seed, sims: plan.sims } : null;
     try {
       await guard(this.executor.share(dataset, ref, controller.signal));
-      const placements = planPlacements(plan);
-      const sizes = cellSizes.map((cellSize, index) => new SizeResults(index, cellSize, placements, plan.sims));
+      // one entry per (shape, cell size): every size of the first shape, then the next; each shape's placements
+      // are the plan's design over its lattice's angle period, and every shape sees the same simulated patterns
+      const sizes = planShapes(plan).flatMap((shape, shapeIndex) => {
+        const placements = planPlacements(plan, latticeOf(shape).anglePeriod);
+        return cellSizes.map((cellSize, index) => new SizeResults(shapeIndex * cellSizes.length + index, cellSize, placements, plan.sims, shape));
+      });
       if (simulation !== null && !this.executor.simulatesInWorkers && !controller.signal.aborted) {
         await runBounded(simulateTasks(ref, simulation), this.executor.maxInFlight, (work) => guard(this.executor.run(work, controller.signal)), () => controller.signal.aborted);
       }
       if (!controller.signal.aborted) {
-        const placementCount = placements.length / 3;
-        const total = sizes.length * placementCount;
+        const total = sizes.length * plan.placements;
         let done = 0;
-        const work = chunkTasks(ref, simulation, plan, sizes, placements);
+        const work = chunkTasks(ref, simulation, plan, sizes);
         await runBounded(
           work,
           this.executor.maxInFlight,
@@ -144,11 +148,12 @@ interface ChunkItem {
   task: ChunkWork;
 }
 
-/** Chunks of chunkPlacements(n, R) placements, cell size by cell size, made only as the runner takes them. */
-function* chunkTasks(dataset: DatasetRef, simulation: SimulationRef | null, plan: Plan, sizes: SizeResults[], placements: Float64Array): Generator<ChunkItem> {
-  const placementCount = placements.length / 3;
+/** Chunks of chunkPlacements(n, R) placements, (shape, cell size) by (shape, cell size), made only as the runner takes them. */
+function* chunkTasks(dataset: DatasetRef, simulation: SimulationRef | null, plan: Plan, sizes: SizeResults[]): Generator<ChunkItem> {
   const perChunk = chunkPlacements(dataset.pointCount, plan.sims);
   for (const size of sizes) {
+    const placements = size.placements;
+    const placementCount = placements.length / 3;
     for (let first = 0; first < placementCount; first += perChunk) {
       const count = Math.min(perChunk, placementCount - first);
       const task: ChunkWork = {
@@ -156,6 +161,8 @@ function* chunkTasks(dataset: DatasetRef, simulation: SimulationRef | null, plan
         dataset,
         simulation,
         cellSize: size.cellSize,
+        // squares name no shape, so that their tasks stay exactly as before shapes existed
+        ...(size.shape === 'square' ? {} : { shape: size.shape }),
         minCoverage: plan.minCoverage,
         alpha: plan.alpha,
         placements: placements.slice(3 * first, 3 * (first + count)),

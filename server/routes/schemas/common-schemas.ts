@@ -2,6 +2,7 @@
  * JSON schemas shared by the routes: ids, bounding boxes, warnings, dataset summaries.
  * Response schemas list the fields clients rely on and allow more (the contracts may grow).
  */
+import { CELL_SHAPES } from '../../../workers/lattice/cell-shape.js';
 
 export const ID_PARAMS = {
   type: 'object',
@@ -84,6 +85,13 @@ export const PLAN_SCHEMA = {
     alpha: { type: 'number', exclusiveMinimum: 0, maximum: 0.5 },
     sims: { type: 'integer', minimum: 0, maximum: 9999 },
     seed: { type: 'integer' },
+    // one cell shape or a list of different ones (workers/lattice CELL_SHAPES)
+    shape: {
+      anyOf: [
+        { type: 'string', enum: [...CELL_SHAPES] },
+        { type: 'array', minItems: 1, maxItems: CELL_SHAPES.length, uniqueItems: true, items: { type: 'string', enum: [...CELL_SHAPES] } },
+      ],
+    },
   },
 } as const;
 
