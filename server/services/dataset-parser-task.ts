@@ -11,6 +11,7 @@ import { readFileSync } from 'node:fs';
 import { dirname } from 'node:path';
 import type { Dataset } from '../contracts.js';
 import { isGridshakeError } from '../errors.js';
+import type { ErrorCode } from '../../shared/error-codes.js';
 import { loadDataset, summarizeDataset, type DatasetOptions } from '../inputs/index.js';
 import type { InputFile } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
@@ -37,7 +38,7 @@ export interface ParseTask {
 export type ParseOutcome =
   | { ok: true; summary: StoredDatasetSummary }
   | { ok: true; summary: null; dataset: Dataset; datasetSummary: ReturnType<typeof summarizeDataset> }
-  | { ok: false; error: { code: string; statusCode: number; message: string } };
+  | { ok: false; error: { code: ErrorCode; message: string } };
 
 let store: { path: string; store: GridshakeStore } | null = null;
 
@@ -65,7 +66,7 @@ export default function parseUpload(task: ParseTask): ParseOutcome {
     }
     return { ok: true, summary: null, dataset, datasetSummary: summary };
   } catch (error) {
-    if (isGridshakeError(error)) return { ok: false, error: { code: error.code, statusCode: error.statusCode, message: error.message } };
+    if (isGridshakeError(error)) return { ok: false, error: { code: error.code, message: error.message } };
     throw error;
   }
 }
