@@ -8,6 +8,7 @@
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { statusOf, type ErrorCode } from '../../shared/error-codes.js';
 import { GridshakeError, isGridshakeError } from '../errors.js';
+import { storageWriteError } from '../store/write-failure.js';
 
 export interface ErrorBody {
   statusCode: number;
@@ -67,10 +68,8 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
   if (fastifyError.statusCode === undefined && MALFORMED_MULTIPART.test(fastifyError.message ?? '')) {
     return coded('GS_ERR_UPLOAD', `the upload is not a complete multipart/form-data body (${fastifyError.message ?? ''}); send it again`);
   }
-  if (code === 'SQLITE_FULL' || code === 'SQLITE_READONLY' || code.startsWith('SQLITE_IOERR')) {
-    const why = code === 'SQLITE_FULL' ? 'the disk holding the data folder is full' : 'the data folder cannot be written';
-    return coded('GS_ERR_STORAGE', `the database could not be written: ${why} (${code}); nothing was stored`);
-  }
+  const storage = storageWriteError(error);
+  if (storage !== null) return { statusCode: storage.statusCode, code: storage.code, message: storage.message };
   const status = fastifyError.statusCode ?? 500;
   if (status >= 400 && status < 500) {
     return { statusCode: status, code: 'GS_ERR_REQUEST', message: fastifyError.message ?? 'bad request' };

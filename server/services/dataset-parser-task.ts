@@ -16,6 +16,7 @@ import { loadDataset, summarizeDataset, type DatasetOptions } from '../inputs/in
 import type { InputFile } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import { GridshakeStore } from '../store/store.js';
+import { storageWriteError } from '../store/write-failure.js';
 
 export interface UploadedFile {
   /** the name the client gave (used in every message) */
@@ -66,7 +67,9 @@ export default function parseUpload(task: ParseTask): ParseOutcome {
     }
     return { ok: true, summary: null, dataset, datasetSummary: summary };
   } catch (error) {
-    if (isGridshakeError(error)) return { ok: false, error: { code: error.code, message: error.message } };
+    // coded errors travel as data: a thrown error's own properties (code) do not survive the worker boundary
+    const coded = isGridshakeError(error) ? error : storageWriteError(error);
+    if (coded !== null) return { ok: false, error: { code: coded.code, message: coded.message } };
     throw error;
   }
 }
