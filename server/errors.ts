@@ -1,8 +1,10 @@
 /**
- * Coded errors of gridshake. Every error a user can cause carries a GS_ERR_ code and an HTTP status;
+ * Coded errors of gridshake. Every error a user can cause carries a GS_ERR_ code and the HTTP status the registry
+ * (shared/error-codes.ts) gives that code;
  * the HTTP layer sends `{ statusCode, code, message }`, the CLI prints the message and exits non-zero.
  * Messages say what is wrong and where (file, line, feature), with no trailing period.
  */
+import { statusOf, type ErrorCode } from '../shared/error-codes.js';
 import { referencedFields, renderMessage, type FieldName } from './messages/field-names.js';
 
 /** Longest message kept whole; longer ones (e.g. echoing a 20 MB field) keep their start and end. */
@@ -15,7 +17,8 @@ function shortenMessage(message: string): string {
 }
 
 export class GridshakeError extends Error {
-  readonly code: string;
+  readonly code: ErrorCode;
+  /** the code's status in shared/error-codes.ts */
   readonly statusCode: number;
   /** the message in the command line's words (flags such as --x), see server/messages/field-names.ts */
   readonly cliMessage: string;
@@ -23,11 +26,11 @@ export class GridshakeError extends Error {
   readonly fields: FieldName[];
 
   /** `message` may carry field references (fieldRef); `.message` names them as the page does. */
-  constructor(code: string, statusCode: number, message: string) {
+  constructor(code: ErrorCode, message: string) {
     super(shortenMessage(renderMessage(message, 'page')));
     this.name = 'GridshakeError';
     this.code = code;
-    this.statusCode = statusCode;
+    this.statusCode = statusOf(code);
     this.cliMessage = shortenMessage(renderMessage(message, 'cli'));
     this.fields = referencedFields(message);
   }
@@ -35,12 +38,12 @@ export class GridshakeError extends Error {
 
 /** Bad input data: unreadable or malformed files, bad coordinates, bad polygons (400). */
 export function inputError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_INPUT', 400, message);
+  return new GridshakeError('GS_ERR_INPUT', message);
 }
 
 /** Bad parameters of a count or a plan: cell sizes, offsets, angles, alpha, placements, sims (400). */
 export function parameterError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_PARAMETER', 400, message);
+  return new GridshakeError('GS_ERR_PARAMETER', message);
 }
 
 /**
@@ -48,40 +51,40 @@ export function parameterError(message: string): GridshakeError {
  * exits 2, as for a bad command line, since the fix is a different --sims).
  */
 export function tooFewSimsError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_TOO_FEW_SIMS', 400, message);
+  return new GridshakeError('GS_ERR_TOO_FEW_SIMS', message);
 }
 
 /** CLI exit codes of coded errors other than 1 (the default for a GridshakeError). */
-export const CLI_EXIT_CODES: Readonly<Record<string, number>> = Object.freeze({ GS_ERR_TOO_FEW_SIMS: 2 });
+export const CLI_EXIT_CODES: Readonly<Partial<Record<ErrorCode, number>>> = Object.freeze({ GS_ERR_TOO_FEW_SIMS: 2 });
 
 /** A plan whose estimated work is above the budget (400). */
 export function budgetError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_BUDGET', 400, message);
+  return new GridshakeError('GS_ERR_BUDGET', message);
 }
 
 /** An unknown dataset or sweep id (404). */
 export function notFoundError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_NOT_FOUND', 404, message);
+  return new GridshakeError('GS_ERR_NOT_FOUND', message);
 }
 
 /** A request that is too large: body size or point count (413). */
 export function tooLargeError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_TOO_LARGE', 413, message);
+  return new GridshakeError('GS_ERR_TOO_LARGE', message);
 }
 
 /** A request in the wrong state: e.g. cancelling a finished sweep (409). */
 export function conflictError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_CONFLICT', 409, message);
+  return new GridshakeError('GS_ERR_CONFLICT', message);
 }
 
 /** A grid export with more cells than the export may hold (422): the message says how to get it. */
 export function gridTooLargeError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_GRID_TOO_LARGE', 422, message);
+  return new GridshakeError('GS_ERR_GRID_TOO_LARGE', message);
 }
 
 /** A grid GeoPackage asked for while another is being written (429). */
 export function exportBusyError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_EXPORT_BUSY', 429, message);
+  return new GridshakeError('GS_ERR_EXPORT_BUSY', message);
 }
 
 /**
@@ -89,7 +92,7 @@ export function exportBusyError(message: string): GridshakeError {
  * count, and the message says how to skip them (400).
  */
 export function badRowsError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_BAD_ROWS', 400, message);
+  return new GridshakeError('GS_ERR_BAD_ROWS', message);
 }
 
 export function isGridshakeError(value: unknown): value is GridshakeError {
@@ -98,25 +101,25 @@ export function isGridshakeError(value: unknown): value is GridshakeError {
 
 /** A full sweep queue: too many sweeps are waiting to run (429). */
 export function queueFullError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_QUEUE_FULL', 429, message);
+  return new GridshakeError('GS_ERR_QUEUE_FULL', message);
 }
 
 /** Too many event streams open on this server (429). */
 export function tooManyStreamsError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_TOO_MANY_STREAMS', 429, message);
+  return new GridshakeError('GS_ERR_TOO_MANY_STREAMS', message);
 }
 
 /** Too many uploads in progress at once (429). */
 export function tooManyUploadsError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_TOO_MANY_UPLOADS', 429, message);
+  return new GridshakeError('GS_ERR_TOO_MANY_UPLOADS', message);
 }
 
 /** A request whose headers or body did not arrive in time (408). */
 export function timeoutError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_TIMEOUT', 408, message);
+  return new GridshakeError('GS_ERR_TIMEOUT', message);
 }
 
 /** A database that fails its schema or integrity check at start (500; the server refuses to start). */
 export function databaseError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_DATABASE', 500, message);
+  return new GridshakeError('GS_ERR_DATABASE', message);
 }

@@ -9,6 +9,7 @@ import { assertCellCountWithinLimit } from '../sweeps/plan.js';
 import { fieldRef } from '../messages/field-names.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
+import { engineErrorOf } from '../../workers/engine-error.js';
 import { logPValues } from '../summary/log-p-values.js';
 import { DEFAULT_CELL_SHAPE } from '../../workers/lattice/cell-shape.js';
 import { latticeOf } from '../../workers/lattice/registry.js';
@@ -80,7 +81,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   try {
     evaluated = evaluatePlacement({ counter, region: dataset.region, origin: dataset.origin, ...parameters });
   } catch (error) {
-    if (error instanceof RangeError && /at least 2/.test(error.message)) return keptCells();
+    if (engineErrorOf(error)?.code === 'TOO_FEW_KEPT_CELLS') return keptCells();
     throw error;
   }
   if (evaluated.stats.cells < 2) return keptCells();

@@ -94,7 +94,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
       io.stderr(`gridshake: loaded ${loaded.length} invented demo scenarios from ${SAMPLES_DIR}\n`);
     }
     await app.listen({ host, port }).catch((error: unknown) => {
-      throw new GridshakeError('GS_ERR_LISTEN', 500, `cannot listen on ${host}:${port}: ${(error as Error).message}`);
+      throw new GridshakeError('GS_ERR_LISTEN', `cannot listen on ${host}:${port}: ${(error as Error).message}`);
     });
   } catch (error) {
     await app.close();

@@ -12,7 +12,7 @@ import type { DatasetRef, SimulationRef } from '../sweeps/executor.js';
 import { LocalExecutor } from '../sweeps/local-executor.js';
 import { simulateTasks } from '../sweeps/sweep-runner.js';
 import { unpackRegion } from '../../workers/sweep/region-buffer.js';
-import { PARAMETER_ERROR_PREFIX } from '../../workers/sweep/evaluate-chunk.js';
+import { engineErrorOf } from '../../workers/engine-error.js';
 import { unpackDataset } from './queue-dataset.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
 import { RESULT_TTL_SECONDS } from './queue-executor.js';
@@ -116,8 +116,8 @@ export class QueueWorker {
       );
     } catch (error) {
       const message = error instanceof Error ? error.message : String(error);
-      // a parameter error is the same on every worker: no retry
-      if (message.startsWith(PARAMETER_ERROR_PREFIX)) throw new UnrecoverableError(message);
+      // an engine error (e.g. too few kept cells) is the same on every worker: no retry; its message keeps the code
+      if (engineErrorOf(error) !== null) throw new UnrecoverableError(message);
       throw error;
     }
     await this.redis.set(resultKey(task.prefix, String(job.id)), encodeResult(result), 'EX', RESULT_TTL_SECONDS);

@@ -114,7 +114,7 @@ export function uploadFileHandler(uploads: UploadFolder, fileLimit: number) {
 }
 
 function uploaded(part: SavedPart): UploadedFile {
-  if (part.savedPath === undefined) throw new GridshakeError('GS_ERR_UPLOAD', 400, `${part.filename}: the file did not arrive whole; send it again`);
+  if (part.savedPath === undefined) throw new GridshakeError('GS_ERR_UPLOAD', `${part.filename}: the file did not arrive whole; send it again`);
   return { name: part.filename, path: part.savedPath };
 }
 
@@ -143,11 +143,11 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
       onRequest: async (request, reply) => {
         const type = (request.headers['content-type'] ?? '').toLowerCase();
         if (!type.startsWith('multipart/form-data')) {
-          throw new GridshakeError('GS_ERR_CONTENT_TYPE', 415, 'POST /api/datasets needs a multipart/form-data upload');
+          throw new GridshakeError('GS_ERR_CONTENT_TYPE', 'POST /api/datasets needs a multipart/form-data upload');
         }
         const length = Number(request.headers['content-length'] ?? Number.NaN);
         if (!Number.isFinite(length)) {
-          throw new GridshakeError('GS_ERR_LENGTH_REQUIRED', 411, 'POST /api/datasets needs a Content-Length header');
+          throw new GridshakeError('GS_ERR_LENGTH_REQUIRED', 'POST /api/datasets needs a Content-Length header');
         }
         if (length > bodyLimit) {
           throw tooLargeError(

@@ -2,16 +2,23 @@
  * The one error handler of the HTTP API: every failure leaves as `{ statusCode, code: "GS_ERR_...", message }`.
  * GridshakeErrors keep their code and status; Fastify's schema validation becomes GS_ERR_VALIDATION (400) naming
  * the field; body, file and part limits become GS_ERR_TOO_LARGE (413); anything unexpected is GS_ERR_INTERNAL (500),
- * logged, with no internals in the message.
+ * logged, with no internals in the message. Every status comes from the registry (shared/error-codes.ts), except
+ * that GS_ERR_REQUEST keeps the web framework's own 4xx status.
  */
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import { statusOf, type ErrorCode } from '../../shared/error-codes.js';
 import { GridshakeError, isGridshakeError } from '../errors.js';
-import { storageFailure } from '../store/storage-failure.js';
+import { storageWriteError } from '../store/write-failure.js';
 
 export interface ErrorBody {
   statusCode: number;
-  code: string;
+  code: ErrorCode;
   message: string;
+}
+
+/** The body of a coded error with the registry's status for its code. */
+function coded(code: ErrorCode, message: string): ErrorBody {
+  return { statusCode: statusOf(code), code, message };
 }
 
 export interface LimitsForMessages {
@@ -40,7 +47,7 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
   if (isGridshakeError(error)) return { statusCode: error.statusCode, code: error.code, message: error.message };
   const fastifyError = error as Partial<FastifyError> & { validationContext?: string };
   if (fastifyError.validation !== undefined) {
-    return { statusCode: 400, code: 'GS_ERR_VALIDATION', message: `invalid request: ${fastifyError.message ?? ''}` };
+    return coded('GS_ERR_VALIDATION', `invalid request: ${fastifyError.message ?? ''}`);
   }
   const code = fastifyError.code ?? '';
   if (TOO_LARGE_CODES.has(code)) {
@@ -50,28 +57,24 @@ export function toErrorBody(error: unknown, limits: LimitsForMessages): ErrorBod
         : code === 'FST_REQ_FILE_TOO_LARGE'
           ? `an uploaded file is larger than the limit of ${megabytes(limits.fileLimit)} (the upload limit set when the server was started)`
           : `the upload has too many files or fields (${fastifyError.message ?? code})`;
-    return { statusCode: 413, code: 'GS_ERR_TOO_LARGE', message: what };
+    return coded('GS_ERR_TOO_LARGE', what);
   }
   if (code === 'FST_ERR_CTP_INVALID_JSON_BODY' || code === 'FST_ERR_CTP_EMPTY_JSON_BODY' || error instanceof SyntaxError) {
-    return { statusCode: 400, code: 'GS_ERR_VALIDATION', message: `the body is not valid JSON: ${fastifyError.message ?? ''}` };
+    return coded('GS_ERR_VALIDATION', `the body is not valid JSON: ${fastifyError.message ?? ''}`);
   }
   if (code === 'FST_ERR_CTP_INVALID_MEDIA_TYPE' || code === 'FST_INVALID_MULTIPART_CONTENT_TYPE') {
-    return { statusCode: 415, code: 'GS_ERR_CONTENT_TYPE', message: `unsupported content type: ${fastifyError.message ?? ''}` };
+    return coded('GS_ERR_CONTENT_TYPE', `unsupported content type: ${fastifyError.message ?? ''}`);
   }
   if (fastifyError.statusCode === undefined && MALFORMED_MULTIPART.test(fastifyError.message ?? '')) {
-    return {
-      statusCode: 400,
-      code: 'GS_ERR_UPLOAD',
-      message: `the upload is not a complete multipart/form-data body (${fastifyError.message ?? ''}); send it again`,
-    };
+    return coded('GS_ERR_UPLOAD', `the upload is not a complete multipart/form-data body (${fastifyError.message ?? ''}); send it again`);
   }
-  const storage = storageFailure(code);
-  if (storage !== null) return storage;
+  const storage = storageWriteError(error);
+  if (storage !== null) return { statusCode: storage.statusCode, code: storage.code, message: storage.message };
   const status = fastifyError.statusCode ?? 500;
   if (status >= 400 && status < 500) {
     return { statusCode: status, code: 'GS_ERR_REQUEST', message: fastifyError.message ?? 'bad request' };
   }
-  return { statusCode: 500, code: 'GS_ERR_INTERNAL', message: 'internal error; the server log has the details' };
+  return coded('GS_ERR_INTERNAL', 'internal error; the server log has the details');
 }
 
 export function installErrorHandling(app: FastifyInstance, limits: LimitsForMessages): void {
@@ -82,8 +85,8 @@ export function installErrorHandling(app: FastifyInstance, limits: LimitsForMess
   });
   app.setNotFoundHandler((request: FastifyRequest, reply: FastifyReply) => {
     const path = request.url.split('?')[0] ?? '';
-    const body = toErrorBody(new GridshakeError('GS_ERR_NOT_FOUND', 404, `no such route: ${request.method} ${path}`), limits);
-    void reply.code(404).send(body);
+    const body = toErrorBody(new GridshakeError('GS_ERR_NOT_FOUND', `no such route: ${request.method} ${path}`), limits);
+    void reply.code(body.statusCode).send(body);
   });
 }
 
@@ -102,6 +105,7 @@ export const ERROR_SCHEMA = {
 /** The error responses of a route, for its `response` schema. */
 export function errorResponses(...statuses: number[]): Record<number, { $ref: string }> {
   const responses: Record<number, { $ref: string }> = {};
-  for (const status of [...statuses, 421, 403, 415, 500, 507]) responses[status] = { $ref: 'gsError#' };
+  const everyRoute: ErrorCode[] = ['GS_ERR_HOST', 'GS_ERR_ORIGIN', 'GS_ERR_CONTENT_TYPE', 'GS_ERR_INTERNAL', 'GS_ERR_STORAGE'];
+  for (const status of [...statuses, ...everyRoute.map(statusOf)]) responses[status] = { $ref: 'gsError#' };
   return responses;
 }

@@ -11,11 +11,12 @@ import { readFileSync } from 'node:fs';
 import { dirname } from 'node:path';
 import type { Dataset } from '../contracts.js';
 import { isGridshakeError } from '../errors.js';
+import type { ErrorCode } from '../../shared/error-codes.js';
 import { loadDataset, summarizeDataset, type DatasetOptions } from '../inputs/index.js';
-import { storageFailure } from '../store/storage-failure.js';
 import type { InputFile } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import { GridshakeStore } from '../store/store.js';
+import { storageWriteError } from '../store/write-failure.js';
 
 export interface UploadedFile {
   /** the name the client gave (used in every message) */
@@ -38,7 +39,7 @@ export interface ParseTask {
 export type ParseOutcome =
   | { ok: true; summary: StoredDatasetSummary }
   | { ok: true; summary: null; dataset: Dataset; datasetSummary: ReturnType<typeof summarizeDataset> }
-  | { ok: false; error: { code: string; statusCode: number; message: string } };
+  | { ok: false; error: { code: ErrorCode; message: string } };
 
 let store: { path: string; store: GridshakeStore } | null = null;
 
@@ -66,10 +67,9 @@ export default function parseUpload(task: ParseTask): ParseOutcome {
     }
     return { ok: true, summary: null, dataset, datasetSummary: summary };
   } catch (error) {
-    if (isGridshakeError(error)) return { ok: false, error: { code: error.code, statusCode: error.statusCode, message: error.message } };
-    // a full or read-only disk: its code would be lost crossing threads
-    const storage = storageFailure((error as NodeJS.ErrnoException).code);
-    if (storage !== null) return { ok: false, error: storage };
+    // coded errors travel as data: a thrown error's own properties (code) do not survive the worker boundary
+    const coded = isGridshakeError(error) ? error : storageWriteError(error);
+    if (coded !== null) return { ok: false, error: { code: coded.code, message: coded.message } };
     throw error;
   }
 }

@@ -53,7 +53,7 @@ export class DatasetParser {
       }
       throw error;
     }
-    if (!outcome.ok) throw new GridshakeError(outcome.error.code, outcome.error.statusCode, outcome.error.message);
+    if (!outcome.ok) throw new GridshakeError(outcome.error.code, outcome.error.message);
     if (outcome.summary !== null) return outcome.summary;
     return this.store.datasets.insert(outcome.dataset, outcome.datasetSummary, sampleId);
   }

@@ -13,7 +13,7 @@ import { checkDatabase, damagedDatabaseError } from './check-database.js';
 export const DATABASE_FILE_NAME = 'gridshake.sqlite';
 
 export function storageError(message: string): GridshakeError {
-  return new GridshakeError('GS_ERR_STORAGE', 500, message);
+  return new GridshakeError('GS_ERR_STORAGE', message);
 }
 
 /** Open `<dataDir>/gridshake.sqlite`, or an in-memory database when dataDir is ':memory:'. */

@@ -21,7 +21,7 @@ describe('field references in messages', () => {
   });
 
   it('reach both audiences through one error', () => {
-    const error = new GridshakeError('GS_ERR_INPUT', 400, `give ${fieldRef('area')}`);
+    const error = new GridshakeError('GS_ERR_INPUT', `give ${fieldRef('area')}`);
     expect(error.message).toBe('give the "Study area" field');
     expect(error.cliMessage).toBe('give --area');
   });

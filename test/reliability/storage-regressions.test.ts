@@ -41,3 +41,15 @@ describe('storage regressions', () => {
     expect(toErrorBody(new Error('something else'), limits).code).toBe('GS_ERR_INTERNAL');
   });
 });
+
+describe('storage errors that cross a worker thread or come from the file system', () => {
+  it('an upload on a full disk gave 500 GS_ERR_INTERNAL: ENOSPC while saving the upload is GS_ERR_STORAGE', () => {
+    const enospc = Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC' });
+    expect(toErrorBody(enospc, limits)).toEqual({
+      statusCode: 507,
+      code: 'GS_ERR_STORAGE',
+      message: 'the upload could not be saved: the disk holding the data folder is full (ENOSPC); nothing was stored',
+    });
+    expect(toErrorBody(Object.assign(new Error('EACCES'), { code: 'EACCES' }), limits).code).toBe('GS_ERR_INTERNAL');
+  });
+});

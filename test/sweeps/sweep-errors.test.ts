@@ -2,11 +2,12 @@
 import { describe, expect, it } from 'vitest';
 import { GridshakeError } from '../../server/errors.js';
 import { fromWorkerError } from '../../server/sweeps/sweep-errors.js';
-import { PARAMETER_ERROR_PREFIX } from '../../workers/sweep/evaluate-chunk.js';
+import { EngineError } from '../../workers/engine-error.js';
 
 describe('fromWorkerError', () => {
   it('turns an engine parameter message into GS_ERR_PARAMETER', () => {
-    const error = fromWorkerError(new Error(`${PARAMETER_ERROR_PREFIX}cells of 5 m keep 1 cell(s)`));
+    // as it arrives from a worker thread: a plain Error with the engine error's message (structured clone)
+    const error = fromWorkerError(new Error(new EngineError('TOO_FEW_KEPT_CELLS', 'cells of 5 m keep 1 cell(s)').message));
     expect(error).toBeInstanceOf(GridshakeError);
     expect((error as GridshakeError).code).toBe('GS_ERR_PARAMETER');
     expect(error.message).toBe('cells of 5 m keep 1 cell(s)');

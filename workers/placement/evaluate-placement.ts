@@ -3,6 +3,7 @@
  * statistic of the kept cells (shared/design.md, "Statistics of one placement").
  * Cost O(cells + edge crossings + n) per call.
  */
+import { EngineError } from '../engine-error.js';
 import { placementStatistics } from '../stats/index.js';
 import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region } from '../types.js';
 import type { CellShape } from '../lattice/cell-shape.js';
@@ -45,15 +46,16 @@ function describePlacement(cellSize: number, placement: Placement, shape: CellSh
 }
 
 /**
- * Evaluate one placement. Throws a RangeError when fewer than 2 cells are kept (the message says at least 2 are
- * needed and how to get them).
+ * Evaluate one placement. Throws EngineError TOO_FEW_KEPT_CELLS (a RangeError) when fewer than 2 cells are kept
+ * (the message says at least 2 are needed and how to get them).
  */
 export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlacement {
   const { counter, region, origin, cellSize, placement, minCoverage, alpha, shape } = input;
   const grid = latticeOf(shape).coverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage);
   if (kept.index.length < 2) {
-    throw new RangeError(
+    throw new EngineError(
+      'TOO_FEW_KEPT_CELLS',
       `${describePlacement(cellSize, placement, shape)} keep ${kept.index.length} cell(s) with coverage >= ${minCoverage}; ` +
         'at least 2 are needed: use smaller cells or a lower minCoverage',
     );

@@ -3,7 +3,7 @@
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
  * CSR pattern at the same kept cells.
  */
-import { evaluatePlacement, keptCounts, type CellCounter, type EvaluatedPlacement } from '../placement/index.js';
+import { evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
@@ -25,14 +25,11 @@ export interface ChunkContext {
   alpha: number;
 }
 
-/** Message prefix of errors the caller should report as bad parameters (GS_ERR_PARAMETER) rather than crashes. */
-export const PARAMETER_ERROR_PREFIX = 'GS_ERR_PARAMETER: ';
-
 /**
  * Evaluates the placements (u, v, angle triples) of one chunk; returns the chunk result laid out as in
  * sweep-task.ts. Coverage is computed once per placement and reused by every simulated pattern.
  * Cost: O(P (C + n (1 + R) + m R)) for P placements, C coverage work, n points, R sims, m kept cells.
- * @throws Error prefixed with PARAMETER_ERROR_PREFIX when a placement keeps fewer than 2 cells (the engine's message)
+ * @throws EngineError TOO_FEW_KEPT_CELLS when a placement keeps fewer than 2 cells (workers/engine-error.ts)
  */
 export function evaluateChunk(context: ChunkContext, placements: Float64Array): Float64Array {
   const count = placements.length / 3;
@@ -42,7 +39,7 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   let kept: Float64Array = new Float64Array(0);
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
-    const evaluated = evaluateObserved(context, placement, scratch);
+    const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
     encodeStatistics(evaluated.stats, result, j * STATISTICS_FIELDS);
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
@@ -54,14 +51,4 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     }
   }
   return result;
-}
-
-/** The observed pattern at one placement; too few kept cells become a parameter error for the caller. */
-function evaluateObserved(context: ChunkContext, placement: Placement, scratch: Int32Array): EvaluatedPlacement {
-  try {
-    return evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
-  } catch (error) {
-    if (error instanceof RangeError && /at least 2/.test(error.message)) throw new Error(PARAMETER_ERROR_PREFIX + error.message);
-    throw error;
-  }
 }

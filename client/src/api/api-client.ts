@@ -2,11 +2,12 @@
  * The page's only network access: the local server's /api (shared/design.md, HTTP API). Errors arrive as
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
+import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
 import type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
 import type { DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../server/contracts.js';
 
 export class ApiError extends Error {
-  constructor(readonly code: string, readonly statusCode: number, message: string) {
+  constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
     super(message);
     this.name = 'ApiError';
   }
@@ -53,13 +54,13 @@ export interface GridCollection {
 async function request<T>(path: string, init?: RequestInit): Promise<T> {
   const response = await fetch(path, { ...init, headers: { accept: 'application/json', ...(init?.headers ?? {}) } });
   if (!response.ok) {
-    let body: { code?: string; message?: string } = {};
+    let body: { code?: ErrorCode; message?: string } = {};
     try {
-      body = (await response.json()) as { code?: string; message?: string };
+      body = (await response.json()) as { code?: ErrorCode; message?: string };
     } catch {
       body = { message: response.statusText };
     }
-    throw new ApiError(body.code ?? 'GS_ERR_HTTP', response.status, body.message ?? `HTTP ${response.status} from ${path}`);
+    throw new ApiError(body.code ?? UNCODED_RESPONSE, response.status, body.message ?? `HTTP ${response.status} from ${path}`);
   }
   if (response.status === 204) return undefined as T;
   return (await response.json()) as T;
