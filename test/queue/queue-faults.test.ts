@@ -125,20 +125,6 @@ describe('queue faults', () => {
     }
   });
 
-  it('fails within the timeout naming the URL when Redis is unreachable', async () => {
-    const port = await freePort();
-    const runner = queueRunner(`redis://:secret@127.0.0.1:${port}`, 'unreachable', { lostAfterMs: 1500 });
-    const started = Date.now();
-    try {
-      const failure = (await runner.runSweep(uniform, normalizePlan({ cells: [100], placements: 8, sims: 2, alpha: 0.5 })).catch((e) => e)) as Error;
-      expect(failure.message).toMatch(new RegExp(`the Redis queue at redis://127.0.0.1:${port}/0 did not answer for 2 s .*check that Redis runs there`));
-      expect(failure.message).not.toContain('secret');
-      expect(Date.now() - started).toBeLessThan(10_000);
-    } finally {
-      await runner.destroy();
-    }
-  });
-
   it('a worker against an unreachable Redis says so and retries with growing waits', async () => {
     const port = await freePort();
     const log: string[] = [];
