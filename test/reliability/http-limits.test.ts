@@ -160,17 +160,22 @@ describe('item 6: a cap on event streams', () => {
     const list = (await (await fetch(`${server.base}/api/sweeps?limit=500`)).json()) as { id: string; status: string }[];
     const id = list.find((sweep) => sweep.status === 'queued' || sweep.status === 'running')!.id;
     const streams: AbortController[] = [];
+    // the responses stay referenced: undici cancels the body of a fetch response that is garbage collected, which
+    // closed a stream in the middle of the test and let the extra one in
+    const held: Response[] = [];
     for (let k = 0; k < MAX_EVENT_STREAMS; k += 1) {
       const controller = new AbortController();
       const response = await fetch(`${server.base}/api/sweeps/${id}/events`, { signal: controller.signal });
       expect(response.status).toBe(200);
       streams.push(controller);
+      held.push(response);
     }
     const extra = await fetch(`${server.base}/api/sweeps/${id}/events`);
     expect(extra.status).toBe(429);
     expect(errorCode(await extra.text())).toBe('GS_ERR_TOO_MANY_STREAMS');
     const health = await fetch(`${server.base}/api/health`);
     expect(health.status).toBe(200);
+    expect(held.every((response) => !response.bodyUsed)).toBe(true);
     streams.pop()!.abort();
     let again: Response | null = null;
     for (let tries = 0; tries < 50; tries += 1) {
