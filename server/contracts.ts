@@ -2,7 +2,8 @@
  * Contracts between server/inputs, server/sweeps, server/summary, the HTTP API, the CLI and the client.
  * The client imports these as types only.
  */
-import type { BBox, Origin, PlacementStatistics, Region, Verdict } from '../workers/types.js';
+import type { BBox, Origin, Region, Verdict } from '../workers/types.js';
+import type { EncodedStatistics } from '../workers/stats/statistic-fields.js';
 import type { CellShape } from '../workers/lattice/cell-shape.js';
 
 export interface InputWarning {
@@ -98,7 +99,7 @@ export const DEFAULT_PLAN: Readonly<Omit<Plan, 'cells' | 'perCell'>> = Object.fr
 });
 
 /** One row per (cell size, placement): the placement's parameters and all its statistics except the class table. */
-export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
+export interface PlacementRow extends EncodedStatistics {
   /** index of the (shape, cell size) entry in the summary's sizes: every cell size of the first shape, then the next */
   sizeIndex: number;
   cellSize: number;
@@ -108,9 +109,6 @@ export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
   u: number;
   v: number;
   angle: number;
-  poissonChi2: number | null;
-  poissonDf: number | null;
-  poissonP: number | null;
   /** natural log of pClustered in log space; in summary.json rows (reference, lowest and highest vmr) */
   logPClustered?: number;
   /** natural log of pRegular in log space; in summary.json rows */

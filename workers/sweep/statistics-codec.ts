@@ -1,76 +1,41 @@
 /**
  * Compact encoding of one placement's statistics as a fixed run of float64 values, so that a chunk of
- * placements travels from a worker as one Float64Array (moved, not cloned). null and booleans are encoded as
- * NaN and 0/1; the verdict as 0 (csr), 1 (clustered), 2 (regular).
+ * placements travels from a worker as one Float64Array (moved, not cloned). The fields, their order and how each
+ * is encoded (null as NaN, booleans as 0/1, the verdict as a code) come from STATISTIC_FIELDS
+ * (workers/stats/statistic-fields.ts).
  */
-import type { PlacementStatistics, Verdict } from '../types.js';
+import type { PlacementStatistics } from '../types.js';
+import { type EncodedStatistics, type FieldKind, flattenStatistics, STATISTIC_FIELDS, STATISTIC_NAMES, VERDICT_CODES } from '../stats/statistic-fields.js';
 
-/** The statistics of a placement row without its placement parameters (server/contracts.ts PlacementRow). */
-export interface EncodedStatistics extends Omit<PlacementStatistics, 'poissonFit'> {
-  poissonChi2: number | null;
-  poissonDf: number | null;
-  poissonP: number | null;
+export type { EncodedStatistics } from '../stats/statistic-fields.js';
+
+/** float64 slots per placement: one per statistic field. */
+export const STATISTICS_FIELDS = STATISTIC_NAMES.length;
+
+const KINDS: readonly FieldKind[] = STATISTIC_NAMES.map((name) => STATISTIC_FIELDS[name].kind);
+
+function encodeValue(kind: FieldKind, value: EncodedStatistics[keyof EncodedStatistics]): number {
+  if (kind === 'boolean') return value ? 1 : 0;
+  if (kind === 'verdict') return VERDICT_CODES.indexOf(value as EncodedStatistics['verdict']);
+  return value === null ? Number.NaN : (value as number);
 }
 
-export const STATISTICS_FIELDS = 23;
+function decodeValue(kind: FieldKind, value: number): EncodedStatistics[keyof EncodedStatistics] {
+  if (kind === 'boolean') return value === 1;
+  if (kind === 'verdict') return VERDICT_CODES[value] ?? 'csr';
+  if (kind === 'nullable') return Number.isNaN(value) ? null : value;
+  return value;
+}
 
-const VERDICTS: readonly Verdict[] = ['csr', 'clustered', 'regular'];
-
-const orNaN = (value: number | null): number => (value === null ? Number.NaN : value);
-const orNull = (value: number): number | null => (Number.isNaN(value) ? null : value);
-
-/** Writes the statistics at out[offset .. offset + STATISTICS_FIELDS). Cost O(1). */
+/** Writes the statistics at out[offset .. offset + STATISTICS_FIELDS). Cost O(fields). */
 export function encodeStatistics(stats: PlacementStatistics, out: Float64Array, offset: number): void {
-  out[offset] = stats.cells;
-  out[offset + 1] = stats.points;
-  out[offset + 2] = stats.mean;
-  out[offset + 3] = stats.variance;
-  out[offset + 4] = stats.vmr;
-  out[offset + 5] = stats.chi2;
-  out[offset + 6] = stats.df;
-  out[offset + 7] = stats.chi2PerDf;
-  out[offset + 8] = stats.pClustered;
-  out[offset + 9] = stats.pRegular;
-  out[offset + 10] = VERDICTS.indexOf(stats.verdict);
-  out[offset + 11] = stats.expectedPerCell;
-  out[offset + 12] = stats.meetsRuleOf5 ? 1 : 0;
-  out[offset + 13] = stats.meetsRuleOf1_6 ? 1 : 0;
-  out[offset + 14] = stats.morisita;
-  out[offset + 15] = stats.morisitaStandardized;
-  out[offset + 16] = stats.meanCrowding;
-  out[offset + 17] = stats.patchiness;
-  out[offset + 18] = stats.green;
-  out[offset + 19] = orNaN(stats.negativeBinomialK);
-  out[offset + 20] = stats.poissonFit ? stats.poissonFit.chi2 : Number.NaN;
-  out[offset + 21] = stats.poissonFit ? stats.poissonFit.df : Number.NaN;
-  out[offset + 22] = stats.poissonFit ? stats.poissonFit.p : Number.NaN;
+  const flat = flattenStatistics(stats);
+  for (let k = 0; k < STATISTIC_NAMES.length; k++) out[offset + k] = encodeValue(KINDS[k], flat[STATISTIC_NAMES[k]]);
 }
 
-/** Reads back what encodeStatistics wrote. Cost O(1). */
+/** Reads back what encodeStatistics wrote, fields in STATISTIC_FIELDS order. Cost O(fields). */
 export function decodeStatistics(data: Float64Array, offset: number): EncodedStatistics {
-  return {
-    cells: data[offset],
-    points: data[offset + 1],
-    mean: data[offset + 2],
-    variance: data[offset + 3],
-    vmr: data[offset + 4],
-    chi2: data[offset + 5],
-    df: data[offset + 6],
-    chi2PerDf: data[offset + 7],
-    pClustered: data[offset + 8],
-    pRegular: data[offset + 9],
-    verdict: VERDICTS[data[offset + 10]] ?? 'csr',
-    expectedPerCell: data[offset + 11],
-    meetsRuleOf5: data[offset + 12] === 1,
-    meetsRuleOf1_6: data[offset + 13] === 1,
-    morisita: data[offset + 14],
-    morisitaStandardized: data[offset + 15],
-    meanCrowding: data[offset + 16],
-    patchiness: data[offset + 17],
-    green: data[offset + 18],
-    negativeBinomialK: orNull(data[offset + 19]),
-    poissonChi2: orNull(data[offset + 20]),
-    poissonDf: orNull(data[offset + 21]),
-    poissonP: orNull(data[offset + 22]),
-  };
+  const stats: Record<string, EncodedStatistics[keyof EncodedStatistics]> = {};
+  for (let k = 0; k < STATISTIC_NAMES.length; k++) stats[STATISTIC_NAMES[k]] = decodeValue(KINDS[k], data[offset + k]);
+  return stats as unknown as EncodedStatistics;
 }
