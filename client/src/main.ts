@@ -1,7 +1,7 @@
 /** Entry of the analyst's page: connects the panels of the five steps, the map and the cautions to one store. */
 import { api } from './api/api-client.js';
 import { Store } from './app-state.js';
-import { CAUTIONS } from './charts/cautions.js';
+import { CAUTIONS } from '../../shared/charts/cautions.js';
 import { initDataPanel } from './panels/data-panel.js';
 import { initMapPanel } from './panels/map-panel.js';
 import { initPlanPanel } from './panels/plan-panel.js';

@@ -3,7 +3,7 @@
  * test (shared/design.md, "Command line"). Writes placements.csv, summary.json and report.html to --out, shows a
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
-import type { Plan, SweepProgress } from '../contracts.js';
+import type { Plan, SweepProgress } from '../../shared/contracts.js';
 import { renderReport } from '../report/render-report.js';
 import { reportMap } from '../report/report-map.js';
 import { normalizePlan } from '../sweeps/plan.js';

@@ -7,7 +7,7 @@ import { gridExtent } from '../../workers/geometry/coverage.js';
 import { createCellCounter, describeCellGrid, type CellGrid } from '../../workers/placement/index.js';
 import type { Placement } from '../../workers/types.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { gridTooLargeError } from '../errors.js';
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
 

@@ -3,7 +3,7 @@
  * the engine. Pure apart from reading the EPSG definitions package; the CLI reads files, the server passes uploads.
  */
 import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
-import type { Dataset, InputWarning } from '../contracts.js';
+import type { Dataset, InputWarning } from '../../shared/contracts.js';
 import { inputError, tooLargeError } from '../errors.js';
 import { checkPolygon } from './check-polygon.js';
 import { checkCoordinateSanity, checkPolygonIsLonLat } from './coordinate-sanity.js';

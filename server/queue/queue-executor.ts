@@ -14,7 +14,7 @@ import { randomBytes } from 'node:crypto';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { Queue, QueueEvents } from 'bullmq';
 import { Redis } from 'ioredis';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor } from '../sweeps/executor.js';
 import { shareDataset } from '../sweeps/shared-dataset.js';
 import { sweepCancelledError } from '../sweeps/sweep-errors.js';

@@ -7,7 +7,7 @@
  */
 import { Worker, UnrecoverableError, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { DatasetRef, SimulationRef } from '../sweeps/executor.js';
 import { LocalExecutor } from '../sweeps/local-executor.js';
 import { simulateTasks } from '../sweeps/sweep-runner.js';

@@ -3,12 +3,12 @@
  * written from the run, versions and seed, cautions. Self-contained (chart.js and CSS inline, no network), prints
  * cleanly to PDF. Used by `gridshake sweep --out` and GET /api/sweeps/:id/report.html.
  */
-import type { PlacementRow, SweepSummary } from '../contracts.js';
-import { CAUTIONS } from '../../client/src/charts/cautions.js';
-import { overviewBundles, sizeBundles } from '../../client/src/charts/chart-bundles.js';
-import type { ChartBundle, ChartSpec } from '../../client/src/charts/chart-spec.js';
-import { formatMetres } from '../../client/src/charts/format.js';
-import { sizeNumbers } from '../../client/src/charts/size-numbers.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
+import { CAUTIONS } from '../../shared/charts/cautions.js';
+import { overviewBundles, sizeBundles } from '../../shared/charts/chart-bundles.js';
+import type { ChartBundle, ChartSpec } from '../../shared/charts/chart-spec.js';
+import { formatMetres } from '../../shared/charts/format.js';
+import { sizeNumbers } from '../../shared/charts/size-numbers.js';
 import { chartLibrarySource } from './chart-library.js';
 import { escapeHtml } from './html-escape.js';
 import { htmlTable } from './html-table.js';

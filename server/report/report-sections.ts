@@ -1,8 +1,8 @@
 /** The text sections of the report: dataset, plan, per-size table, Monte Carlo results, versions. */
-import type { SweepSummary } from '../contracts.js';
-import { formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
-import { datasetSummaryEntries, warningRecords } from '../../client/src/charts/dataset-entries.js';
-import { warningTitle } from '../messages/warning-titles.js';
+import type { SweepSummary } from '../../shared/contracts.js';
+import { formatMetres, formatNumber, formatP, formatPercent } from '../../shared/charts/format.js';
+import { datasetSummaryEntries, warningRecords } from '../../shared/charts/dataset-entries.js';
+import { warningTitle } from '../../shared/messages/warning-titles.js';
 import { escapeHtml } from './html-escape.js';
 import { definitionTable, htmlTable } from './html-table.js';
 

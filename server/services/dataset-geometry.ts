@@ -3,23 +3,9 @@
  * Decimation is a deterministic stride: every k-th point with k = ceil(n / maxPoints), so the same dataset always
  * draws the same points, and the drawn ones are spread over the file order (cost O(n / k)).
  */
-import type { Dataset } from '../contracts.js';
+import type { Dataset, DatasetGeometry } from '../../shared/contracts.js';
 
 export const DEFAULT_DRAWN_POINTS = 5000;
-
-export interface DatasetGeometry {
-  /** points drawn, x,y interleaved (planar metres) */
-  points: number[];
-  /** 1 when the drawn point is inside the valid region, 0 when it lies outside (never counted) */
-  pointInside: number[];
-  /** points in the dataset, and the stride used (1 = every point drawn) */
-  totalPoints: number;
-  stride: number;
-  studyArea: number[][][][];
-  noDataZones: number[][][][];
-  bbox: Dataset['region']['bbox'];
-  origin: Dataset['origin'];
-}
 
 export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DRAWN_POINTS): DatasetGeometry {
   const totalPoints = dataset.xy.length / 2;

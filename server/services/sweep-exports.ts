@@ -9,7 +9,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
-import type { PlacementRow } from '../contracts.js';
+import type { PlacementRow } from '../../shared/contracts.js';
 import { conflictError, exportBusyError, notFoundError } from '../errors.js';
 import { boundedCellGrid, type GridFormat, type GridRequest } from '../grid-export/grid-cells.js';
 import { effectiveCoordinates, gridGeoJsonChunks, type GridCoordinates } from '../grid-export/grid-geojson.js';
@@ -20,7 +20,7 @@ import type { GridshakeStore } from '../store/store.js';
 import { ROWS_PER_CHUNK } from '../store/placement-store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
-import { downloadName } from '../messages/download-names.js';
+import { downloadName } from '../../shared/messages/download-names.js';
 import type { DatasetService } from './dataset-service.js';
 import type { SweepService } from './sweep-service.js';
 

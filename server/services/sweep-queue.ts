@@ -6,7 +6,7 @@
  * `interrupted`, as they would after a crash.
  */
 import { EventEmitter } from 'node:events';
-import type { SweepProgress, SweepStatus } from '../contracts.js';
+import type { SweepProgress, SweepStatus } from '../../shared/contracts.js';
 import type { GridshakeStore } from '../store/store.js';
 import { writeRowsInChunks } from '../store/placement-store.js';
 import { trustStoredPlan } from '../sweeps/plan.js';

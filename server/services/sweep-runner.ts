@@ -3,7 +3,7 @@
  * on an executor: the local pool or the Redis queue):
  * run one sweep with cancellation and progress, and shut down.
  */
-import type { Dataset, PlacementRow, Plan, SweepSummary } from '../contracts.js';
+import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
 
 /** Progress as the pool reports it: at least placements done and total. */
 export interface RunnerProgress {

@@ -4,7 +4,7 @@
  */
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
-import type { Dataset, DatasetSummary } from '../contracts.js';
+import type { Dataset, DatasetSummary } from '../../shared/contracts.js';
 import {
   bufferToFloat64,
   bufferToUint32,

@@ -1,4 +1,4 @@
-import type { MonteCarloResult, OverallTest, SizeSummary } from '../contracts.js';
+import type { MonteCarloResult, OverallTest, SizeSummary } from '../../shared/contracts.js';
 import { formatPValue, pPhrase } from '../../shared/p-value.js';
 import type { Verdict } from '../../workers/types.js';
 

@@ -4,7 +4,7 @@
  * the data the way it moves it (shared memory for the local pool, Redis keys for the queue).
  * Executors: local-executor.ts (piscina, the default) and ../queue/queue-executor.ts (BullMQ on Redis).
  */
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 
 /** A dataset the executor has shared with its workers, under a key made of the dataset id and its content hash. */

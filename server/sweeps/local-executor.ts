@@ -7,7 +7,7 @@ import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import type { ResourceLimits } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { PACKAGE_ROOT } from '../services/project-paths.js';
 import type { ChunkTask, SimulateTask, SweepTask } from '../../workers/sweep/sweep-task.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor, SweepWork } from './executor.js';

@@ -6,7 +6,7 @@
  * placements.json keeps every number at full precision. Used by the CLI and the HTTP export; README documents
  * the columns.
  */
-import type { PlacementRow, SweepSummary } from '../contracts.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
 import { type Rounding, STATISTIC_FIELDS, STATISTIC_NAMES } from '../../workers/stats/statistic-fields.js';
 
 /** Column of placements.csv: its name (with unit), the PlacementRow field and how its numbers are written. */

@@ -3,7 +3,7 @@
  * DEFAULT_PLAN, and the resolution of "expected points per cell" into cell sides.
  * Every bad value is a GS_ERR_PARAMETER error naming the field and the allowed range.
  */
-import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../contracts.js';
+import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../../shared/contracts.js';
 import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';

@@ -3,7 +3,7 @@
  * matrices, then summarises them (server/summary). Chunks may arrive in any order; the result does not depend
  * on it, so it does not depend on the number of threads either.
  */
-import type { PlacementRow, SizeSummary } from '../contracts.js';
+import type { PlacementRow, SizeSummary } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { placementRobustTest } from '../summary/placement-robust-test.js';
 import { summarizeSize } from '../summary/size-summary.js';

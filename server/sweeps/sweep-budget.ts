@@ -3,7 +3,7 @@
  * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern; "sizes"
  * counts every (shape, cell size) pair of the plan.
  */
-import type { Plan, SweepEstimate } from '../contracts.js';
+import type { Plan, SweepEstimate } from '../../shared/contracts.js';
 import { budgetError } from '../errors.js';
 import { planShapes } from './plan.js';
 

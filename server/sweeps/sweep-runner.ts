@@ -5,7 +5,7 @@
  * not change a single number of the result.
  */
 import { setMaxListeners } from 'node:events';
-import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../contracts.js';
+import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../../shared/contracts.js';
 import { summarizeDataset } from '../inputs/summarize-dataset.js';
 import { PACKAGE_VERSION } from '../services/project-paths.js';
 import { buildSweepSummary } from '../summary/sweep-summary.js';

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { cellSizeSeries } from '../../client/src/charts/cell-size-data.js';
-import { cellSizeChartSpec, cellSizeTable } from '../../client/src/charts/cell-size-chart.js';
-import { hydrateChartSpec } from '../../client/src/charts/chart-runtime.js';
+import { cellSizeSeries } from '../../shared/charts/cell-size-data.js';
+import { cellSizeChartSpec, cellSizeTable } from '../../shared/charts/cell-size-chart.js';
+import { hydrateChartSpec } from '../../shared/charts/chart-runtime.js';
 import { makeMonteCarlo, makeRow, makeSize, quantiles } from './summary-fixture.js';
 
 // Expected values are hand computations from the fixture's numbers.

@@ -1,9 +1,9 @@
 import { describe, it, expect } from 'vitest';
-import { angleSeries } from '../../client/src/charts/angle-data.js';
-import { angleChartSpec } from '../../client/src/charts/angle-chart.js';
-import { hydrateChartSpec } from '../../client/src/charts/chart-runtime.js';
-import { verdictSeries } from '../../client/src/charts/verdict-data.js';
-import { verdictChartSpec } from '../../client/src/charts/verdict-chart.js';
+import { angleSeries } from '../../shared/charts/angle-data.js';
+import { angleChartSpec } from '../../shared/charts/angle-chart.js';
+import { hydrateChartSpec } from '../../shared/charts/chart-runtime.js';
+import { verdictSeries } from '../../shared/charts/verdict-data.js';
+import { verdictChartSpec } from '../../shared/charts/verdict-chart.js';
 import { makeRow, makeSize } from './summary-fixture.js';
 
 describe('verdictSeries(sizes)', () => {

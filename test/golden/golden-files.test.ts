@@ -12,7 +12,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset, PlacementRow, SweepSummary } from '../../server/contracts.js';
+import type { Dataset, PlacementRow, SweepSummary } from '../../shared/contracts.js';
 import { boundedCellGrid, type GridRequest } from '../../server/grid-export/grid-cells.js';
 import { effectiveCoordinates, gridGeoJsonText } from '../../server/grid-export/grid-geojson.js';
 import { writeGridGeoPackage } from '../../server/grid-export/grid-geopackage.js';

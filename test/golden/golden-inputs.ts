@@ -2,7 +2,7 @@
  * Fixed inputs of the golden files: an invented district (planar metres) with an invented pond as a no-data zone and
  * 160 seeded points clustered around four invented sites, swept with square and hexagonal cells. Demo data only.
  */
-import type { Dataset, Plan } from '../../server/contracts.js';
+import type { Dataset, Plan } from '../../shared/contracts.js';
 import { loadDataset } from '../../server/inputs/index.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { seededRandom } from '../fixtures/seeded-random.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { PlacementRow } from '../../server/contracts.js';
+import type { PlacementRow } from '../../shared/contracts.js';
 import { overallConclusion, shapeSentence } from '../../server/summary/conclusion.js';
 import { summarizeSize } from '../../server/summary/size-summary.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { runCli } from '../../server/cli/main.js';
-import type { PlacementRow, SweepSummary } from '../../server/contracts.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
 import { AREA_RING, RESERVOIR_RING, pointsCsv, polygonGeoJson } from './sweep-fixtures.js';
 
 // `gridshake sweep --shape` (issue 16): the hexagon rows of a sweep are what `gridshake count --shape hex` says at

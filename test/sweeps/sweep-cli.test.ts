@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { describe, it, expect } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { runCli } from '../../server/cli/main.js';
-import type { SweepSummary } from '../../server/contracts.js';
+import type { SweepSummary } from '../../shared/contracts.js';
 import { AREA_RING, RESERVOIR_RING, pointsCsv, polygonGeoJson } from './sweep-fixtures.js';
 
 const run = promisify(execFile);

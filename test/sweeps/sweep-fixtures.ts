@@ -3,7 +3,7 @@
  * invented reservoir as a no-data zone, and seeded point patterns (uniform, or clustered around a few invented
  * sites). Demo data only: the checks compare against independent computations, not against these numbers.
  */
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { loadDataset } from '../../server/inputs/index.js';
 
 export const AREA_RING: number[][] = [

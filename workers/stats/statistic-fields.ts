@@ -7,7 +7,7 @@
  */
 import type { PlacementStatistics, Verdict } from '../types.js';
 
-/** The statistics of a placement row without its placement parameters (server/contracts.ts PlacementRow). */
+/** The statistics of a placement row without its placement parameters (shared/contracts.ts PlacementRow). */
 export interface EncodedStatistics extends Omit<PlacementStatistics, 'poissonFit'> {
   poissonChi2: number | null;
   poissonDf: number | null;

@@ -3,8 +3,7 @@
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
-import type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
-import type { DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../server/contracts.js';
+import type { DatasetGeometry, DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -25,7 +24,7 @@ export interface StoredDataset extends DatasetSummary {
   sample?: string | null;
 }
 
-export type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
+export type { DatasetGeometry } from '../../../shared/contracts.js';
 
 export interface SweepRecord {
   id: string;

@@ -3,7 +3,7 @@
  * placement is chosen, its grid: kept cells shaded by count, left-out cells hatched.
  */
 import type { DatasetGeometry, GridCollection } from '../api/api-client.js';
-import { NEUTRAL, OKABE_ITO, sequentialColour, withAlpha } from '../charts/palette.js';
+import { NEUTRAL, OKABE_ITO, sequentialColour, withAlpha } from '../../../shared/charts/palette.js';
 import { hatchPattern } from './hatch-pattern.js';
 import { fitTransform, ringsBox, unionBox, type MapTransform } from './map-transform.js';
 

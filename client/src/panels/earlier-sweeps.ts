@@ -1,7 +1,7 @@
 /** The sweeps already run on the chosen dataset (the demo scenarios come with one), to open their results. */
 import { api, type SweepRecord } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatMetres } from '../charts/format.js';
+import { formatMetres } from '../../../shared/charts/format.js';
 import { clear, confirmButton, el } from '../ui/dom.js';
 
 function describePlan(record: SweepRecord): string {

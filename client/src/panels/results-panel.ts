@@ -3,14 +3,14 @@
  * against angle, the offset heat map and the Monte Carlo histogram, with the conclusion and its numbers. Clicking
  * a placement in any chart (or the buttons) shows its grid on the map.
  */
-import type { SweepSummary } from '../../../server/contracts.js';
+import type { SweepSummary } from '../../../shared/contracts.js';
 import type { Store } from '../app-state.js';
-import { overviewBundles, sizeBundles } from '../charts/chart-bundles.js';
-import { cellSizeSeries, type SpreadMeasure } from '../charts/cell-size-data.js';
-import { formatMetres } from '../charts/format.js';
-import { sizeNumbers } from '../charts/size-numbers.js';
+import { overviewBundles, sizeBundles } from '../../../shared/charts/chart-bundles.js';
+import { cellSizeSeries, type SpreadMeasure } from '../../../shared/charts/cell-size-data.js';
+import { formatMetres } from '../../../shared/charts/format.js';
+import { sizeNumbers } from '../../../shared/charts/size-numbers.js';
 import { ChartView, setPngNamer, type ChartClick } from '../ui/chart-view.js';
-import { downloadName } from '../../../server/messages/download-names.js';
+import { downloadName } from '../../../shared/messages/download-names.js';
 import { clear, el, field } from '../ui/dom.js';
 import { heatmapLegend } from './heatmap-legend.js';
 import { placementPicker } from './placement-picker.js';

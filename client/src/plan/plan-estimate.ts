@@ -3,7 +3,7 @@
  * work = points inside x placements x sizes x (1 + sims) point-placements, and evaluations = sizes x placements x
  * (1 + sims) grid evaluations. Cost O(1).
  */
-import type { Plan } from '../../../server/contracts.js';
+import type { Plan } from '../../../shared/contracts.js';
 
 /** Most grid evaluations a sweep may hold (the server's MAX_EVALUATIONS). */
 export const MAX_EVALUATIONS = 2e7;

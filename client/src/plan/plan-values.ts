@@ -3,7 +3,7 @@
  * design, minCoverage, alpha, sims, seed }`) or a list of messages naming the field at fault. The server checks
  * the plan again; this only lets the page refuse early and say why.
  */
-import type { Plan, PlacementDesign } from '../../../server/contracts.js';
+import type { Plan, PlacementDesign } from '../../../shared/contracts.js';
 import { simsCanReject, smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
 
 export interface PlanFormValues {
@@ -66,7 +66,7 @@ export function readPlan(values: PlanFormValues): PlanReading {
   return { plan: { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed }, errors };
 }
 
-/** The form's starting values: the server's DEFAULT_PLAN (server/contracts.ts), as field texts. */
+/** The form's starting values: the server's DEFAULT_PLAN (shared/contracts.ts), as field texts. */
 export const PLAN_FORM_DEFAULTS = {
   placements: '256',
   design: 'halton' as PlacementDesign,

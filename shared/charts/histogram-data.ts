@@ -1,4 +1,4 @@
-import type { MonteCarloResult } from '../../../server/contracts.js';
+import type { MonteCarloResult } from '../contracts.js';
 
 /** Equal-width bins: edges[0..k] and counts[0..k-1]; a value v falls in [edges[i], edges[i+1]), the last bin closed. */
 export interface Histogram {

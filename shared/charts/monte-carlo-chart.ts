@@ -1,4 +1,4 @@
-import type { MonteCarloResult } from '../../../server/contracts.js';
+import type { MonteCarloResult } from '../contracts.js';
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
 import { formatNumber, formatP, pPhrase } from './format.js';
 import type { MonteCarloHistograms, ObservedMark } from './histogram-data.js';

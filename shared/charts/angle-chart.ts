@@ -3,7 +3,7 @@ import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
 import { formatNumber } from './format.js';
 import { NEUTRAL, OKABE_ITO, VERDICT_COLOURS, withAlpha } from './palette.js';
 import { verdictWords } from './verdict-data.js';
-import type { Verdict } from '../../../workers/types.js';
+import type { Verdict } from '../../workers/types.js';
 
 /**
  * Marker of each verdict, colour AND shape so that it reads without colour vision (and in greyscale print):

@@ -1,4 +1,4 @@
-import type { SizeSummary } from '../../../server/contracts.js';
+import type { SizeSummary } from '../contracts.js';
 import { formatMetres, formatNumber, formatP, formatPercent, pPhrase } from './format.js';
 import { verdictWords } from './verdict-data.js';
 

@@ -1,5 +1,5 @@
-import type { PlacementRow } from '../../../server/contracts.js';
-import type { Verdict } from '../../../workers/types.js';
+import type { PlacementRow } from '../contracts.js';
+import type { Verdict } from '../../workers/types.js';
 import { formatNumber } from './format.js';
 import { verdictWords } from './verdict-data.js';
 

@@ -1,5 +1,5 @@
-import type { SizeSummary } from '../../../server/contracts.js';
-import type { Verdict } from '../../../workers/types.js';
+import type { SizeSummary } from '../contracts.js';
+import type { Verdict } from '../../workers/types.js';
 import { formatMetres, formatPercent } from './format.js';
 
 /** Verdict shares per cell size, in percent of placements, and the agreement. */

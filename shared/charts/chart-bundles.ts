@@ -1,4 +1,4 @@
-import type { PlacementRow, SweepSummary } from '../../../server/contracts.js';
+import type { PlacementRow, SweepSummary } from '../contracts.js';
 import { angleSeries } from './angle-data.js';
 import { angleChartSpec, angleTable } from './angle-chart.js';
 import { cellSizeSeries, type SpreadMeasure } from './cell-size-data.js';

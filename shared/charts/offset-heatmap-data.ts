@@ -1,4 +1,4 @@
-import type { PlacementRow } from '../../../server/contracts.js';
+import type { PlacementRow } from '../contracts.js';
 import { sequentialColour } from './palette.js';
 
 /** One bin of the offset heat map: offsets u in [uFrom, uTo), v in [vFrom, vTo). */

@@ -2,7 +2,7 @@
  * The dataset summary as label/value rows and an input warning's record list, worded once for the page and the
  * report (both show them).
  */
-import type { DatasetSummary, InputWarning } from '../../../server/contracts.js';
+import type { DatasetSummary, InputWarning } from '../contracts.js';
 import { formatArea } from './format.js';
 
 export function datasetSummaryEntries(dataset: DatasetSummary): [string, string][] {

@@ -225,3 +225,18 @@ export interface SweepEstimate {
   /** bytes of simulated CSR coordinates: points x sims x 16 */
   simulatedBytes?: number;
 }
+
+/** GET /api/datasets/:id/geometry: what the page draws of a dataset (server/services/dataset-geometry.ts). */
+export interface DatasetGeometry {
+  /** points drawn, x,y interleaved (planar metres) */
+  points: number[];
+  /** 1 when the drawn point is inside the valid region, 0 when it lies outside (never counted) */
+  pointInside: number[];
+  /** points in the dataset, and the stride used (1 = every point drawn) */
+  totalPoints: number;
+  stride: number;
+  studyArea: number[][][][];
+  noDataZones: number[][][][];
+  bbox: Dataset['region']['bbox'];
+  origin: Dataset['origin'];
+}

@@ -1,4 +1,4 @@
-import type { SizeSummary } from '../../../server/contracts.js';
+import type { SizeSummary } from '../contracts.js';
 import { formatMetres } from './format.js';
 
 /** Why the CSR envelope is missing from the chart of `measure`, or null when every size has one. */

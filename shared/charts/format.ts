@@ -1,5 +1,5 @@
 /** Number formatting shared by the page, the charts and the report (plain ASCII, no locale surprises). */
-import { formatPValue, pPhrase as sharedPPhrase } from '../../../shared/p-value.js';
+import { formatPValue, pPhrase as sharedPPhrase } from '../p-value.js';
 
 /** A number with `digits` significant digits, trailing zeros removed; '-' for null or non-finite. */
 export function formatNumber(value: number | null | undefined, digits = 3): string {
