@@ -7,7 +7,7 @@ import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
 import { CAUTIONS } from '../../shared/charts/cautions.js';
 import { overviewBundles, sizeBundles } from '../../shared/charts/chart-bundles.js';
 import type { ChartBundle, ChartSpec } from '../../shared/charts/chart-spec.js';
-import { formatMetres } from '../../shared/charts/format.js';
+import { formatMetres } from '../../shared/format.js';
 import { sizeNumbers } from '../../shared/charts/size-numbers.js';
 import { chartLibrarySource } from './chart-library.js';
 import { escapeHtml } from './html-escape.js';

@@ -8,7 +8,7 @@
 import { describeCellGrid, createCellCounter, cellAt } from '../../workers/placement/index.js';
 import { gridExtent } from '../../workers/geometry/coverage.js';
 import type { Dataset, SweepSummary } from '../../shared/contracts.js';
-import { formatMetres } from '../../shared/charts/format.js';
+import { formatMetres } from '../../shared/format.js';
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
 import { escapeHtml } from './html-escape.js';
 

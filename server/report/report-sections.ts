@@ -1,6 +1,6 @@
 /** The text sections of the report: dataset, plan, per-size table, Monte Carlo results, versions. */
 import type { SweepSummary } from '../../shared/contracts.js';
-import { formatMetres, formatNumber, formatP, formatPercent } from '../../shared/charts/format.js';
+import { formatMetres, formatNumber, formatP, formatPercent } from '../../shared/format.js';
 import { datasetSummaryEntries, warningRecords } from '../../shared/charts/dataset-entries.js';
 import { warningTitle } from '../../shared/messages/warning-titles.js';
 import { escapeHtml } from './html-escape.js';

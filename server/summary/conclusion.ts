@@ -1,15 +1,10 @@
 import type { MonteCarloResult, OverallTest, SizeSummary } from '../../shared/contracts.js';
-import { formatPValue, pPhrase } from '../../shared/p-value.js';
+import { formatMetres, formatP, pPhrase } from '../../shared/format.js';
+import { verdictWords } from '../../shared/verdict-words.js';
 import type { Verdict } from '../../workers/types.js';
 
 /** Agreement below this share means the verdict depends on where the grid falls (our choice, stated in the text). */
 export const LOW_AGREEMENT = 0.9;
-
-const VERDICT_WORDS: Record<Verdict, string> = {
-  clustered: 'clustered',
-  regular: 'regular',
-  csr: 'no departure from CSR',
-};
 
 /** A share 0..1 as a whole percentage that never rounds a partial share to 0 % or 100 %. */
 export function formatShare(share: number): string {
@@ -19,22 +14,12 @@ export function formatShare(share: number): string {
   return `${percent} %`;
 }
 
-/** A p-value for text (shared/p-value.ts: "< 1e-300" below the smallest double, never "0"). */
-export function formatP(p: number): string {
-  return formatPValue(p);
-}
-
-/** A length in metres with at most 4 significant digits. */
-export function formatMetres(metres: number): string {
-  return String(Number(metres.toPrecision(4)));
-}
-
 /**
  * How a size's cells are named in sentences: "120 m cells" for squares (as before shapes existed), "120 m hexagonal
  * cells" for hexagons of area 120^2 m^2.
  */
 export function cellsLabel(size: Pick<SizeSummary, 'cellSize' | 'shape'>): string {
-  return `${formatMetres(size.cellSize)} m ${size.shape === 'hex' ? 'hexagonal ' : ''}cells`;
+  return `${formatMetres(size.cellSize, { significant: 4 })} ${size.shape === 'hex' ? 'hexagonal ' : ''}cells`;
 }
 
 function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string {
@@ -54,9 +39,9 @@ function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string
  */
 export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string {
   const { verdictShares, mostCommon, placements, monteCarlo } = summary;
-  const parts = [`${cellsLabel(summary)}: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
+  const parts = [`${cellsLabel(summary)}: ${verdictWords(mostCommon, 'short')} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
   const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
-  if (others.length > 0) parts[0] += ` (${others.map((v) => `${VERDICT_WORDS[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
+  if (others.length > 0) parts[0] += ` (${others.map((v) => `${verdictWords(v, 'short')} in ${formatShare(verdictShares[v])}`).join(', ')})`;
   if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));
   else parts.push('per-placement evidence only, no Monte Carlo test (sims = 0)');
   return parts.join('; ');
@@ -99,7 +84,7 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
     for (const size of sizes) counts[size.mostCommon] += 1;
     const words = (['clustered', 'regular', 'csr'] as Verdict[])
       .filter((v) => counts[v] > 0)
-      .map((v) => `${VERDICT_WORDS[v]} at ${counts[v]} of ${total} cell sizes`);
+      .map((v) => `${verdictWords(v, 'short')} at ${counts[v]} of ${total} cell sizes`);
     const where = shapes.length > 1 ? 'cell sizes and shapes' : 'cell sizes';
     sentences.push(`Per-placement evidence only, not a test (sims = 0): most placements say ${words.join(', ').replace(/cell sizes/g, where)} at alpha ${alpha}; run with sims > 0 for a Monte Carlo test`);
   }
@@ -138,6 +123,6 @@ export function shapeSentence(sizes: readonly Omit<SizeSummary, 'conclusion'>[])
   }
   const details = differing
     .sort(([a], [b]) => a - b)
-    .map(([side, verdicts]) => `${formatMetres(side)} m: ${[...verdicts.entries()].map(([shape, verdict]) => `${shape === 'hex' ? 'hexagons' : 'squares'} ${VERDICT_WORDS[verdict]}`).join(', ')}`);
+    .map(([side, verdicts]) => `${formatMetres(side, { significant: 4 })}: ${[...verdicts.entries()].map(([shape, verdict]) => `${shape === 'hex' ? 'hexagons' : 'squares'} ${verdictWords(verdict, 'short')}`).join(', ')}`);
   return `The conclusion depends on the cell shape at ${differing.length} of ${compared.length} cell sizes, where squares and hexagons give different most common verdicts (${details.join('; ')})`;
 }

@@ -7,6 +7,7 @@ import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../../shared/cont
 import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
+import { formatMetres, significant } from '../../shared/format.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 import { CELL_SHAPES, DEFAULT_CELL_SHAPE, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
 
@@ -151,6 +152,9 @@ export function validatedPlan(input: Plan): Plan {
   return VALIDATED.has(input) ? input : normalizePlan(input);
 }
 
+/** Cell sides in messages: six significant digits. */
+const SIX = { significant: 6 };
+
 /**
  * Cell sides in metres for a plan: `cells` as given, or `perCell` turned into sides by side = sqrt(k * A / n)
  * (A valid area in m^2, n points inside the valid region; shared/reference-values.md, "Rules of thumb").
@@ -172,8 +176,8 @@ export function resolveCellSizes(plan: Plan, validArea: number, nInside: number)
     assertCellCountWithinLimit(size, validArea, field);
     if (size > largest) {
       throw parameterError(
-        `${field} gives cells of ${formatMetres(size)} m, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
-          `valid region of ${formatMetres(validArea)} m²; use cells of at most ${formatMetres(largest)} m`,
+        `${field} gives cells of ${formatMetres(size, SIX)}, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
+          `valid region of ${significant(validArea, 6)} m²; use cells of at most ${formatMetres(largest, SIX)}`,
       );
     }
   });
@@ -190,12 +194,8 @@ export function assertCellCountWithinLimit(size: number, validArea: number, fiel
   if (size >= smallest) return;
   const cells = validArea / (size * size);
   throw parameterError(
-    `${field} gives cells of ${formatMetres(size)} m, ${Number.isFinite(cells) ? `about ${formatMetres(cells)}` : 'too many'} cells in the ` +
-      `valid region of ${formatMetres(validArea)} m², more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
-      `${formatMetres(smallest)} m`,
+    `${field} gives cells of ${formatMetres(size, SIX)}, ${Number.isFinite(cells) ? `about ${significant(cells, 6)}` : 'too many'} cells in the ` +
+      `valid region of ${significant(validArea, 6)} m², more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
+      `${formatMetres(smallest, SIX)}`,
   );
-}
-
-function formatMetres(value: number): string {
-  return Number(value.toPrecision(6)).toString();
 }

@@ -1,8 +1,8 @@
 import type { AngleSeries } from './angle-data.js';
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
-import { formatNumber } from './format.js';
+import { formatNumber } from '../format.js';
 import { NEUTRAL, OKABE_ITO, VERDICT_COLOURS, withAlpha } from './palette.js';
-import { verdictWords } from './verdict-data.js';
+import { verdictWords } from '../verdict-words.js';
 import type { Verdict } from '../../workers/types.js';
 
 /**

@@ -1,7 +1,7 @@
 import type { PlacementRow } from '../contracts.js';
 import type { Verdict } from '../../workers/types.js';
-import { formatNumber } from './format.js';
-import { verdictWords } from './verdict-data.js';
+import { formatNumber } from '../format.js';
+import { verdictWords } from '../verdict-words.js';
 
 export interface AnglePoint {
   x: number;

@@ -1,7 +1,7 @@
 import type { CellSizeSeries } from './cell-size-data.js';
 import { measureLabel } from './cell-size-data.js';
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
-import { formatNumber } from './format.js';
+import { formatNumber } from '../format.js';
 import { NEUTRAL, OKABE_ITO, withAlpha } from './palette.js';
 
 /**

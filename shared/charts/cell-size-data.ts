@@ -1,5 +1,5 @@
 import type { SizeSummary } from '../contracts.js';
-import { formatMetres } from './format.js';
+import { formatMetres } from '../format.js';
 
 /** Why the CSR envelope is missing from the chart of `measure`, or null when every size has one. */
 export function envelopeNote(sizes: readonly SizeSummary[], measure: SpreadMeasure): string | null {

@@ -4,7 +4,7 @@ import { angleChartSpec, angleTable } from './angle-chart.js';
 import { cellSizeSeries, type SpreadMeasure } from './cell-size-data.js';
 import { cellSizeChartSpec, cellSizeTable } from './cell-size-chart.js';
 import type { ChartBundle } from './chart-spec.js';
-import { formatMetres } from './format.js';
+import { formatMetres } from '../format.js';
 import { monteCarloHistograms } from './histogram-data.js';
 import { monteCarloChartSpec, monteCarloTable } from './monte-carlo-chart.js';
 import { defaultOffsetBins, offsetHeatmap } from './offset-heatmap-data.js';

@@ -3,7 +3,7 @@
  * report (both show them).
  */
 import type { DatasetSummary, InputWarning } from '../contracts.js';
-import { formatArea } from './format.js';
+import { formatArea } from '../format.js';
 
 export function datasetSummaryEntries(dataset: DatasetSummary): [string, string][] {
   return [

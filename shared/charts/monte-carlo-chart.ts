@@ -1,6 +1,6 @@
 import type { MonteCarloResult } from '../contracts.js';
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
-import { formatNumber, formatP, pPhrase } from './format.js';
+import { formatNumber, formatP, pPhrase } from '../format.js';
 import type { MonteCarloHistograms, ObservedMark } from './histogram-data.js';
 import { stepPoints } from './histogram-data.js';
 import { NEUTRAL, OKABE_ITO, withAlpha } from './palette.js';

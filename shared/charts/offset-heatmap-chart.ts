@@ -1,5 +1,5 @@
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
-import { formatNumber } from './format.js';
+import { formatNumber } from '../format.js';
 import type { OffsetHeatmap } from './offset-heatmap-data.js';
 
 /**

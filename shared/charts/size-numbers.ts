@@ -1,6 +1,6 @@
 import type { SizeSummary } from '../contracts.js';
-import { formatMetres, formatNumber, formatP, formatPercent, pPhrase } from './format.js';
-import { verdictWords } from './verdict-data.js';
+import { formatMetres, formatNumber, formatP, formatPercent, pPhrase } from '../format.js';
+import { verdictWords } from '../verdict-words.js';
 
 /** The numbers behind a cell size's conclusion, as one plain sentence each. */
 export function sizeNumbers(size: SizeSummary): string[] {

@@ -1,6 +1,7 @@
 import { axis, baseOptions, type ChartSpec } from './chart-spec.js';
-import { formatNumber } from './format.js';
+import { formatNumber } from '../format.js';
 import { VERDICT_COLOURS } from './palette.js';
+import { verdictWords } from '../verdict-words.js';
 import type { VerdictSeries } from './verdict-data.js';
 
 /** Stacked bars: per cell size, the percentage of placements whose verdict is clustered, CSR or regular. */
@@ -16,7 +17,7 @@ export function verdictChartSpec(series: VerdictSeries, alpha: number): ChartSpe
   });
   const datasets = [
     bar('clustered', series.clustered, VERDICT_COLOURS.clustered),
-    bar('no departure from CSR', series.csr, VERDICT_COLOURS.csr),
+    bar(verdictWords('csr'), series.csr, VERDICT_COLOURS.csr),
     bar('regular', series.regular, VERDICT_COLOURS.regular),
   ];
   const subtitle = [`Two-sided test at alpha ${formatNumber(alpha)}; agreement = share of placements with the most common verdict`];

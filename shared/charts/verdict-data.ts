@@ -1,6 +1,6 @@
 import type { SizeSummary } from '../contracts.js';
 import type { Verdict } from '../../workers/types.js';
-import { formatMetres, formatPercent } from './format.js';
+import { formatMetres, formatPercent } from '../format.js';
 
 /** Verdict shares per cell size, in percent of placements, and the agreement. */
 export interface VerdictSeries {
@@ -26,11 +26,4 @@ export function verdictSeries(sizes: readonly SizeSummary[]): VerdictSeries {
     agreement: ordered.map((size) => 100 * size.agreement),
     mostCommon: ordered.map((size) => size.mostCommon),
   };
-}
-
-/** Plain words for a verdict. */
-export function verdictWords(verdict: Verdict): string {
-  if (verdict === 'clustered') return 'clustered';
-  if (verdict === 'regular') return 'regular (more even than random)';
-  return 'no departure from CSR';
 }

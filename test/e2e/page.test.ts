@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import type { SweepSummary } from '../../shared/contracts.js';
-import { formatNumber } from '../../shared/charts/format.js';
+import { formatNumber } from '../../shared/format.js';
 import { ARTIFACTS, canvasColourShare, canvasInk, launchBrowser, watchForeignRequests } from './browser.js';
 import { getJson, startPageServer, type PageServer } from './page-server.js';
 import { SAMPLES_DIR } from '../../server/services/project-paths.js';

@@ -2,10 +2,10 @@
  * The map aside: draws the dataset, and the chosen placement's grid with its caption and colour key. Also the
  * `pick` action the charts call: fetch GET /api/sweeps/:id/grid.geojson?size=K&placement=J and show it.
  */
-import { verdictWords } from '../../../shared/charts/verdict-data.js';
+import { verdictWords } from '../../../shared/verdict-words.js';
 import { api } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatMetres, formatNumber } from '../../../shared/charts/format.js';
+import { formatMetres, formatNumber } from '../../../shared/format.js';
 import { NEUTRAL, OKABE_ITO, sequentialGradientCss } from '../../../shared/charts/palette.js';
 import { MapCanvas } from '../map/map-canvas.js';
 import { clear, el } from '../ui/dom.js';

@@ -3,7 +3,7 @@
  * placements of the chosen size, or any placement by number.
  */
 import type { SizeSummary } from '../../../shared/contracts.js';
-import { formatNumber } from '../../../shared/charts/format.js';
+import { formatNumber } from '../../../shared/format.js';
 import { el } from '../ui/dom.js';
 
 export function placementPicker(size: SizeSummary, onPick: (placementIndex: number) => void): HTMLElement {

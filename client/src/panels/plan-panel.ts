@@ -6,7 +6,7 @@
 import { smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
 import { api, ApiError } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatNumber } from '../../../shared/charts/format.js';
+import { formatNumber } from '../../../shared/format.js';
 import { planCost } from '../plan/plan-estimate.js';
 import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues } from '../plan/plan-values.js';
 import { clear, el, field, message } from '../ui/dom.js';

@@ -4,7 +4,7 @@
  */
 import { downloads } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatMetres } from '../../../shared/charts/format.js';
+import { formatMetres } from '../../../shared/format.js';
 import { chartViews } from '../ui/chart-view.js';
 import { clear, el } from '../ui/dom.js';
 import { downloadName } from '../../../shared/messages/download-names.js';

@@ -7,7 +7,7 @@ import type { SweepSummary } from '../../../shared/contracts.js';
 import type { Store } from '../app-state.js';
 import { overviewBundles, sizeBundles } from '../../../shared/charts/chart-bundles.js';
 import { cellSizeSeries, type SpreadMeasure } from '../../../shared/charts/cell-size-data.js';
-import { formatMetres } from '../../../shared/charts/format.js';
+import { formatMetres } from '../../../shared/format.js';
 import { sizeNumbers } from '../../../shared/charts/size-numbers.js';
 import { ChartView, setPngNamer, type ChartClick } from '../ui/chart-view.js';
 import { downloadName } from '../../../shared/messages/download-names.js';

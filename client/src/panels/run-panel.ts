@@ -6,7 +6,7 @@ import type { SweepProgress, SweepStatus } from '../../../shared/contracts.js';
 import { api } from '../api/api-client.js';
 import { followSweep } from '../api/sweep-events.js';
 import type { Store } from '../app-state.js';
-import { formatDuration } from '../../../shared/charts/format.js';
+import { formatDuration } from '../../../shared/format.js';
 import { clear, el, message } from '../ui/dom.js';
 
 const STATUS_WORDS: Record<SweepStatus, string> = {

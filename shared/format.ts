@@ -1,5 +1,14 @@
-/** Number formatting shared by the page, the charts and the report (plain ASCII, no locale surprises). */
-import { formatPValue, pPhrase as sharedPPhrase } from '../p-value.js';
+/**
+ * Number formatting shared by the page, the charts, the report, the conclusions and the CLI (plain ASCII, no locale
+ * surprises): one formatter each for numbers, metres, shares and p-values (the p-value formatter itself lives in
+ * shared/p-value.ts and is re-exported here as formatP and pPhrase).
+ */
+export { formatPValue as formatP, pPhrase } from './p-value.js';
+
+/** A number rounded to `digits` significant digits, printed without trailing zeros: (111.80339, 4) -> "111.8". */
+export function significant(value: number, digits: number): string {
+  return String(Number(value.toPrecision(digits)));
+}
 
 /** A number with `digits` significant digits, trailing zeros removed; '-' for null or non-finite. */
 export function formatNumber(value: number | null | undefined, digits = 3): string {
@@ -12,8 +21,13 @@ export function formatNumber(value: number | null | undefined, digits = 3): stri
   return text.includes('.') ? text.replace(/0+$/, '').replace(/\.$/, '') : text;
 }
 
-/** A length in metres, rounded to whole metres above 10 m: "250 m", "7.5 m". */
-export function formatMetres(metres: number): string {
+/**
+ * A length in metres with its unit. By default rounded for labels: whole metres from 10 m, else 2 significant digits
+ * ("250 m", "7.3 m"). With `significant`, that many significant digits, for sentences that name an exact side
+ * ("111.8 m" at 4). Rounded for labels, '-' when not finite.
+ */
+export function formatMetres(metres: number, options: { significant?: number } = {}): string {
+  if (options.significant !== undefined) return `${significant(metres, options.significant)} m`;
   if (!Number.isFinite(metres)) return '-';
   return metres >= 10 ? `${Math.round(metres)} m` : `${formatNumber(metres, 2)} m`;
 }
@@ -31,11 +45,6 @@ export function formatPercent(share: number): string {
   return `${Math.round(share * 100)} %`;
 }
 
-/** A p-value (shared/p-value.ts, the one formatter of CLI, report and page): "0.0123", "3.65e-202", "< 1e-300". */
-export function formatP(p: number | null | undefined): string {
-  return formatPValue(p);
-}
-
 /** Seconds as "42 s", "3 min 05 s" or "1 h 02 min". */
 export function formatDuration(seconds: number | null | undefined): string {
   if (seconds === null || seconds === undefined || !Number.isFinite(seconds) || seconds < 0) return '-';
@@ -44,9 +53,4 @@ export function formatDuration(seconds: number | null | undefined): string {
   const minutes = Math.floor(whole / 60);
   if (minutes < 60) return `${minutes} min ${String(whole % 60).padStart(2, '0')} s`;
   return `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`;
-}
-
-/** "p = 0.012" or "p < 1e-300". */
-export function pPhrase(p: number | null | undefined): string {
-  return sharedPPhrase(p);
 }
