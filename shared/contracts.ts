@@ -88,15 +88,6 @@ export interface Plan {
   shape?: CellShape | CellShape[];
 }
 
-export const DEFAULT_PLAN: Readonly<Omit<Plan, 'cells' | 'perCell'>> = Object.freeze({
-  placements: 256,
-  rotation: true,
-  design: 'halton',
-  minCoverage: 0.5,
-  alpha: 0.05,
-  sims: 99,
-  seed: 1,
-});
 
 /** One row per (cell size, placement): the placement's parameters and all its statistics except the class table. */
 export interface PlacementRow extends EncodedStatistics {

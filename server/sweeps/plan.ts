@@ -3,7 +3,8 @@
  * DEFAULT_PLAN, and the resolution of "expected points per cell" into cell sides.
  * Every bad value is a GS_ERR_PARAMETER error naming the field and the allowed range.
  */
-import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../../shared/contracts.js';
+import type { Plan, PlacementDesign } from '../../shared/contracts.js';
+import { DEFAULT_PLAN, PLAN_LIMITS } from '../../shared/plan-rules.js';
 import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
@@ -11,23 +12,7 @@ import { formatMetres, significant } from '../../shared/format.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 import { CELL_SHAPES, DEFAULT_CELL_SHAPE, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
 
-/** Allowed ranges of the plan fields (shared with the HTTP schema and the CLI help). */
-export const PLAN_LIMITS = Object.freeze({
-  placements: { min: 1, max: 65536 },
-  sims: { min: 0, max: 9999 },
-  /** alpha in (0, 0.5] */
-  alphaMax: 0.5,
-  /** minCoverage in (0, 1] */
-  minCoverageMax: 1,
-  maxCellSizes: 16,
-  /** a cell size must leave at least this many whole cells' worth of area in the valid region */
-  minCellsInRegion: 2,
-  /**
-   * and at most this many: the work budget counts point-placements only, while coverage costs O(cells) time and
-   * memory per placement (1e8 cells took 50 s and 4 GB for one placement)
-   */
-  maxCellsInRegion: 1 << 22,
-});
+export { PLAN_LIMITS } from '../../shared/plan-rules.js';
 
 const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed', 'shape']);
 const DESIGNS: readonly PlacementDesign[] = ['halton', 'lattice'];

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { DEFAULT_PLAN } from '../../shared/contracts.js';
+import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
 import { estimateSweep } from '../../server/sweeps/sweep-budget.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { planCost } from '../../client/src/plan/plan-estimate.js';

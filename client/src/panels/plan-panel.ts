@@ -4,6 +4,7 @@
  * the budget refusal before anything starts.
  */
 import { smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
+import { PLAN_LIMITS } from '../../../shared/plan-rules.js';
 import { api, ApiError } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
 import { formatNumber } from '../../../shared/format.js';
@@ -36,12 +37,13 @@ function buildForm(container: HTMLElement, store: Store): void {
     return { include, side, label: `${formatNumber(suggestion.perCell)} per cell`, row };
   });
   const extra = el('input', { type: 'text', id: 'plan-extra-sides', placeholder: 'e.g. 150, 400' });
-  const placements = el('input', { type: 'number', id: 'plan-placements', min: 1, max: 65536, step: 1, value: PLAN_FORM_DEFAULTS.placements });
+  const placements = el('input', { type: 'number', id: 'plan-placements', min: PLAN_LIMITS.placements.min, max: PLAN_LIMITS.placements.max, step: 1, value: PLAN_FORM_DEFAULTS.placements });
   const design = el('select', { id: 'plan-design' }, el('option', { value: 'halton' }, 'Halton sequence (spread evenly, any count)'), el('option', { value: 'lattice' }, 'regular lattice'));
   const rotation = el('input', { type: 'checkbox', id: 'plan-rotation', checked: PLAN_FORM_DEFAULTS.rotation });
-  const minCoverage = el('input', { type: 'number', id: 'plan-min-coverage', min: 0.05, max: 1, step: 'any', value: PLAN_FORM_DEFAULTS.minCoverage });
-  const alpha = el('input', { type: 'number', id: 'plan-alpha', min: 0.001, max: 0.5, step: 'any', value: PLAN_FORM_DEFAULTS.alpha });
-  const sims = el('input', { type: 'number', id: 'plan-sims', min: 0, max: 9999, step: 1, value: PLAN_FORM_DEFAULTS.sims });
+  // minCoverage and alpha are in (0, max]: the input's min is the open end 0 (readPlan refuses 0 itself)
+  const minCoverage = el('input', { type: 'number', id: 'plan-min-coverage', min: 0, max: PLAN_LIMITS.minCoverageMax, step: 'any', value: PLAN_FORM_DEFAULTS.minCoverage });
+  const alpha = el('input', { type: 'number', id: 'plan-alpha', min: 0, max: PLAN_LIMITS.alphaMax, step: 'any', value: PLAN_FORM_DEFAULTS.alpha });
+  const sims = el('input', { type: 'number', id: 'plan-sims', min: PLAN_LIMITS.sims.min, max: PLAN_LIMITS.sims.max, step: 1, value: PLAN_FORM_DEFAULTS.sims });
   const seed = el('input', { type: 'number', id: 'plan-seed', step: 1, value: PLAN_FORM_DEFAULTS.seed });
   const estimate = el('div', { id: 'plan-estimate', class: 'estimate', 'aria-live': 'polite' });
   const start = el('button', { type: 'submit', class: 'button button-primary', id: 'start-sweep' }, 'Start the sweep');

@@ -1,12 +1,10 @@
 /**
- * The live cost estimate of a plan, the same formula as the server's (server/sweeps/sweep-budget.ts):
+ * The live cost estimate of a plan, the server's formula and limits (shared/plan-rules.ts):
  * work = points inside x placements x sizes x (1 + sims) point-placements, and evaluations = sizes x placements x
  * (1 + sims) grid evaluations. Cost O(1).
  */
 import type { Plan } from '../../../shared/contracts.js';
-
-/** Most grid evaluations a sweep may hold (the server's MAX_EVALUATIONS). */
-export const MAX_EVALUATIONS = 2e7;
+import { MAX_EVALUATIONS, planWork } from '../../../shared/plan-rules.js';
 
 export interface PlanCost {
   work: number;
@@ -19,9 +17,7 @@ export interface PlanCost {
 
 export function planCost(plan: Plan, nInside: number, budget: number | null): PlanCost {
   const sizes = (plan.cells ?? plan.perCell ?? []).length;
-  const patterns = 1 + plan.sims;
-  const work = nInside * plan.placements * sizes * patterns;
-  const evaluations = sizes * plan.placements * patterns;
+  const { work, evaluations } = planWork(nInside, plan.placements, sizes, plan.sims);
   let refusal: string | null = null;
   if (budget !== null && work > budget) {
     const factor = work / budget;
