@@ -73,13 +73,18 @@ export type StatisticName = keyof EncodedStatistics;
 /** The field names in order (the codec's slot of a field is its index here). */
 export const STATISTIC_NAMES = Object.keys(STATISTIC_FIELDS) as StatisticName[];
 
+/** Fields that come from the Poisson fit (null when there is none): the row field and the fit's property. */
+export const POISSON_FIT_PARTS = { poissonChi2: 'chi2', poissonDf: 'df', poissonP: 'p' } as const satisfies Partial<
+  Record<StatisticName, keyof NonNullable<PlacementStatistics['poissonFit']>>
+>;
+
 /** The statistics flattened for the codec and the rows: the Poisson fit as three nullable fields. Cost O(1). */
 export function flattenStatistics(stats: PlacementStatistics): EncodedStatistics {
   const { poissonFit, ...rest } = stats;
   return {
     ...rest,
-    poissonChi2: poissonFit ? poissonFit.chi2 : null,
-    poissonDf: poissonFit ? poissonFit.df : null,
-    poissonP: poissonFit ? poissonFit.p : null,
+    poissonChi2: poissonFit ? poissonFit[POISSON_FIT_PARTS.poissonChi2] : null,
+    poissonDf: poissonFit ? poissonFit[POISSON_FIT_PARTS.poissonDf] : null,
+    poissonP: poissonFit ? poissonFit[POISSON_FIT_PARTS.poissonP] : null,
   };
 }
