@@ -3,6 +3,7 @@
  * name and the cell side(s), so that ten downloads in one folder stay apart, e.g.
  * `gridshake-harbour-burglaries-250m-placements.csv`. ASCII only (safe in Content-Disposition and on any disk).
  */
+import { significant } from '../format.js';
 
 /** The dataset name as a file-name part: lower case ASCII letters, digits and hyphens, at most 40 characters. */
 export function fileSlug(name: string): string {
@@ -19,7 +20,7 @@ export function fileSlug(name: string): string {
 
 /** A cell side for a file name: 250 -> "250m", 111.8034 -> "111.8m", 0.25 -> "0.25m". */
 export function sideTag(side: number): string {
-  return `${Number(side.toPrecision(4))}m`;
+  return `${significant(side, 4)}m`;
 }
 
 /** All cell sides of a run: "250m", "100-200-400m", or "100-to-800m-6-sides" when there are more than four. */
@@ -27,8 +28,8 @@ export function sidesTag(sides: readonly number[]): string {
   const sorted = [...sides].sort((a, b) => a - b);
   if (sorted.length === 0) return 'no-sides';
   if (sorted.length === 1) return sideTag(sorted[0]);
-  if (sorted.length <= 4) return `${sorted.map((side) => Number(side.toPrecision(4))).join('-')}m`;
-  return `${Number(sorted[0].toPrecision(4))}-to-${sideTag(sorted[sorted.length - 1])}-${sorted.length}-sides`;
+  if (sorted.length <= 4) return `${sorted.map((side) => significant(side, 4)).join('-')}m`;
+  return `${significant(sorted[0], 4)}-to-${sideTag(sorted[sorted.length - 1])}-${sorted.length}-sides`;
 }
 
 /** `gridshake-<dataset>-<sides>-<what>.<extension>`. */
