@@ -8,7 +8,7 @@ import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
-import { CELL_SHAPES, DEFAULT_CELL_SHAPE, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
+import { CELL_SHAPES, isCellShape, shapeList, type CellShape } from '../../workers/lattice/cell-shape.js';
 
 /** Allowed ranges of the plan fields (shared with the HTTP schema and the CLI help). */
 export const PLAN_LIMITS = Object.freeze({
@@ -78,8 +78,7 @@ function shapeField(value: unknown): CellShape | CellShape[] {
 
 /** The shapes a plan runs, in its order (a plan without `shape` runs squares only). */
 export function planShapes(plan: Pick<Plan, 'shape'>): CellShape[] {
-  if (plan.shape === undefined) return [DEFAULT_CELL_SHAPE];
-  return typeof plan.shape === 'string' ? [plan.shape] : [...plan.shape];
+  return shapeList(plan.shape);
 }
 
 /**

@@ -1,10 +1,19 @@
 /**
  * Reading the plan form: the raw field texts become a Plan (shared/design.md: `{ cells, placements, rotation,
- * design, minCoverage, alpha, sims, seed }`) or a list of messages naming the field at fault. The server checks
+ * design, minCoverage, alpha, sims, seed }`, and `shape` of issue 16: "square", "hex" or both side by side) or a list of messages naming the field at fault. The server checks
  * the plan again; this only lets the page refuse early and say why.
  */
 import type { Plan, PlacementDesign } from '../../../server/contracts.js';
 import { simsCanReject, smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
+import type { CellShape } from '../../../workers/lattice/cell-shape.js';
+
+/** The form's shape choice: squares, hexagons, or both on the same placements side by side. */
+export type ShapeChoice = 'square' | 'hex' | 'both';
+
+/** The plan's `shape` for a choice: one shape name, or the list of both (squares first). */
+export function planShapeOf(choice: ShapeChoice): CellShape | CellShape[] {
+  return choice === 'both' ? ['square', 'hex'] : choice;
+}
 
 export interface PlanFormValues {
   /** suggested or typed cell sides: text of the number field and whether it is included */
@@ -13,6 +22,7 @@ export interface PlanFormValues {
   extraSides: string;
   placements: string;
   design: PlacementDesign;
+  shape: ShapeChoice;
   rotation: boolean;
   minCoverage: string;
   alpha: string;
@@ -63,13 +73,14 @@ export function readPlan(values: PlanFormValues): PlanReading {
     errors.push(`CSR simulations: ${sims} is too few for a test at alpha ${alpha} (no p-value below 1/(R+1)); use at least ${smallestWorkingSims(alpha)}, or 0 for per-placement evidence without a test`);
   }
   if (errors.length > 0) return { plan: null, errors: [...new Set(errors)] };
-  return { plan: { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed }, errors };
+  return { plan: { cells, placements, rotation: values.rotation, design: values.design, shape: planShapeOf(values.shape), minCoverage, alpha, sims, seed }, errors };
 }
 
 /** The form's starting values: the server's DEFAULT_PLAN (server/contracts.ts), as field texts. */
 export const PLAN_FORM_DEFAULTS = {
   placements: '256',
   design: 'halton' as PlacementDesign,
+  shape: 'square' as ShapeChoice,
   rotation: true,
   minCoverage: '0.5',
   alpha: '0.05',
