@@ -5,6 +5,7 @@ import { cellSizeSeries, type SpreadMeasure } from './cell-size-data.js';
 import { cellSizeChartSpec, cellSizeTable } from './cell-size-chart.js';
 import type { ChartBundle } from './chart-spec.js';
 import { sideLabel } from './size-label.js';
+import { latticeOf } from '../../../workers/lattice/registry.js';
 import { monteCarloHistograms } from './histogram-data.js';
 import { monteCarloChartSpec, monteCarloTable } from './monte-carlo-chart.js';
 import { defaultOffsetBins, offsetHeatmap } from './offset-heatmap-data.js';
@@ -43,7 +44,7 @@ export function sizeBundles(summary: SweepSummary, rows: readonly PlacementRow[]
     {
       id: `angle-${sizeIndex}`,
       title: `VMR against angle, ${sizeLabel}`,
-      spec: angleChartSpec(angles, sizeLabel),
+      spec: angleChartSpec(angles, sizeLabel, latticeOf(size.shape ?? 'square').anglePeriod),
       table: { caption: `VMR of each placement against its angle, cell side ${sizeLabel}`, ...angleTable(angles) },
     },
     {

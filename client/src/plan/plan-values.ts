@@ -10,9 +10,12 @@ import type { CellShape } from '../../../workers/lattice/cell-shape.js';
 /** The form's shape choice: squares, hexagons, or both on the same placements side by side. */
 export type ShapeChoice = 'square' | 'hex' | 'both';
 
-/** The plan's `shape` for a choice: one shape name, or the list of both (squares first). */
-export function planShapeOf(choice: ShapeChoice): CellShape | CellShape[] {
-  return choice === 'both' ? ['square', 'hex'] : choice;
+/**
+ * The plan's `shape` for a choice: "hex", the list of both (squares first), or none for squares (the plan's default,
+ * so a square-only plan stays what it was before shapes existed).
+ */
+export function planShapeOf(choice: ShapeChoice): CellShape | CellShape[] | undefined {
+  return choice === 'both' ? ['square', 'hex'] : choice === 'hex' ? 'hex' : undefined;
 }
 
 export interface PlanFormValues {
@@ -73,7 +76,9 @@ export function readPlan(values: PlanFormValues): PlanReading {
     errors.push(`CSR simulations: ${sims} is too few for a test at alpha ${alpha} (no p-value below 1/(R+1)); use at least ${smallestWorkingSims(alpha)}, or 0 for per-placement evidence without a test`);
   }
   if (errors.length > 0) return { plan: null, errors: [...new Set(errors)] };
-  return { plan: { cells, placements, rotation: values.rotation, design: values.design, shape: planShapeOf(values.shape), minCoverage, alpha, sims, seed }, errors };
+  const shape = planShapeOf(values.shape);
+  const plan: Plan = { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed };
+  return { plan: shape === undefined ? plan : { ...plan, shape }, errors };
 }
 
 /** The form's starting values: the server's DEFAULT_PLAN (server/contracts.ts), as field texts. */
