@@ -9,6 +9,7 @@ import { overviewBundles, sizeBundles } from '../../shared/charts/chart-bundles.
 import type { ChartBundle, ChartSpec } from '../../shared/charts/chart-spec.js';
 import { formatMetres } from '../../shared/format.js';
 import { sizeNumbers } from '../../shared/charts/size-numbers.js';
+import { orderSizes } from '../../shared/charts/size-label.js';
 import { chartLibrarySource } from './chart-library.js';
 import { escapeHtml } from './html-escape.js';
 import { htmlTable } from './html-table.js';
@@ -45,8 +46,7 @@ function sizeSection(summary: SweepSummary, rows: readonly PlacementRow[], sizeI
 /** Renders the whole report as one HTML string; with `map` (report-map.ts) it holds the map figure. */
 export function renderReport(summary: SweepSummary, rows: PlacementRow[], map?: ReportMap): string {
   const overview = overviewBundles(summary);
-  const perSize = [...summary.sizes]
-    .sort((a, b) => a.cellSize - b.cellSize)
+  const perSize = orderSizes(summary.sizes)
     .map((size) => ({ sizeIndex: size.sizeIndex, bundles: sizeBundles(summary, rows, size.sizeIndex) }));
   const specs: Record<string, ChartSpec> = {};
   for (const bundle of [...overview, ...perSize.flatMap((entry) => entry.bundles)]) specs[bundle.id] = bundle.spec;

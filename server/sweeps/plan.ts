@@ -10,7 +10,7 @@ import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
 import { formatMetres, significant } from '../../shared/format.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
-import { CELL_SHAPES, DEFAULT_CELL_SHAPE, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
+import { CELL_SHAPES, isCellShape, shapeList, type CellShape } from '../../workers/lattice/cell-shape.js';
 
 export { PLAN_LIMITS } from '../../shared/plan-rules.js';
 
@@ -64,8 +64,7 @@ function shapeField(value: unknown): CellShape | CellShape[] {
 
 /** The shapes a plan runs, in its order (a plan without `shape` runs squares only). */
 export function planShapes(plan: Pick<Plan, 'shape'>): CellShape[] {
-  if (plan.shape === undefined) return [DEFAULT_CELL_SHAPE];
-  return typeof plan.shape === 'string' ? [plan.shape] : [...plan.shape];
+  return shapeList(plan.shape);
 }
 
 /**

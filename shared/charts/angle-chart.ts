@@ -20,8 +20,9 @@ const VERDICT_ORDER: readonly Verdict[] = ['clustered', 'regular', 'csr'];
 /**
  * Scatter of VMR against grid angle for one cell size: one series per verdict (colour and shape), the reference
  * placement marked, the line at 1. Each dot's tooltip names its placement (number, offset, angle, VMR, verdict).
+ * The angle axis spans the lattice's period (90 degrees for squares, 60 for hexagons).
  */
-export function angleChartSpec(series: AngleSeries, cellSizeLabel: string): ChartSpec {
+export function angleChartSpec(series: AngleSeries, cellSizeLabel: string, anglePeriod = 90): ChartSpec {
   const datasets: Record<string, unknown>[] = VERDICT_ORDER.map((verdict) => {
     const marker = VERDICT_MARKERS[verdict];
     const points = series.points.filter((point) => point.verdict === verdict);
@@ -44,7 +45,7 @@ export function angleChartSpec(series: AngleSeries, cellSizeLabel: string): Char
       type: 'line',
       label: '1 = CSR expectation',
       pointStyle: 'line',
-      data: [{ x: 0, y: 1 }, { x: 90, y: 1 }],
+      data: [{ x: 0, y: 1 }, { x: anglePeriod, y: 1 }],
       borderColor: NEUTRAL.ink,
       borderDash: [6, 4],
       borderWidth: 1,
@@ -70,7 +71,7 @@ export function angleChartSpec(series: AngleSeries, cellSizeLabel: string): Char
     ? [`Cell side ${cellSizeLabel}; rotation was off, so every placement has the same angle`]
     : [`Cell side ${cellSizeLabel}; each dot is one grid placement`];
   const options = baseOptions('VMR against grid angle', subtitle, {
-    x: axis('grid angle (degrees, counter-clockwise)', { type: 'linear', min: 0, max: 90 }),
+    x: axis('grid angle (degrees, counter-clockwise)', { type: 'linear', min: 0, max: anglePeriod }),
     y: axis('variance-to-mean ratio, VMR (ratio)', { grace: '5%' }),
   });
   return { type: 'scatter', data: { datasets }, options };

@@ -1,5 +1,6 @@
 import type { SizeSummary } from '../contracts.js';
-import { formatMetres } from '../format.js';
+import type { CellShape } from '../../workers/lattice/cell-shape.js';
+import { orderSizes, sideLabel } from './size-label.js';
 
 /** Why the CSR envelope is missing from the chart of `measure`, or null when every size has one. */
 export function envelopeNote(sizes: readonly SizeSummary[], measure: SpreadMeasure): string | null {
@@ -19,6 +20,8 @@ export interface CellSizeSeries {
   measure: SpreadMeasure;
   labels: string[];
   cellSizes: number[];
+  /** each entry's cell shape (a sweep of two shapes has two entries per cell side) */
+  shapes: CellShape[];
   sizeIndex: number[];
   p5: number[];
   p25: number[];
@@ -41,14 +44,15 @@ export interface CellSizeSeries {
  * on chi2/df only, so it is shown only for that measure.
  */
 export function cellSizeSeries(sizes: readonly SizeSummary[], measure: SpreadMeasure): CellSizeSeries {
-  const ordered = [...sizes].sort((a, b) => a.cellSize - b.cellSize);
+  const ordered = orderSizes(sizes);
   const quantile = (size: SizeSummary) => (measure === 'vmr' ? size.vmr : size.chi2PerDf);
   const envelope = (size: SizeSummary) =>
     measure === 'chi2PerDf' && size.monteCarlo ? size.monteCarlo.envelope : null;
   return {
     measure,
-    labels: ordered.map((size) => formatMetres(size.cellSize)),
+    labels: ordered.map(sideLabel),
     cellSizes: ordered.map((size) => size.cellSize),
+    shapes: ordered.map((size) => size.shape ?? 'square'),
     sizeIndex: ordered.map((size) => size.sizeIndex),
     p5: ordered.map((size) => quantile(size).p5),
     p25: ordered.map((size) => quantile(size).p25),

@@ -4,7 +4,8 @@ import { angleChartSpec, angleTable } from './angle-chart.js';
 import { cellSizeSeries, type SpreadMeasure } from './cell-size-data.js';
 import { cellSizeChartSpec, cellSizeTable } from './cell-size-chart.js';
 import type { ChartBundle } from './chart-spec.js';
-import { formatMetres } from '../format.js';
+import { sideLabel } from './size-label.js';
+import { latticeOf } from '../../workers/lattice/registry.js';
 import { monteCarloHistograms } from './histogram-data.js';
 import { monteCarloChartSpec, monteCarloTable } from './monte-carlo-chart.js';
 import { defaultOffsetBins, offsetHeatmap } from './offset-heatmap-data.js';
@@ -36,14 +37,14 @@ export function overviewBundles(summary: SweepSummary, measure: SpreadMeasure = 
 export function sizeBundles(summary: SweepSummary, rows: readonly PlacementRow[], sizeIndex: number): ChartBundle[] {
   const size = summary.sizes.find((candidate) => candidate.sizeIndex === sizeIndex);
   if (!size) return [];
-  const sizeLabel = formatMetres(size.cellSize);
+  const sizeLabel = sideLabel(size);
   const angles = angleSeries(rows, sizeIndex, size.reference.placementIndex);
   const heatmap = offsetHeatmap(rows, sizeIndex, defaultOffsetBins(size.placements));
   const bundles: ChartBundle[] = [
     {
       id: `angle-${sizeIndex}`,
       title: `VMR against angle, ${sizeLabel}`,
-      spec: angleChartSpec(angles, sizeLabel),
+      spec: angleChartSpec(angles, sizeLabel, latticeOf(size.shape ?? 'square').anglePeriod),
       table: { caption: `VMR of each placement against its angle, cell side ${sizeLabel}`, ...angleTable(angles) },
     },
     {

@@ -1,6 +1,7 @@
 import type { SizeSummary } from '../contracts.js';
 import type { Verdict } from '../../workers/types.js';
-import { formatMetres, formatPercent } from '../format.js';
+import { formatPercent } from '../format.js';
+import { orderSizes, sideLabel } from './size-label.js';
 
 /** Verdict shares per cell size, in percent of placements, and the agreement. */
 export interface VerdictSeries {
@@ -16,9 +17,9 @@ export interface VerdictSeries {
 
 /** Shapes per-size verdict shares (0..1) into percentages ordered by cell size, labels carrying the agreement. */
 export function verdictSeries(sizes: readonly SizeSummary[]): VerdictSeries {
-  const ordered = [...sizes].sort((a, b) => a.cellSize - b.cellSize);
+  const ordered = orderSizes(sizes);
   return {
-    labels: ordered.map((size) => `${formatMetres(size.cellSize)} (agreement ${formatPercent(size.agreement)})`),
+    labels: ordered.map((size) => `${sideLabel(size)} (agreement ${formatPercent(size.agreement)})`),
     sizeIndex: ordered.map((size) => size.sizeIndex),
     clustered: ordered.map((size) => 100 * size.verdictShares.clustered),
     csr: ordered.map((size) => 100 * size.verdictShares.csr),

@@ -26,6 +26,18 @@ describe('readPlan(values)', () => {
     expect(normalizePlan(reading.plan)).toEqual(reading.plan);
   });
 
+  it('maps the shape choice to the plan\'s shape: none for squares (the default), "hex", or both in a list', () => {
+    expect(readPlan(form({ shape: 'square' })).plan).not.toHaveProperty('shape');
+    const hex = readPlan(form({ shape: 'hex' })).plan!;
+    expect(hex.shape).toBe('hex');
+    const both = readPlan(form({ shape: 'both' })).plan!;
+    expect(both.shape).toEqual(['square', 'hex']);
+    // the server's own validation accepts what the page sends, and counts both shapes in its estimate
+    expect(normalizePlan(both)).toEqual(both);
+    expect(planCost(both, 564, 2e10).work).toBe(estimateSweep(both, 564, 2e10).work);
+    expect(planCost(both, 564, 2e10).work).toBe(2 * planCost(readPlan(form({})).plan!, 564, 2e10).work);
+  });
+
   it('starts from the server defaults', () => {
     const plan = readPlan(form({})).plan!;
     const { cells: _cells, ...rest } = plan;

@@ -1,11 +1,23 @@
 /**
  * Reading the plan form: the raw field texts become a Plan (shared/design.md: `{ cells, placements, rotation,
- * design, minCoverage, alpha, sims, seed }`) or a list of messages naming the field at fault. The server checks
+ * design, minCoverage, alpha, sims, seed }`, and `shape` of issue 16: "square", "hex" or both side by side) or a list of messages naming the field at fault. The server checks
  * the plan again; this only lets the page refuse early and say why.
  */
 import type { Plan, PlacementDesign } from '../../../shared/contracts.js';
 import { simsCanReject, smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
 import { DEFAULT_PLAN, PLAN_LIMITS } from '../../../shared/plan-rules.js';
+import type { CellShape } from '../../../workers/lattice/cell-shape.js';
+
+/** The form's shape choice: squares, hexagons, or both on the same placements side by side. */
+export type ShapeChoice = 'square' | 'hex' | 'both';
+
+/**
+ * The plan's `shape` for a choice: "hex", the list of both (squares first), or none for squares (the plan's default,
+ * so a square-only plan stays what it was before shapes existed).
+ */
+export function planShapeOf(choice: ShapeChoice): CellShape | CellShape[] | undefined {
+  return choice === 'both' ? ['square', 'hex'] : choice === 'hex' ? 'hex' : undefined;
+}
 
 export interface PlanFormValues {
   /** suggested or typed cell sides: text of the number field and whether it is included */
@@ -14,6 +26,7 @@ export interface PlanFormValues {
   extraSides: string;
   placements: string;
   design: PlacementDesign;
+  shape: ShapeChoice;
   rotation: boolean;
   minCoverage: string;
   alpha: string;
@@ -65,13 +78,16 @@ export function readPlan(values: PlanFormValues): PlanReading {
     errors.push(`CSR simulations: ${sims} is too few for a test at alpha ${alpha} (no p-value below 1/(R+1)); use at least ${smallestWorkingSims(alpha)}, or 0 for per-placement evidence without a test`);
   }
   if (errors.length > 0) return { plan: null, errors: [...new Set(errors)] };
-  return { plan: { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed }, errors };
+  const shape = planShapeOf(values.shape);
+  const plan: Plan = { cells, placements, rotation: values.rotation, design: values.design, minCoverage, alpha, sims, seed };
+  return { plan: shape === undefined ? plan : { ...plan, shape }, errors };
 }
 
 /** The form's starting values: DEFAULT_PLAN (shared/plan-rules.ts), as field texts. */
 export const PLAN_FORM_DEFAULTS = {
   placements: String(DEFAULT_PLAN.placements),
   design: DEFAULT_PLAN.design as PlacementDesign,
+  shape: 'square' as ShapeChoice,
   rotation: DEFAULT_PLAN.rotation,
   minCoverage: String(DEFAULT_PLAN.minCoverage),
   alpha: String(DEFAULT_PLAN.alpha),
