@@ -59,10 +59,10 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
   };
   const showPointer = (coordinate: number[]) => {
     const toLonLat = map.projection()?.toLonLat;
-    const planar = `x ${formatNumber(coordinate[0], 7)} m, y ${formatNumber(coordinate[1], 7)} m`;
+    const planar = `x ${coordinate[0].toFixed(2)} m, y ${coordinate[1].toFixed(2)} m`;
     if (toLonLat) {
       const [lon, lat] = toLonLat(coordinate[0], coordinate[1]);
-      pointer.textContent = `${planar} (longitude ${lon.toFixed(5)}, latitude ${lat.toFixed(5)})`;
+      pointer.textContent = `${planar} (longitude ${lon.toFixed(6)}, latitude ${lat.toFixed(6)})`;
     } else pointer.textContent = planar;
   };
   map.map.on('pointermove', (event) => {
