@@ -31,9 +31,10 @@ export async function launchBrowser(): Promise<Browser> {
 /**
  * Pixel shares of what `selector` shows: a canvas itself, or, for a container such as the map (a stack of layer
  * canvases), its canvases composited by their on-screen boxes in document order. `ink`: neither transparent nor
- * white; `colour`: a strong colour (max - min channel > 60), e.g. grid shading rather than grey or black ink.
+ * white; `colour`: a strong colour (max - min channel > 60), e.g. grid shading rather than grey or black ink;
+ * `dark`: every channel below 80 (black ink such as points).
  */
-export async function canvasShares(page: Page, selector: string): Promise<{ ink: number; colour: number }> {
+export async function canvasShares(page: Page, selector: string): Promise<{ ink: number; colour: number; dark: number }> {
   return page.$eval(selector, (element) => {
     let pixels: Uint8ClampedArray | null = null;
     if (element instanceof HTMLCanvasElement) {
@@ -53,18 +54,20 @@ export async function canvasShares(page: Page, selector: string): Promise<{ ink:
       }
       pixels = context.getImageData(0, 0, out.width, out.height).data;
     }
-    if (!pixels) return { ink: 0, colour: 0 };
+    if (!pixels) return { ink: 0, colour: 0, dark: 0 };
     let inked = 0;
     let coloured = 0;
+    let dark = 0;
     for (let offset = 0; offset < pixels.length; offset += 4) {
       if (pixels[offset + 3] === 0) continue;
+      if (pixels[offset] < 80 && pixels[offset + 1] < 80 && pixels[offset + 2] < 80) dark += 1;
       const high = Math.max(pixels[offset], pixels[offset + 1], pixels[offset + 2]);
       const low = Math.min(pixels[offset], pixels[offset + 1], pixels[offset + 2]);
       if (!(pixels[offset] > 245 && pixels[offset + 1] > 245 && pixels[offset + 2] > 245)) inked += 1;
       if (high - low > 60) coloured += 1;
     }
     const total = pixels.length / 4;
-    return { ink: inked / total, colour: coloured / total };
+    return { ink: inked / total, colour: coloured / total, dark: dark / total };
   });
 }
 

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import proj4 from 'proj4';
 import type { Browser, Page } from 'playwright-core';
 import { formatNumber } from '../../client/src/charts/format.js';
+import { downloadName } from '../../server/messages/download-names.js';
 import { ARTIFACTS, canvasShares, launchBrowser, watchForeignRequests } from './browser.js';
 import { getJson, startPageServer, type PageServer } from './page-server.js';
 
@@ -193,9 +194,10 @@ describe('the map in Chromium', () => {
     await page.uncheck('#layer-toggle-grid');
     await expect.poll(async () => (await canvasShares(page, '#map')).colour).toBeLessThan(0.01);
     expect(await page.innerText('#map-legend')).not.toContain('cell left out');
-    const withPoints = (await canvasShares(page, '#map')).ink;
+    const withPoints = (await canvasShares(page, '#map')).dark;
+    expect(withPoints).toBeGreaterThan(0.001);
     await page.uncheck('#layer-toggle-points');
-    await expect.poll(async () => (await canvasShares(page, '#map')).ink).toBeLessThan(withPoints);
+    await expect.poll(async () => (await canvasShares(page, '#map')).dark).toBeLessThan(withPoints / 4);
     await page.check('#layer-toggle-points');
     await page.check('#layer-toggle-grid');
     await expect.poll(async () => (await canvasShares(page, '#map')).colour).toBeGreaterThan(0.1);
@@ -221,7 +223,9 @@ describe('the map in Chromium', () => {
   it('exports the view as a PNG with the legend and scale bar below and beside it', async () => {
     const size = squares.summary!.sizes[0];
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('#map-export')]);
-    expect(download.suggestedFilename()).toBe(`gridshake-${demo.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '')}-${Number(size.cellSize.toPrecision(4))}m-map-placement-${size.reference.placementIndex}.png`);
+    // the project's download names: dataset, cell side, what (server/messages/download-names.ts)
+    expect(download.suggestedFilename()).toMatch(/^gridshake-[a-z0-9-]+-[\d.]+m-map-placement-\d+\.png$/);
+    expect(download.suggestedFilename()).toBe(downloadName(demo.name, [size.cellSize], `map-placement-${size.reference.placementIndex}`, 'png'));
     const bytes = readFileSync((await download.path())!);
     // PNG signature (ISO/IEC 15948:2004, 5.2)
     expect([...bytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);

@@ -48,7 +48,10 @@ export function packCells(grid: GridCollection): PackedCells {
     let minY = Infinity;
     let maxX = -Infinity;
     let maxY = -Infinity;
-    for (const [x, y] of feature.geometry.coordinates[0] ?? []) {
+    const ring = feature.geometry.coordinates[0] ?? [];
+    for (let v = 0; v < ring.length; v += 1) {
+      const x = ring[v][0];
+      const y = ring[v][1];
       vertices[2 * at] = x;
       vertices[2 * at + 1] = y;
       at += 1;
@@ -57,7 +60,10 @@ export function packCells(grid: GridCollection): PackedCells {
       if (x > maxX) maxX = x;
       if (y > maxY) maxY = y;
     }
-    boxes.set([minX, minY, maxX, maxY], 4 * k);
+    boxes[4 * k] = minX;
+    boxes[4 * k + 1] = minY;
+    boxes[4 * k + 2] = maxX;
+    boxes[4 * k + 3] = maxY;
     extent[0] = Math.min(extent[0], minX);
     extent[1] = Math.min(extent[1], minY);
     extent[2] = Math.max(extent[2], maxX);

@@ -17,6 +17,7 @@ import { defaults as defaultControls } from 'ol/control/defaults.js';
 import ScaleLine from 'ol/control/ScaleLine.js';
 import Control from 'ol/control/Control.js';
 import { defaults as defaultInteractions } from 'ol/interaction/defaults.js';
+import DragPan from 'ol/interaction/DragPan.js';
 import type { Extent } from 'ol/extent.js';
 import type { DatasetGeometry, GridCollection, GridFeature, StoredDataset } from '../api/api-client.js';
 import { NEUTRAL, OKABE_ITO } from '../charts/palette.js';
@@ -79,7 +80,8 @@ export class GridshakeMap {
         new ScaleLine({ units: 'metric', bar: true, steps: 4, text: false, minWidth: 90 }),
         new Control({ element: fitElement }),
       ]),
-      interactions: defaultInteractions({ altShiftDragRotate: false, pinchRotate: false }),
+      // no kinetic glide after a drag: the view stops where the pointer let go
+      interactions: defaultInteractions({ altShiftDragRotate: false, pinchRotate: false, dragPan: false }).extend([new DragPan()]),
       keyboardEventTarget: target,
     });
     const zoneFill = hatchPattern(document.createElement('canvas').getContext('2d')!, NEUTRAL.grey, 7, 'rgba(255,255,255,0.85)');
@@ -129,6 +131,7 @@ export class GridshakeMap {
     const entry = this.layers().find((candidate) => candidate.id === id);
     if (!entry) return;
     entry.layer.setVisible(visible);
+    if (id === 'grid') this.points.setOverGrid(this.packed !== null && visible);
     this.notify();
   }
 
@@ -208,7 +211,7 @@ export class GridshakeMap {
   setGrid(grid: GridCollection | null): void {
     this.packed = grid ? packCells(grid) : null;
     this.cells.setCells(this.packed);
-    this.points.setOverGrid(grid !== null);
+    this.points.setOverGrid(grid !== null && this.cells.layer.getVisible());
     this.notify();
   }
 
