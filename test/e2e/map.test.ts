@@ -160,7 +160,8 @@ describe('the map in Chromium', () => {
     await settle(page);
     const dragged = await viewMapping(page);
     // content moved right 60 px and down 30 px: the coordinate under a fixed pixel moved the other way
-    expect(dragged.resolution).toBeCloseTo(before.resolution, 6);
+    // readings carry 0.01 m: resolutions agree to about 1e-4 relative
+    expect(dragged.resolution / before.resolution).toBeCloseTo(1, 3);
     expect((before.x0 - dragged.x0) / before.resolution).toBeCloseTo(60, 0);
     expect((dragged.y0 - before.y0) / before.resolution).toBeCloseTo(30, 0);
     await page.focus('#map');
@@ -230,7 +231,7 @@ describe('the map in Chromium', () => {
     // PNG signature (ISO/IEC 15948:2004, 5.2)
     expect([...bytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
     expect(bytes.length).toBeGreaterThan(20_000);
-    const mapBox = (await page.locator('#map').boundingBox())!;
+    const inner = await page.$eval('#map', (element) => ({ width: element.clientWidth, height: element.clientHeight }));
     const image = await page.evaluate(async (base64) => {
       const element = new Image();
       element.src = `data:image/png;base64,${base64}`;
@@ -246,9 +247,9 @@ describe('the map in Chromium', () => {
       return { width: element.width, height: element.height, coloured: coloured / (data.length / 4), corner: Array.from(context.getImageData(1, canvas.height - 2, 1, 1).data) };
     }, bytes.toString('base64'));
     const ratio = await page.evaluate(() => window.devicePixelRatio);
-    expect(image.width).toBe(Math.round(mapBox.width * ratio));
+    expect(image.width).toBe(Math.round(inner.width * ratio));
     // the band below the map holds the title, the legend and the privacy note
-    expect(image.height).toBeGreaterThan(Math.round(mapBox.height * ratio) + 40);
+    expect(image.height).toBeGreaterThan(Math.round(inner.height * ratio) + 40);
     expect(image.coloured).toBeGreaterThan(0.05);
     expect(image.corner).toEqual([255, 255, 255, 255]);
     await download.saveAs(join(ARTIFACTS, 'map-export.png'));
