@@ -220,6 +220,14 @@ describe('the map in Chromium', () => {
     // Pearson residual (O - E) / sqrt(E) (Agresti 2002, Categorical Data Analysis, 3.3.1)
     expect(await read('residual (O - E) / sqrt(E)')).toBe(formatNumber((count - expected) / Math.sqrt(expected)));
     expect(await read('verdict of the placement')).toMatch(/clustered|regular|no departure/);
+    // by keyboard: Enter on the focused map reads the view's centre
+    const mapping = await viewMapping(page);
+    const size2 = await page.$eval('#map', (element) => ({ width: element.clientWidth, height: element.clientHeight }));
+    await page.focus('#map');
+    await page.keyboard.press('Enter');
+    const centre = /x (-?[\d.]+) m, y (-?[\d.]+) m/.exec(await page.innerText('#map-pointer'))!;
+    expect(Math.abs(Number(centre[1]) - (mapping.x0 + (size2.width / 2) * mapping.resolution)) / mapping.resolution).toBeLessThan(2);
+    expect(Math.abs(Number(centre[2]) - (mapping.y0 - (size2.height / 2) * mapping.resolution)) / mapping.resolution).toBeLessThan(2);
     await page.locator('.map-panel').screenshot({ path: join(ARTIFACTS, 'map-hover-cell.png') });
   });
 
