@@ -73,7 +73,8 @@ export const api = {
   health: () => request<HealthInfo>('/api/health'),
   datasets: () => request<StoredDataset[]>('/api/datasets'),
   dataset: (id: string) => request<StoredDataset>(`/api/datasets/${id}`),
-  geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry`),
+  /** the points drawn on the map: up to the server's limit of 1e5 (the map layer decimates on screen) */
+  geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry?maxPoints=100000`),
   upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
   startSweep: (datasetId: string, plan: Plan) =>
     request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
