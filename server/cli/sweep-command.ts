@@ -117,7 +117,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       [csvName, placementsToCsv(rows, { summary })],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
-      ...stabilityFiles(stability, dataset.projection, dataset.name),
+      ...stabilityFiles(stability, summary.stability ?? [], dataset.projection, dataset.name),
     ]);
     // warnings first: a warning that makes a p-value meaningless is read before the p-value; the dataset's
     // warnings (first in the list) in the command line's words

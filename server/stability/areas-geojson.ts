@@ -4,15 +4,13 @@
  * when the working system is known (longitude/latitude input, or an EPSG code), edges densified to within 1 cm of
  * the planar pixel sides (server/grid-export/lonlat-ring.ts), outer rings counter-clockwise and holes clockwise (RFC
  * 7946 section 3.1.6); for input given as `crs planar`, the working metres with a note in the "gridshake" member.
+ * Built from the summary's planar rings (stability-summary.ts), so the CLI and the server write the same file.
  */
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo, StabilitySizeSummary } from '../contracts.js';
 import { lonLatRing } from '../grid-export/lonlat-ring.js';
 import { workingSystem } from '../grid-export/working-system.js';
-import type { StabilitySurface } from './stability-accumulator.js';
-import { stableAreas } from './stable-areas.js';
-import { calibrationNote } from './stability-notes.js';
 
-export function areasGeoJson(surface: StabilitySurface, projection: ProjectionInfo, datasetName: string): object {
+export function areasGeoJson(surface: StabilitySizeSummary, projection: ProjectionInfo, datasetName: string): object {
   const system = workingSystem(projection);
   const { toLonLat, fromLonLat } = system;
   const lonlat = toLonLat !== null && fromLonLat !== null;
@@ -21,13 +19,12 @@ export function areasGeoJson(surface: StabilitySurface, projection: ProjectionIn
     const converted = lonLatRing(planar, toLonLat, fromLonLat);
     return hole ? converted.reverse() : converted;
   };
-  const features = stableAreas(surface).map((area, index) => ({
+  const features = surface.areas.map((area, index) => ({
     type: 'Feature',
     id: index + 1,
-    properties: { kind: area.kind, maxShare: area.maxShare, areaKm2: Number(area.areaKm2.toPrecision(6)), pixels: area.pixels },
-    geometry: { type: 'Polygon', coordinates: [ring(area.outer, false), ...area.holes.map((hole) => ring(hole, true))] },
+    properties: { kind: area.kind, maxShare: area.maxShare, areaKm2: area.areaKm2 },
+    geometry: { type: 'Polygon', coordinates: area.rings.map((planar, k) => ring(planar, k > 0)) },
   }));
-  const calibration = surface.calibration;
   return {
     type: 'FeatureCollection',
     gridshake: {
@@ -40,11 +37,11 @@ export function areasGeoJson(surface: StabilitySurface, projection: ProjectionIn
       shape: surface.shape,
       placements: surface.placements,
       pixelSide: surface.raster.side,
-      sims: calibration?.sims ?? 0,
-      levelPerKind: calibration?.level ?? null,
-      excessThreshold: calibration === null || !Number.isFinite(calibration.excessThreshold) ? null : calibration.excessThreshold,
-      deficitThreshold: calibration === null || !Number.isFinite(calibration.deficitThreshold) ? null : calibration.deficitThreshold,
-      note: calibrationNote(surface),
+      sims: surface.sims,
+      levelPerKind: surface.level,
+      excessThreshold: surface.excessThreshold,
+      deficitThreshold: surface.deficitThreshold,
+      note: surface.note,
     },
     features,
   };

@@ -5,7 +5,7 @@
  * 4 significant digits, e.g. 250m, 111.8m); when a plan has both shapes, the hexagons' files carry `hex-` before the
  * side (stability-hex-250m.tif) so that the two shapes of one side stay apart.
  */
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo, StabilitySizeSummary } from '../contracts.js';
 import { sideTag } from '../messages/download-names.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { areasGeoJson } from './areas-geojson.js';
@@ -23,14 +23,18 @@ export function stabilityFileNames(cellSize: number, shape: CellShape, bothShape
   return [`stability-${tag}.tif`, `excess-areas-${tag}.geojson`];
 }
 
-/** Every stability file of a sweep, as (name, content) pairs. */
-export function stabilityFiles(surfaces: readonly StabilitySurface[], projection: ProjectionInfo, datasetName: string): [string, string | Uint8Array][] {
-  const bothShapes = new Set(surfaces.map((surface) => surface.shape)).size > 1;
-  return surfaces.flatMap((surface) => {
-    const [tif, geojson] = stabilityFileNames(surface.cellSize, surface.shape, bothShapes);
+/** Every stability file of a sweep, as (name, content) pairs; `summaries` are summary.stability, in the same order. */
+export function stabilityFiles(
+  surfaces: readonly StabilitySurface[],
+  summaries: readonly StabilitySizeSummary[],
+  projection: ProjectionInfo,
+  datasetName: string,
+): [string, string | Uint8Array][] {
+  return surfaces.flatMap((surface, k) => {
+    const summary = summaries[k]!;
     return [
-      [tif, stabilityGeoTiff(surface, projection)],
-      [geojson, `${JSON.stringify(areasGeoJson(surface, projection, datasetName))}\n`],
+      [summary.files.tif, stabilityGeoTiff(surface, projection)],
+      [summary.files.geojson, `${JSON.stringify(areasGeoJson(summary, projection, datasetName))}\n`],
     ] as [string, string | Uint8Array][];
   });
 }

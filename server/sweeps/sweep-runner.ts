@@ -17,6 +17,7 @@ import { latticeOf } from '../../workers/lattice/registry.js';
 import { runBounded } from './bounded-tasks.js';
 import { SizeResults } from './size-results.js';
 import type { StabilitySurface } from '../stability/stability-accumulator.js';
+import { stabilitySummary } from '../stability/stability-summary.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv } from './sweep-budget.js';
 import { fromWorkerError, isAbortError, sweepCancelledError } from './sweep-errors.js';
 
@@ -128,6 +129,10 @@ export class ExecutorSweepRunner {
         finishedAt: new Date(),
       });
       const stability = options.stability === true ? sizes.map((size) => size.stabilitySurface(plan.alpha) as StabilitySurface) : [];
+      if (stability.length > 0) {
+        const bothShapes = new Set(sizes.map((size) => size.shape)).size > 1;
+        summary.stability = stability.map((surface, k) => stabilitySummary(surface, sizes[k]!.sizeIndex, bothShapes));
+      }
       return { rows: sizes.flatMap((size) => size.rows), summary, stability };
     } finally {
       options.signal?.removeEventListener('abort', onAbort);

@@ -10,6 +10,7 @@ import type { ProjectionInfo } from '../../server/contracts.js';
 import { areasGeoJson } from '../../server/stability/areas-geojson.js';
 import { pixelPolygons } from '../../server/stability/pixel-polygons.js';
 import type { StabilitySurface } from '../../server/stability/stability-accumulator.js';
+import { stabilitySummary } from '../../server/stability/stability-summary.js';
 
 // a 7 x 6 mask: a ring of pixels around a one-pixel hole, a pixel touching the ring only at a corner,
 // and a separate L-shaped area
@@ -73,7 +74,7 @@ describe('pixel polygons', () => {
 
 describe('excess-areas GeoJSON', () => {
   it('planar input: working coordinates with a note, properties kind, maxShare, areaKm2', () => {
-    const json = areasGeoJson(surfaceWith(mask), { kind: 'planar' }, 'invented') as {
+    const json = areasGeoJson(stabilitySummary(surfaceWith(mask), 0, false), { kind: 'planar' }, 'invented') as {
       gridshake: { coordinates: string; note: string };
       features: { properties: { kind: string; maxShare: number; areaKm2: number }; geometry: { coordinates: [number, number][][] } }[];
     };
@@ -91,7 +92,7 @@ describe('excess-areas GeoJSON', () => {
     const projection: ProjectionInfo = { kind: 'laea', lon0: 12.5, lat0: 47.25, proj4: '+proj=laea +lat_0=47.25 +lon_0=12.5 +x_0=0 +y_0=0 +datum=WGS84 +units=m +no_defs' };
     const big = new Uint8Array(mask.length);
     mask.forEach((v, p) => (big[p] = v));
-    const json = areasGeoJson(surfaceWith(big), projection, 'invented') as {
+    const json = areasGeoJson(stabilitySummary(surfaceWith(big), 0, false), projection, 'invented') as {
       features: { properties: { areaKm2: number }; geometry: { type: string; coordinates: [number, number][][] } }[];
     };
     for (const feature of json.features) {
@@ -116,7 +117,7 @@ describe('excess-areas GeoJSON', () => {
 
   it('without calibration: no features and a note saying why', () => {
     const surface = { ...surfaceWith(new Uint8Array(mask.length)), calibration: null };
-    const json = areasGeoJson(surface, { kind: 'planar' }, 'invented') as { features: unknown[]; gridshake: { note: string } };
+    const json = areasGeoJson(stabilitySummary(surface, 0, false), { kind: 'planar' }, 'invented') as { features: unknown[]; gridshake: { note: string } };
     expect(json.features).toEqual([]);
     expect(json.gridshake.note).toMatch(/sims = 0/);
   });
