@@ -10,9 +10,11 @@
 
 /**
  * Sets reject[i] = 1 for the rejected hypotheses (0 otherwise) among pValues[0 .. m-1]; returns the number rejected.
- * `order` is optional scratch of length >= m.
+ * `order` is optional scratch of length >= m. `family` (default m) is the number of hypotheses tested when only the
+ * m p-values that can be rejected are given (every other p-value of the family above alpha ranks after them and is
+ * never rejected, so the step-up over the given ones with thresholds i alpha / family is the same procedure).
  */
-export function benjaminiHochberg(pValues: Float64Array, m: number, alpha: number, reject: Uint8Array, order?: Uint32Array): number {
+export function benjaminiHochberg(pValues: Float64Array, m: number, alpha: number, reject: Uint8Array, order?: Uint32Array, family: number = m): number {
   reject.fill(0, 0, m);
   // nothing can pass when even the smallest p-value exceeds alpha (the largest threshold, i = m)
   let candidates = 0;
@@ -25,7 +27,7 @@ export function benjaminiHochberg(pValues: Float64Array, m: number, alpha: numbe
   const sorted = index.subarray(0, n).sort((a, b) => pValues[a]! - pValues[b]!);
   let k = 0;
   for (let rank = n; rank >= 1; rank--) {
-    if (pValues[sorted[rank - 1]!]! <= (rank * alpha) / m) {
+    if (pValues[sorted[rank - 1]!]! <= (rank * alpha) / family) {
       k = rank;
       break;
     }

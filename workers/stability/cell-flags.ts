@@ -4,36 +4,49 @@
  *   excess p-value  p+_c = P(X >= O_c),  deficit p-value  p-_c = P(X <= O_c),  X ~ Poisson(E_c),
  * and the multiplicity across the placement's m kept cells controlled by Benjamini-Hochberg at alpha, separately for
  * the excess family and the deficit family (workers/stability/benjamini-hochberg.ts).
- * Cost O(m) plus a few tail evaluations: a whole cell (coverage 1) is tested exactly only when its count reaches the
- * critical count of its mean (a p-value above alpha is never rejected, so it is written as 1 without evaluating it);
- * partial cells are evaluated when their count lies on the tested side of the mean.
+ * Cost O(m) plus a few tail evaluations: a whole cell (coverage 1) is a candidate only when its count reaches the
+ * critical count of its mean, a partial cell when its count lies on the tested side of its mean; only candidates get
+ * an exact p-value and enter the step-up (with the family size m), since every other p-value exceeds alpha.
  */
 import { poissonLowerTail, poissonUpperTail } from '../stats/poisson-tails.js';
 import { benjaminiHochberg } from './benjamini-hochberg.js';
 
-/** Reusable buffers of flagCells, grown as needed. */
+/** Reusable buffers of flagCells; after a call, excess[0 .. excessCount-1] lists the excess cells (kept order). */
 export interface CellFlagScratch {
+  candidates: Int32Array;
   pValues: Float64Array;
   order: Uint32Array;
-  excess: Uint8Array;
-  deficit: Uint8Array;
+  reject: Uint8Array;
+  excess: Int32Array;
+  deficit: Int32Array;
 }
 
 export function createCellFlagScratch(): CellFlagScratch {
-  return { pValues: new Float64Array(0), order: new Uint32Array(0), excess: new Uint8Array(0), deficit: new Uint8Array(0) };
+  return { candidates: new Int32Array(0), pValues: new Float64Array(0), order: new Uint32Array(0), reject: new Uint8Array(0), excess: new Int32Array(0), deficit: new Int32Array(0) };
 }
 
 function ensure(scratch: CellFlagScratch, m: number): void {
-  if (scratch.pValues.length >= m) return;
+  if (scratch.candidates.length >= m) return;
+  scratch.candidates = new Int32Array(m);
   scratch.pValues = new Float64Array(m);
   scratch.order = new Uint32Array(m);
-  scratch.excess = new Uint8Array(m);
-  scratch.deficit = new Uint8Array(m);
+  scratch.reject = new Uint8Array(m);
+  scratch.excess = new Int32Array(m);
+  scratch.deficit = new Int32Array(m);
+}
+
+/** Rejects among the n candidates by BH with family m; writes the rejected cells into out; returns their number. */
+function stepUp(scratch: CellFlagScratch, n: number, m: number, alpha: number, out: Int32Array): number {
+  if (n === 0) return 0;
+  const rejected = benjaminiHochberg(scratch.pValues, n, alpha, scratch.reject, scratch.order, m);
+  let written = 0;
+  for (let t = 0; t < n && written < rejected; t++) if (scratch.reject[t] === 1) out[written++] = scratch.candidates[t]!;
+  return written;
 }
 
 /**
- * Flags the kept cells (counts and coverages in kept order, m = counts.length): scratch.excess[k] / scratch.deficit[k]
- * become 1 for excess / deficit cells. Returns the numbers of excess and deficit cells.
+ * Flags the kept cells (counts and coverages in kept order, m = counts.length). Returns the numbers of excess and
+ * deficit cells, listed (kept indices, increasing) in scratch.excess and scratch.deficit.
  */
 export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: number, scratch: CellFlagScratch): { excess: number; deficit: number } {
   const m = counts.length;
@@ -44,29 +57,39 @@ export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: n
     total += counts[k]!;
     area += coverage[k]!;
   }
-  if (total === 0 || area <= 0) {
-    scratch.excess.fill(0, 0, m);
-    scratch.deficit.fill(0, 0, m);
-    return { excess: 0, deficit: 0 };
-  }
+  if (total === 0 || area <= 0) return { excess: 0, deficit: 0 };
   const rate = total / area;
-  const p = scratch.pValues;
+  const { candidates, pValues } = scratch;
   const upper = criticalUpper(rate, alpha);
+  let n = 0;
   for (let k = 0; k < m; k++) {
     const a = coverage[k]!;
     const o = counts[k]!;
     const mean = rate * a;
-    p[k] = (a === 1 ? o >= upper : o > mean) ? poissonUpperTail(o, mean) : 1;
+    if (a === 1 ? o >= upper : o > mean) {
+      const p = poissonUpperTail(o, mean);
+      if (p <= alpha) {
+        candidates[n] = k;
+        pValues[n++] = p;
+      }
+    }
   }
-  const excess = benjaminiHochberg(p, m, alpha, scratch.excess, scratch.order);
+  const excess = stepUp(scratch, n, m, alpha, scratch.excess);
   const lower = criticalLower(rate, alpha);
+  n = 0;
   for (let k = 0; k < m; k++) {
     const a = coverage[k]!;
     const o = counts[k]!;
     const mean = rate * a;
-    p[k] = (a === 1 ? o <= lower : o < mean) ? poissonLowerTail(o, mean) : 1;
+    if (a === 1 ? o <= lower : o < mean) {
+      const p = poissonLowerTail(o, mean);
+      if (p <= alpha) {
+        candidates[n] = k;
+        pValues[n++] = p;
+      }
+    }
   }
-  const deficit = benjaminiHochberg(p, m, alpha, scratch.deficit, scratch.order);
+  const deficit = stepUp(scratch, n, m, alpha, scratch.deficit);
   return { excess, deficit };
 }
 

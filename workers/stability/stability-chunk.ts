@@ -9,8 +9,8 @@
  * (2 r + kind, pixel position) for simulated pattern r, kind 0 = excess, 1 = deficit, one pair per pixel and
  * placement.
  */
-import type { LatticeFrame } from '../lattice/lattice.js';
 import type { CoverageGrid, KeptCells } from '../types.js';
+import type { PixelCellLocator, SquarePixelFrame } from './pixel-cells.js';
 import { createCellFlagScratch, flagCells, type CellFlagScratch } from './cell-flags.js';
 import type { StabilityRaster } from './stability-raster.js';
 
@@ -28,7 +28,6 @@ export class StabilityChunk {
   /** kept cell k's pixels are pixelsOfKept[start[k] .. start[k+1]-1] */
   private start = new Int32Array(0);
   private pixelsOfKept: Int32Array;
-  private m = 0;
 
   constructor(
     private readonly raster: StabilityRaster,
@@ -48,7 +47,7 @@ export class StabilityChunk {
    * Starts a placement: finds each valid pixel's kept cell (or none) and counts the kept pixels.
    * Cost O(V) cell-of-point evaluations plus O(grid cells).
    */
-  beginPlacement(frame: LatticeFrame, grid: CoverageGrid, kept: KeptCells): void {
+  beginPlacement(cellOf: PixelCellLocator, grid: CoverageGrid, kept: KeptCells, square: SquarePixelFrame | null = null): void {
     const { raster, pixels } = this;
     const cells = grid.nx * grid.ny;
     if (this.keptOfCell.length < cells) this.keptOfCell = new Int32Array(cells);
@@ -56,19 +55,30 @@ export class StabilityChunk {
     keptOfCell.fill(-1, 0, cells);
     const m = kept.index.length;
     for (let k = 0; k < m; k++) keptOfCell[kept.index[k]!] = k;
-    this.m = m;
+
     if (this.start.length < m + 1) this.start = new Int32Array(m + 1);
     const start = this.start;
     start.fill(0, 0, m + 1);
+    const { x0, y0, side, width } = raster;
+    const { i0, j0, nx, ny } = grid;
     for (let q = 0; q < pixels.length; q++) {
       const pixel = pixels[q]!;
-      const row = Math.floor(pixel / raster.width);
-      const col = pixel - row * raster.width;
-      const [i, j] = frame.cellOfPoint(raster.x0 + (col + 0.5) * raster.side, raster.y0 - (row + 0.5) * raster.side);
-      const gi = i - grid.i0;
-      const gj = j - grid.j0;
-      let k = -1;
-      if (gi >= 0 && gi < grid.nx && gj >= 0 && gj < grid.ny) k = keptOfCell[gj * grid.nx + gi]!;
+      const row = Math.floor(pixel / width);
+      const col = pixel - row * width;
+      const px = x0 + (col + 0.5) * side;
+      const py = y0 - (row + 0.5) * side;
+      let cell: number;
+      if (square !== null) {
+        // workers/geometry/grid-frame.ts cellUnitX / cellUnitY, the grid contract's order of operations, inline
+        const dx = px - square.originX;
+        const dy = py - square.originY;
+        const gi = Math.floor((dx * square.cos + dy * square.sin) / square.cellSize - square.u) - i0;
+        const gj = Math.floor((-dx * square.sin + dy * square.cos) / square.cellSize - square.v) - j0;
+        cell = gi >= 0 && gi < nx && gj >= 0 && gj < ny ? gj * nx + gi : -1;
+      } else {
+        cell = cellOf(px, py);
+      }
+      const k = cell < 0 ? -1 : keptOfCell[cell]!;
       this.pixelKept[q] = k;
       if (k >= 0) {
         this.kept[q]! += 1;
@@ -86,27 +96,29 @@ export class StabilityChunk {
   /** Adds the observed pattern's excess / deficit cells of the current placement (kept counts in kept order). */
   addObserved(counts: Float64Array, coverage: Float64Array): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags);
-    if (found.excess > 0) this.addPixels(this.flags.excess, this.excess);
-    if (found.deficit > 0) this.addPixels(this.flags.deficit, this.deficit);
+    this.addPixels(this.flags.excess, found.excess, this.excess);
+    this.addPixels(this.flags.deficit, found.deficit, this.deficit);
   }
 
   /** Adds simulated pattern r's excess / deficit cells of the current placement to the sparse list. */
   addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags);
-    if (found.excess > 0) this.listPixels(this.flags.excess, 2 * pattern + EXCESS);
-    if (found.deficit > 0) this.listPixels(this.flags.deficit, 2 * pattern + DEFICIT);
+    this.listPixels(this.flags.excess, found.excess, 2 * pattern + EXCESS);
+    this.listPixels(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT);
   }
 
-  private addPixels(flags: Uint8Array, out: Float64Array): void {
-    for (let k = 0; k < this.m; k++) {
-      if (flags[k] !== 1) continue;
+  /** Adds 1 at the pixels of the listed kept cells. */
+  private addPixels(cells: Int32Array, count: number, out: Float64Array): void {
+    for (let c = 0; c < count; c++) {
+      const k = cells[c]!;
       for (let t = this.start[k]!; t < this.start[k + 1]!; t++) out[this.pixelsOfKept[t]!]! += 1;
     }
   }
 
-  private listPixels(flags: Uint8Array, code: number): void {
-    for (let k = 0; k < this.m; k++) {
-      if (flags[k] !== 1) continue;
+  /** Lists (code, pixel) for the pixels of the listed kept cells. */
+  private listPixels(cells: Int32Array, count: number, code: number): void {
+    for (let c = 0; c < count; c++) {
+      const k = cells[c]!;
       for (let t = this.start[k]!; t < this.start[k + 1]!; t++) this.simulated.push(code, this.pixelsOfKept[t]!);
     }
   }

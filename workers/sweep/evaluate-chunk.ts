@@ -7,7 +7,7 @@ import { evaluatePlacement, keptCounts, type CellCounter } from '../placement/in
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
-import { latticeOf } from '../lattice/registry.js';
+import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
 import { StabilityChunk } from '../stability/stability-chunk.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
@@ -50,7 +50,12 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
     if (stability !== null) {
-      stability.beginPlacement(latticeOf(context.shape).frame(context.origin, context.cellSize, placement), evaluated.grid, evaluated.kept);
+      stability.beginPlacement(
+        pixelCellLocator(context.shape, context.origin, context.cellSize, placement, evaluated.grid),
+        evaluated.grid,
+        evaluated.kept,
+        squarePixelFrame(context.shape, context.origin, context.cellSize, placement),
+      );
       stability.addObserved(keptCounts(scratch, evaluated.kept, kept), evaluated.kept.coverage);
     }
     for (let r = 0; r < sims; r++) {
