@@ -6,7 +6,7 @@
  * per kind, so the threshold is the largest simulated maximum (k = floor(0.025 x 40) = 1; Besag and Diggle 1977).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { createRandom } from '../../workers/random/index.js';
+import { createRandom, haltonPlacements } from '../../workers/random/index.js';
 import type { Region } from '../../workers/types.js';
 import type { StabilitySurface } from '../../server/stability/stability-accumulator.js';
 import { stableAreas } from '../../server/stability/stable-areas.js';
@@ -122,5 +122,22 @@ describe.each([250, 500])('planted cluster, cells of %d m', (cellSize) => {
     expect(Array.from(split.stableExcess)).toEqual(Array.from(surface.stableExcess));
     expect(Array.from(split.excessShare)).toEqual(Array.from(surface.excessShare));
     expect(Array.from(split.calibration!.excessMaxima)).toEqual(Array.from(surface.calibration!.excessMaxima));
+  });
+});
+
+describe('planted cluster, hexagons of area 250 m x 250 m (Halton placements with rotation)', () => {
+  it('one excess area holding the cluster centre, within reach of the cluster, no deficit area', () => {
+    const placements = Float64Array.from(haltonPlacements(24, true, 60).flatMap((p) => [p.u, p.v, p.angle]));
+    const surface = runSurface({ region: REGION, observed, simulated, cellSize: 250, shape: 'hex', placements });
+    const areas = stableAreas(surface);
+    expect(areas.filter((area) => area.kind === 'excess')).toHaveLength(1);
+    expect(areas.filter((area) => area.kind === 'deficit')).toHaveLength(0);
+    const { raster } = surface;
+    const centrePixel = Math.floor((raster.y0 - CENTRE[1]) / raster.side) * raster.width + Math.floor((CENTRE[0] - raster.x0) / raster.side);
+    expect(surface.stableExcess[centrePixel]).toBe(1);
+    // a hexagon of area s^2 has circumradius s sqrt(2 / (3 sqrt 3)) = 0.62 s: a pixel shares a cell with the cluster
+    // only within a cell diameter of the disk
+    const reach = RADIUS + 2 * 0.6204 * 250;
+    for (const [x, y] of maskCentres(surface, surface.stableExcess)) expect(Math.hypot(x - CENTRE[0], y - CENTRE[1])).toBeLessThanOrEqual(reach);
   });
 });
