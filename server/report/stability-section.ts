@@ -27,7 +27,9 @@ export const STABILITY_METHODS =
   'stable area when its share exceeds the (1 - alpha/2) quantile of these maxima (the k-th largest of R, ' +
   'k = floor(alpha/2 (R + 1)); ties count against the pixel), separately for excess and deficit, so that on null data ' +
   'a map shows any stable area in at most alpha of data sets. Pixels sharing a side are merged into areas. Without ' +
-  'simulations the share surface is written but no area is calibrated.';
+  'simulations the share surface is written but no area is calibrated. Expected counts share the observed points ' +
+  'among the cells, so a strong excess in one place lowers the other cells relative to their expectation: deficit ' +
+  'areas beside a strong cluster are read together with it.';
 
 export const STABILITY_REFERENCES = [
   'Y. Benjamini and Y. Hochberg (1995). Controlling the false discovery rate: a practical and powerful approach to multiple testing. Journal of the Royal Statistical Society B 57:289-300.',
