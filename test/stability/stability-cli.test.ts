@@ -89,6 +89,33 @@ describe('sweep --out: stability files', () => {
     expect(report).toContain('class="excess"');
   }, 120_000);
 
+  it('longitude/latitude input: areas in RFC 7946 longitude/latitude, the GeoTIFF in the local equal-area projection', async () => {
+    const files = scenario();
+    const toLonLat = (x: number, y: number): [number, number] => proj4(UTM33, 'WGS84', [x, y]) as [number, number];
+    const rows = readFileSync(files.points, 'utf8').trim().split('\n').slice(1).map((line) => line.split(','));
+    const points = join(files.folder, 'lonlat.csv');
+    writeFileSync(points, `id,lon,lat\n${rows.map(([id, x, y]) => `${id},${toLonLat(Number(x), Number(y)).map((v) => v.toFixed(8)).join(',')}`).join('\n')}\n`);
+    const corners: [number, number][] = [[X0, Y0], [X0 + 2000, Y0], [X0 + 2000, Y0 + 2000], [X0, Y0 + 2000], [X0, Y0]];
+    const area = join(files.folder, 'lonlat-area.geojson');
+    writeFileSync(area, JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [corners.map(([x, y]) => toLonLat(x, y))] } }] }));
+    const out = join(files.folder, 'out-lonlat');
+    const result = await sweep(['--points', points, '--area', area, '--cells', '250', '--placements', '16', '--sims', '39', '--out', out]);
+    expect(result.code, result.stderr).toBe(0);
+    const geojson = JSON.parse(readFileSync(join(out, 'excess-areas-250m.geojson'), 'utf8')) as {
+      gridshake: { coordinates: string };
+      features: { properties: { kind: string; areaKm2: number }; geometry: { coordinates: number[][][] } }[];
+    };
+    expect(geojson.gridshake.coordinates).toMatch(/^longitude\/latitude/);
+    const excessAreas = geojson.features.filter((f) => f.properties.kind === 'excess');
+    expect(excessAreas).toHaveLength(1);
+    expect(booleanPointInPolygon(point(toLonLat(CENTRE[0]!, CENTRE[1]!)), polygon(excessAreas[0]!.geometry.coordinates))).toBe(true);
+    const bytes = readFileSync(join(out, 'stability-250m.tif'));
+    const image = await (await fromArrayBuffer(bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer)).getImage();
+    const keys = image.getGeoKeys() as Record<string, unknown>;
+    expect(keys.ProjCoordTransGeoKey).toBe(10); // Lambert azimuthal equal area (OGC 19-008r4)
+    expect(String(keys.PCSCitationGeoKey)).toMatch(/^\+proj=laea /);
+  }, 120_000);
+
   it('sims = 0: the share surface is written, no area, and the output says why', async () => {
     const files = scenario();
     const out = join(files.folder, 'out');
