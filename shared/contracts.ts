@@ -195,6 +195,42 @@ export interface SweepSummary {
   warnings: string[];
   versions: Record<string, string>;
   timings: { startedAt: string; finishedAt: string; seconds: number };
+  /** the placement-stable excess / deficit surface per (shape, cell size), when computed (server/stability) */
+  stability?: StabilitySizeSummary[];
+}
+
+/** One stable area (server/stability/stable-areas.ts): planar rings of the working system, closed. */
+export interface StableAreaSummary {
+  kind: 'excess' | 'deficit';
+  /** largest share over the area's pixels */
+  maxShare: number;
+  areaKm2: number;
+  /** outer ring counter-clockwise, then holes clockwise; planar metres, closed */
+  rings: [number, number][][];
+}
+
+/** The stability surface of one (shape, cell size): raster, calibration and the stable areas. */
+export interface StabilitySizeSummary {
+  sizeIndex: number;
+  shape: CellShape;
+  cellSize: number;
+  placements: number;
+  /** raster: upper-left corner, pixel side (m), columns and rows */
+  raster: { x0: number; y0: number; side: number; width: number; height: number };
+  /** simulated null patterns of the calibration (0: no calibration, no areas) */
+  sims: number;
+  /** level per kind (alpha / 2); null without calibration */
+  level: number | null;
+  /** a pixel's share must exceed these to be stable; null without calibration or with too few simulations */
+  excessThreshold: number | null;
+  deficitThreshold: number | null;
+  /** the observed largest shares over the assessed pixels */
+  maxExcessShare: number;
+  maxDeficitShare: number;
+  areas: StableAreaSummary[];
+  note: string;
+  /** file names of the GeoTIFF and the areas' GeoJSON (sweep --out; the same names under /api/sweeps/:id/) */
+  files: { tif: string; geojson: string };
 }
 
 export type SweepStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';

@@ -13,6 +13,7 @@ import { unpackRegion } from './sweep/region-buffer.js';
 import { simulatePatterns } from './sweep/simulate-patterns.js';
 import type { ChunkTask, SimulateTask, SweepTask } from './sweep/sweep-task.js';
 import { TaskCache } from './sweep/task-cache.js';
+import { validPixels, type StabilityRaster } from './stability/stability-raster.js';
 
 interface DatasetEntry {
   region: Region;
@@ -23,6 +24,15 @@ const datasets = new TaskCache<DatasetEntry>();
 const samplers = new TaskCache<CsrSampler>();
 // one simulation at a time: its patterns can be large, and a sweep's patterns are not reused by the next
 const simulations = new TaskCache<PatternCounter[]>(1);
+// the valid pixels of a stability raster, per dataset and raster
+const rasterPixels = new TaskCache<Uint32Array>(4);
+
+function stabilityOf(task: ChunkTask, region: Region): { raster: StabilityRaster; pixels: Uint32Array } | undefined {
+  const raster = task.stability;
+  if (raster === undefined) return undefined;
+  const key = `${task.datasetKey}:${raster.x0},${raster.y0},${raster.side},${raster.width},${raster.height}`;
+  return { raster, pixels: rasterPixels.get(key, () => validPixels(region, raster)) };
+}
 
 function runChunk(task: ChunkTask): Float64Array {
   const dataset = datasets.get(task.datasetKey, () => ({
@@ -38,7 +48,7 @@ function runChunk(task: ChunkTask): Float64Array {
     );
   }
   return evaluateChunk(
-    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha },
+    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha, stability: stabilityOf(task, dataset.region) },
     task.placements,
   );
 }

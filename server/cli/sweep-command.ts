@@ -6,8 +6,10 @@
 import type { Plan, SweepProgress } from '../../shared/contracts.js';
 import { renderReport } from '../report/render-report.js';
 import { reportMap } from '../report/report-map.js';
-import { normalizePlan } from '../sweeps/plan.js';
+import { normalizePlan, planShapes, resolveCellSizes } from '../sweeps/plan.js';
 import { DEFAULT_PLAN, PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
+import { stabilityFileNames, stabilityFiles } from '../stability/stability-files.js';
+import { stabilityLines } from '../stability/stability-notes.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
 import { isAbortError } from '../sweeps/sweep-errors.js';
 import { SweepPool } from '../sweeps/sweep-pool.js';
@@ -95,6 +97,10 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   const createOutDir = checkOutputFolder(outDir, SWEEP_OUTPUTS);
   const queue = queueFromOptions(values);
   const dataset = loadDatasetFromFlags(values);
+  // the stability files' names depend on the cell sides, known once the dataset is read (--per-cell)
+  const shapes = planShapes(plan);
+  const sides = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
+  checkOutputFolder(outDir, shapes.flatMap((shape) => sides.flatMap((side) => stabilityFileNames(side, shape, shapes.length > 1))));
   const pool =
     queue === null
       ? new SweepPool({ threads: threadCount })
@@ -104,7 +110,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   process.once('SIGINT', onInterrupt);
   const progress = progressWriter(io);
   try {
-    const { rows, summary } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update });
+    const { rows, summary, stability } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update, stability: true });
     progress.end();
     createOutDir();
     const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
@@ -112,13 +118,14 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       [csvName, placementsToCsv(rows, { summary })],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
+      ...stabilityFiles(stability, summary.stability ?? [], dataset.projection, dataset.name),
     ]);
     // warnings first: a warning that makes a p-value meaningless is read before the p-value; the dataset's
     // warnings (first in the list) in the command line's words
     summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
-    io.stdout(`${lines.join('\n')}\n`);
-    io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
+    io.stdout(`${[...lines, '', ...stabilityLines(stability)].join('\n')}\n`);
+    io.stderr(`wrote placements.csv, summary.json, report.html and the stability surfaces (stability-<side>m.tif, excess-areas-<side>m.geojson) to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
     return 0;
   } catch (error) {
     progress.end();

@@ -148,6 +148,7 @@ export class QueueExecutor implements SweepExecutor {
       minCoverage: work.minCoverage,
       alpha: work.alpha,
       placements: encodePlacements(work.placements),
+      ...(work.stability === undefined ? {} : { stability: work.stability }),
     };
     const result = new Promise<Float64Array>((resolve, reject) => {
       const task: PendingTask = { jobId, added: Promise.resolve(), cancelled: false, resolve, reject };

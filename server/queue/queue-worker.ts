@@ -111,6 +111,7 @@ export class QueueWorker {
           minCoverage: task.minCoverage,
           alpha: task.alpha,
           placements: task.placementValues,
+          ...(task.stability === undefined ? {} : { stability: task.stability }),
         },
         new AbortController().signal,
       );

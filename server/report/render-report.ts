@@ -18,6 +18,7 @@ import { datasetSection, monteCarloSection, planSection, sizeTable, versionsSect
 import { REPORT_CHART_SIZE, reportChartScript } from './report-script.js';
 import { REPORT_CSS } from './report-styles.js';
 import { reportMapSvg, type ReportMap } from './report-map.js';
+import { stabilitySection } from './stability-section.js';
 
 /** Long tables (one row per placement or offset bin) are folded away on screen and left out of print. */
 const FOLD_TABLE_ROWS = 12;
@@ -73,6 +74,7 @@ ${map ? `<section><h2>Map</h2>${reportMapSvg(map)}</section>` : ''}
 ${planSection(summary)}
 <section><h2>Results across cell sizes</h2>${sizeTable(summary)}${overview.map(figure).join('\n')}</section>
 ${monteCarloSection(summary)}
+${stabilitySection(summary, map)}
 ${perSize.map((entry) => sizeSection(summary, rows, entry.sizeIndex, entry.bundles)).join('\n')}
 <section><h2>Methods</h2>${methods.paragraphs.map((paragraph) => `<p>${escapeHtml(paragraph)}</p>`).join('\n')}
 <h3>References</h3><ol>${methods.references.map((reference) => `<li>${escapeHtml(reference)}</li>`).join('')}</ol></section>

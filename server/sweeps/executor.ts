@@ -6,6 +6,7 @@
  */
 import type { Dataset } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
+import type { StabilityRaster } from '../../workers/stability/stability-raster.js';
 
 /** A dataset the executor has shared with its workers, under a key made of the dataset id and its content hash. */
 export interface DatasetRef {
@@ -44,6 +45,8 @@ export interface ChunkWork {
   minCoverage: number;
   alpha: number;
   placements: Float64Array;
+  /** the stability surface's raster (absent: no surface) */
+  stability?: StabilityRaster;
 }
 
 export type SweepWork = SimulateWork | ChunkWork;

@@ -93,6 +93,7 @@ export class LocalExecutor implements SweepExecutor {
         minCoverage: work.minCoverage,
         alpha: work.alpha,
         placements: work.placements,
+        ...(work.stability === undefined ? {} : { stability: work.stability }),
       } satisfies ChunkTask;
     }
     return this.pool.run(task, { signal }) as Promise<Float64Array | number>;

@@ -7,6 +7,9 @@ import { evaluatePlacement, keptCounts, type CellCounter } from '../placement/in
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
+import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
+import { StabilityChunk } from '../stability/stability-chunk.js';
+import type { StabilityRaster } from '../stability/stability-raster.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
 
@@ -23,6 +26,8 @@ export interface ChunkContext {
   shape?: CellShape;
   minCoverage: number;
   alpha: number;
+  /** the stability surface's raster and its valid pixels (workers/stability); absent: no surface */
+  stability?: { raster: StabilityRaster; pixels: Uint32Array };
 }
 
 /**
@@ -37,18 +42,34 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   const result = new Float64Array(chunkResultLength(count, sims));
   let scratch: Int32Array = new Int32Array(0);
   let kept: Float64Array = new Float64Array(0);
+  const stability = context.stability === undefined ? null : new StabilityChunk(context.stability.raster, context.stability.pixels, context.alpha);
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
     const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
     encodeStatistics(evaluated.stats, result, j * STATISTICS_FIELDS);
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
+    if (stability !== null) {
+      stability.beginPlacement(
+        pixelCellLocator(context.shape, context.origin, context.cellSize, placement, evaluated.grid),
+        evaluated.grid,
+        evaluated.kept,
+        squarePixelFrame(context.shape, context.origin, context.cellSize, placement),
+      );
+      stability.addObserved(keptCounts(scratch, evaluated.kept, kept), evaluated.kept.coverage);
+    }
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
-      const { chi2, df } = dispersionChiSquare(keptCounts(scratch, evaluated.kept, kept), evaluated.kept.coverage);
+      const counts = keptCounts(scratch, evaluated.kept, kept);
+      const { chi2, df } = dispersionChiSquare(counts, evaluated.kept.coverage);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
+      stability?.addSimulated(r, counts, evaluated.kept.coverage);
     }
   }
-  return result;
+  if (stability === null) return result;
+  const withStability = new Float64Array(result.length + stability.length);
+  withStability.set(result);
+  stability.encode(withStability, result.length);
+  return withStability;
 }

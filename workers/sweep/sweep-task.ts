@@ -4,6 +4,7 @@
  * Float64Array per chunk, moved rather than cloned.
  */
 import type { CellShape } from '../lattice/cell-shape.js';
+import type { StabilityRaster } from '../stability/stability-raster.js';
 import type { Origin } from '../types.js';
 import { STATISTICS_FIELDS } from './statistics-codec.js';
 
@@ -40,6 +41,8 @@ export interface ChunkTask {
   alpha: number;
   /** u, v, angle of each placement of the chunk */
   placements: Float64Array;
+  /** the stability surface's raster (workers/stability); absent: no surface is computed */
+  stability?: StabilityRaster;
 }
 
 export type SweepTask = SimulateTask | ChunkTask;
@@ -47,7 +50,8 @@ export type SweepTask = SimulateTask | ChunkTask;
 /**
  * Layout of a chunk result for P placements and R sims: P blocks of STATISTICS_FIELDS (observed pattern), then
  * chi2/df on pattern r at placement j at P * F + j * R + r, then the significance flags (0/1) at
- * P * F + P * R + j * R + r.
+ * P * F + P * R + j * R + r. With a stability raster, the stability part follows
+ * (workers/stability/stability-chunk.ts), from offset chunkResultLength(P, R).
  */
 export function chunkResultLength(placements: number, sims: number): number {
   return placements * (STATISTICS_FIELDS + 2 * sims);
