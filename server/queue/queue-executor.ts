@@ -23,6 +23,7 @@ import { Redis } from 'ioredis';
 import type { Dataset } from '../contracts.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor } from '../sweeps/executor.js';
 import { shareDataset } from '../sweeps/shared-dataset.js';
+import { queueUnreachableError } from '../errors.js';
 import { sweepCancelledError } from '../sweeps/sweep-errors.js';
 import { packDataset } from './queue-dataset.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
@@ -344,7 +345,7 @@ export class QueueExecutor implements SweepExecutor {
 
   private lostError(): Error {
     const seconds = Math.round(this.lostAfterMs / 1000);
-    return new Error(
+    return queueUnreachableError(
       `the Redis queue at ${this.display} did not answer for ${seconds} s (${this.lastError}); check that Redis runs there, ` +
         'that this machine can reach it (address, port, firewall, TLS) and the password; the sweep was stopped',
     );

@@ -68,6 +68,7 @@ describe('an unreachable Redis queue', () => {
             const seconds = Math.round(lostAfterMs / 1000);
             expect(failure.message).toMatch(new RegExp(`the Redis queue at redis://127.0.0.1:${port}/0 did not answer for ${seconds} s .*check that Redis runs there`));
             expect(failure.message).not.toContain('secret');
+          expect((failure as { code?: string }).code).toBe('GS_ERR_QUEUE_UNREACHABLE');
             expect(Date.now() - started).toBeLessThan(lostAfterMs + 8000);
           } finally {
             await runner.destroy();
@@ -98,6 +99,7 @@ describe('an unreachable Redis queue', () => {
     expect(stderr).toMatch(new RegExp(`the Redis queue at redis://127.0.0.1:${port}/0 did not answer for 2 s`));
     // one line: a late unhandled rejection would add a second "gridshake: unexpected error" line (bin/gridshake.js)
     expect(stderr.trim().split('\n'), stderr).toHaveLength(1);
+    expect(stderr).toMatch(/^gridshake: the Redis queue at /);
     expect(stderr).not.toMatch(/\n\s+at |Unhandled|unhandled/);
   }, 90_000);
 
