@@ -1,8 +1,8 @@
 /**
  * Route schemas compiled on first use instead of at start. Fastify compiles every route's request validator (Ajv)
  * and response serializer (fast-json-stringify) while the server gets ready: with about thirty routes that was the
- * largest part of a start (1.3 s of 4.7 s of the start's profiled CPU on the loaded development machine, plus 0.5 s to load
- * Ajv), and a restart after a crash waited for it. These factories hand Fastify the very compilers it uses by default
+ * largest part of a start (1.3 s of 4.7 s of the start's profiled CPU on the loaded development machine, plus
+ * 0.5 s to load Ajv), and a restart after a crash waited for it. These factories hand Fastify the very compilers it uses by default
  * (@fastify/ajv-compiler, @fastify/fast-json-stringify-compiler, same options, same external schemas), each wrapped so
  * that a route's schema is compiled the first time a request needs it (a few ms, once per route and status), and Ajv
  * itself is loaded only then. Validation results, error objects and serialized bodies are the defaults' own.
