@@ -81,6 +81,9 @@ export function installErrorHandling(app: FastifyInstance, limits: LimitsForMess
   app.setErrorHandler((error: unknown, request: FastifyRequest, reply: FastifyReply) => {
     const body = toErrorBody(error, limits);
     if (body.statusCode >= 500) request.log.error({ err: error }, 'request failed');
+    // a body left half read (an upload refused while it streams, e.g. a full disk) would hold the connection: the
+    // client's next request on it waits behind bytes nobody reads, so the connection closes after this answer
+    if (!request.raw.complete) reply.header('connection', 'close');
     void reply.code(body.statusCode).type('application/json; charset=utf-8').send(body);
   });
   app.setNotFoundHandler((request: FastifyRequest, reply: FastifyReply) => {
