@@ -4,6 +4,7 @@
  */
 import type { BBox, Origin, PlacementStatistics, Region, Verdict } from '../workers/types.js';
 import type { CellShape } from '../workers/lattice/cell-shape.js';
+import type { Baseline } from '../workers/baseline/baseline.js';
 
 export interface InputWarning {
   code: string;
@@ -13,6 +14,27 @@ export interface InputWarning {
   cliMessage?: string;
   /** record ids or feature numbers concerned, possibly truncated */
   ids?: string[];
+}
+
+/** What a dataset records about its baseline (summary.json, count --json, the report). */
+export interface BaselineInfo {
+  kind: 'polygons' | 'controls';
+  /** the file's name as given */
+  file: string;
+  /** the count property (polygons only) */
+  field?: string;
+  /** polygons: features read; controls: points read */
+  features: number;
+  /** polygons: Σ P_p over the polygons with |p ∩ V| > 0; controls: controls inside V */
+  totalInside: number;
+  /** polygons: Σ P_p over every polygon */
+  total: number;
+  /** polygons: 1-based numbers of the features with |p ∩ V| = 0 (reported and ignored) */
+  outsideFeatures: number[];
+  /** polygons: share of V outside every polygon (weight 0 there); controls: 0 */
+  uncoveredShare: number;
+  /** controls: how many lie outside V (never counted) */
+  controlsOutside?: number;
 }
 
 /** How input coordinates were turned into planar metres. */
@@ -42,6 +64,8 @@ export interface Dataset {
   region: Region;
   origin: Origin;
   warnings: InputWarning[];
+  /** the population at risk (issue 15): the engine's baseline and what is recorded about it; absent: area */
+  baseline?: { engine: Baseline; info: BaselineInfo };
 }
 
 export interface DatasetSummary {
@@ -111,6 +135,15 @@ export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
   poissonChi2: number | null;
   poissonDf: number | null;
   poissonP: number | null;
+  /**
+   * what the expected counts are proportional to (issue 15): 'area', 'baseline' (polygons) or 'controls'; with
+   * Σ_kept w (the kept cells' valid area in m^2 in area mode), the cells passing the coverage rule with w = 0 and
+   * their points (absent in rows stored before baselines existed: area)
+   */
+  expectedFrom?: 'area' | 'baseline' | 'controls';
+  baselineTotal?: number;
+  zeroBaselineCells?: number;
+  pointsInZeroBaselineCells?: number;
   /** natural log of pClustered in log space; in summary.json rows (reference, lowest and highest vmr) */
   logPClustered?: number;
   /** natural log of pRegular in log space; in summary.json rows */

@@ -1,12 +1,13 @@
 /**
  * The pure work of one chunk task: for each placement of the chunk, the coverage of its cells (computed once),
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
- * CSR pattern at the same kept cells.
+ * pattern (CSR, or the baseline's null: workers/baseline) at the same kept cells with the same expected weights.
  */
 import { evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
+import type { BaselineWeigher } from '../baseline/baseline-weights.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
 
@@ -23,6 +24,8 @@ export interface ChunkContext {
   shape?: CellShape;
   minCoverage: number;
   alpha: number;
+  /** expected counts proportional to this baseline (workers/baseline) instead of area; absent means area */
+  baseline?: BaselineWeigher;
 }
 
 /**
@@ -40,12 +43,12 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
     const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
-    encodeStatistics(evaluated.stats, result, j * STATISTICS_FIELDS);
+    encodeStatistics(evaluated.stats, result, j * STATISTICS_FIELDS, evaluated.expectation);
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
-      const { chi2, df } = dispersionChiSquare(keptCounts(scratch, evaluated.kept, kept), evaluated.kept.coverage);
+      const { chi2, df } = dispersionChiSquare(keptCounts(scratch, evaluated.kept, kept), evaluated.expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
     }

@@ -4,23 +4,42 @@
  * NaN and 0/1; the verdict as 0 (csr), 1 (clustered), 2 (regular).
  */
 import type { PlacementStatistics, Verdict } from '../types.js';
+import type { ExpectedFrom } from '../baseline/baseline.js';
 
 /** The statistics of a placement row without its placement parameters (server/contracts.ts PlacementRow). */
 export interface EncodedStatistics extends Omit<PlacementStatistics, 'poissonFit'> {
   poissonChi2: number | null;
   poissonDf: number | null;
   poissonP: number | null;
+  /** what the expected counts are proportional to, and its totals (workers/placement Expectation) */
+  expectedFrom: ExpectedFrom;
+  baselineTotal: number;
+  zeroBaselineCells: number;
+  pointsInZeroBaselineCells: number;
 }
 
-export const STATISTICS_FIELDS = 23;
+/** The expectation part of a placement's result (workers/placement Expectation without the weights). */
+export interface EncodedExpectation {
+  expectedFrom: ExpectedFrom;
+  baselineTotal: number;
+  zeroBaselineCells: number;
+  pointsInZeroBaselineCells: number;
+}
+
+export const STATISTICS_FIELDS = 27;
 
 const VERDICTS: readonly Verdict[] = ['csr', 'clustered', 'regular'];
+const EXPECTED_FROM: readonly ExpectedFrom[] = ['area', 'baseline', 'controls'];
 
 const orNaN = (value: number | null): number => (value === null ? Number.NaN : value);
 const orNull = (value: number): number | null => (Number.isNaN(value) ? null : value);
 
-/** Writes the statistics at out[offset .. offset + STATISTICS_FIELDS). Cost O(1). */
-export function encodeStatistics(stats: PlacementStatistics, out: Float64Array, offset: number): void {
+/** Writes the statistics and the expectation at out[offset .. offset + STATISTICS_FIELDS). Cost O(1). */
+export function encodeStatistics(stats: PlacementStatistics, out: Float64Array, offset: number, expectation?: EncodedExpectation): void {
+  out[offset + 23] = EXPECTED_FROM.indexOf(expectation?.expectedFrom ?? 'area');
+  out[offset + 24] = expectation?.baselineTotal ?? Number.NaN;
+  out[offset + 25] = expectation?.zeroBaselineCells ?? 0;
+  out[offset + 26] = expectation?.pointsInZeroBaselineCells ?? 0;
   out[offset] = stats.cells;
   out[offset + 1] = stats.points;
   out[offset + 2] = stats.mean;
@@ -72,5 +91,9 @@ export function decodeStatistics(data: Float64Array, offset: number): EncodedSta
     poissonChi2: orNull(data[offset + 20]),
     poissonDf: orNull(data[offset + 21]),
     poissonP: orNull(data[offset + 22]),
+    expectedFrom: EXPECTED_FROM[data[offset + 23]] ?? 'area',
+    baselineTotal: data[offset + 24],
+    zeroBaselineCells: data[offset + 25],
+    pointsInZeroBaselineCells: data[offset + 26],
   };
 }
