@@ -84,6 +84,8 @@ export interface DatasetSummary {
   projection?: ProjectionInfo;
   /** the same as one line with the full proj4 definition, e.g. "EPSG:32633: +proj=utm +zone=33 ..." */
   projectionUsed?: string;
+  /** the population at risk: file, field and totals (absent: expected counts follow area) */
+  baseline?: BaselineInfo;
   /** cell sides (m) for 1.6, 2 and 5 expected points per cell: side = sqrt(k * validArea / nInside) */
   suggestedCellSizes: { perCell: number; cellSize: number; rule: string }[];
   createdAt?: string;
@@ -232,6 +234,9 @@ export interface OverallTest {
 export interface SweepSummary {
   plan: Plan;
   dataset: DatasetSummary;
+  /** against a baseline (issue 15): where expected counts come from, and the baseline's file, field and totals */
+  expectedFrom?: 'baseline' | 'controls';
+  baseline?: BaselineInfo;
   sizes: SizeSummary[];
   /** the overall test across sizes and tails (null when sims = 0) */
   overallTest?: OverallTest | null;

@@ -1,4 +1,5 @@
-import type { MonteCarloResult, OverallTest, SizeSummary } from '../contracts.js';
+import type { BaselineInfo, MonteCarloResult, OverallTest, SizeSummary } from '../contracts.js';
+import { beyondNull, nullName } from './null-hypothesis.js';
 import { formatPValue, pPhrase } from '../../shared/p-value.js';
 import type { Verdict } from '../../workers/types.js';
 
@@ -10,6 +11,12 @@ const VERDICT_WORDS: Record<Verdict, string> = {
   regular: 'regular',
   csr: 'no departure from CSR',
 };
+
+/** The verdict words against a baseline: the null is named (issue 15); area mode keeps VERDICT_WORDS. */
+function verdictWords(baseline: BaselineInfo | undefined): Record<Verdict, string> {
+  if (baseline === undefined) return VERDICT_WORDS;
+  return { clustered: 'clustered beyond the baseline', regular: 'more even than the baseline', csr: 'no departure from the baseline' };
+}
 
 /** A share 0..1 as a whole percentage that never rounds a partial share to 0 % or 100 %. */
 export function formatShare(share: number): string {
@@ -52,11 +59,12 @@ function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string
  * One plain-words sentence for one cell size, e.g.
  * "120 m cells: clustered in 97 % of 512 placements; Monte Carlo p = 0.01 on the median chi2/df, 0.01 on the maximum (R = 99)".
  */
-export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string {
+export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>, baseline?: BaselineInfo): string {
   const { verdictShares, mostCommon, placements, monteCarlo } = summary;
-  const parts = [`${cellsLabel(summary)}: ${VERDICT_WORDS[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
+  const words = verdictWords(baseline);
+  const parts = [`${cellsLabel(summary)}: ${words[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
   const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
-  if (others.length > 0) parts[0] += ` (${others.map((v) => `${VERDICT_WORDS[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
+  if (others.length > 0) parts[0] += ` (${others.map((v) => `${words[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
   if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));
   else parts.push('per-placement evidence only, no Monte Carlo test (sims = 0)');
   return parts.join('; ');
@@ -70,7 +78,7 @@ export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>): string
  * depends on the placement (agreement below LOW_AGREEMENT).
  */
 export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'>[], alpha: number,
-  overall: OverallTest | null = null): string {
+  overall: OverallTest | null = null, baseline?: BaselineInfo): string {
   const total = sizes.length;
   const sentences: string[] = [];
   const shapes = shapesOf(sizes);
@@ -82,11 +90,14 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
   const strongest = overall === null ? '' : cellsLabel({ cellSize: overall.strongestCellSize, shape: overall.strongestShape });
   if (overall !== null) {
     const pText = pPhrase(overall.p);
-    if (overall.rejects) {
+    if (baseline !== undefined) {
+      sentences.push(baselineOverallSentence(overall, sizesWords, alpha, pText, strongest, baseline));
+    } else if (overall.rejects) {
       const kind = overall.direction === 'regular' ? 'regularity' : 'clustering';
+      const beyond = overall.direction === 'regular' ? '' : ` ${beyondNull(undefined)}`;
       sentences.push(
         `The overall Monte Carlo test across ${sizesWords} and both tails finds a departure from CSR at alpha ${alpha} ` +
-          `(${pText}, R = ${overall.sims}): ${kind}, most marked at ${strongest}`,
+          `(${pText}, R = ${overall.sims}): ${kind}${beyond}, most marked at ${strongest}`,
       );
     } else {
       sentences.push(
@@ -97,9 +108,10 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
   } else {
     const counts: Record<Verdict, number> = { clustered: 0, regular: 0, csr: 0 };
     for (const size of sizes) counts[size.mostCommon] += 1;
+    const verdictText = verdictWords(baseline);
     const words = (['clustered', 'regular', 'csr'] as Verdict[])
       .filter((v) => counts[v] > 0)
-      .map((v) => `${VERDICT_WORDS[v]} at ${counts[v]} of ${total} cell sizes`);
+      .map((v) => `${verdictText[v]} at ${counts[v]} of ${total} cell sizes`);
     const where = shapes.length > 1 ? 'cell sizes and shapes' : 'cell sizes';
     sentences.push(`Per-placement evidence only, not a test (sims = 0): most placements say ${words.join(', ').replace(/cell sizes/g, where)} at alpha ${alpha}; run with sims > 0 for a Monte Carlo test`);
   }
@@ -112,6 +124,18 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
   }
   if (shapes.length > 1) sentences.push(shapeSentence(sizes));
   return sentences.join('. ') + '.';
+}
+
+/** The overall test's sentence against a baseline: it names the null (issue 15). */
+function baselineOverallSentence(overall: OverallTest, sizesWords: string, alpha: number, pText: string, strongest: string,
+  baseline: BaselineInfo): string {
+  const across = `The overall Monte Carlo test across ${sizesWords} and both tails`;
+  const tail = `(${pText}, R = ${overall.sims})`;
+  if (!overall.rejects) return `${across} finds no departure from ${nullName(baseline)} at alpha ${alpha} ${tail}`;
+  if (overall.direction === 'regular') {
+    return `${across} finds counts more even than ${nullName(baseline)} gives at alpha ${alpha} ${tail}, most marked at ${strongest}`;
+  }
+  return `${across} finds clustering ${beyondNull(baseline)} at alpha ${alpha} ${tail}, most marked at ${strongest}`;
 }
 
 /** The shapes of a sweep's size entries, in order of first appearance (entries without one are squares). */

@@ -77,6 +77,7 @@ export class LocalExecutor implements SweepExecutor {
         first: work.first,
         count: work.count,
         simulated: this.simulationBuffer(work.simulation, shared.pointCount),
+        ...(shared.baseline === null ? {} : { baseline: { key: shared.key, buffer: shared.baseline, points: shared.points } }),
       } satisfies SimulateTask;
     } else {
       task = {
@@ -93,6 +94,7 @@ export class LocalExecutor implements SweepExecutor {
         minCoverage: work.minCoverage,
         alpha: work.alpha,
         placements: work.placements,
+        ...(shared.baseline === null ? {} : { baseline: { key: shared.key, buffer: shared.baseline } }),
       } satisfies ChunkTask;
     }
     return this.pool.run(task, { signal }) as Promise<Float64Array | number>;
