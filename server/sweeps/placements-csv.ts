@@ -54,6 +54,12 @@ export const PLACEMENT_CSV_COLUMNS: readonly PlacementCsvColumn[] = [
   { name: 'poisson_fit_chi2', field: 'poissonChi2', rounding: SIG6 },
   { name: 'poisson_fit_df', field: 'poissonDf', rounding: 'integer' },
   { name: 'poisson_fit_p', field: 'poissonP', rounding: SIG4 },
+  // issue 15: what the expected counts follow ('area', 'baseline', 'controls'), the kept cells' total weight (m² of
+  // valid area in area mode) and the cells (and points) passing the coverage rule with no population at risk
+  { name: 'expected_from', field: 'expectedFrom', rounding: 'text' },
+  { name: 'baseline_total', field: 'baselineTotal', rounding: SIG6 },
+  { name: 'zero_baseline_cells', field: 'zeroBaselineCells', rounding: 'integer' },
+  { name: 'points_in_zero_baseline_cells', field: 'pointsInZeroBaselineCells', rounding: 'integer' },
 ];
 
 /** The PlacementRow fields in CSV column order. */
