@@ -42,6 +42,9 @@ export interface Expectation {
   zeroBaselineCells: number;
   pointsInZeroBaselineCells: number;
   weights: Float64Array;
+  /** with a baseline: the weights of every grid cell, and the cells the coverage rule alone keeps */
+  gridWeights?: Float64Array;
+  coverageKept?: KeptCells;
 }
 
 export interface EvaluatedPlacement {
@@ -89,7 +92,8 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
     };
   } else {
     counter.count(grid, cellSize, placement, counts);
-    const narrowed = keepBaselineCells(coverageKept, baseline.weights(grid, cellSize, placement), counts);
+    const gridWeights = baseline.weights(grid, cellSize, placement);
+    const narrowed = keepBaselineCells(coverageKept, gridWeights, counts);
     kept = narrowed.kept;
     expectation = {
       expectedFrom: baseline.expectedFrom,
@@ -97,6 +101,8 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
       zeroBaselineCells: narrowed.zeroBaselineCells,
       pointsInZeroBaselineCells: narrowed.pointsInZeroBaselineCells,
       weights: narrowed.weights,
+      gridWeights,
+      coverageKept,
     };
   }
   if (kept.index.length < 2) {

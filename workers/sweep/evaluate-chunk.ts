@@ -8,6 +8,7 @@ import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
 import type { BaselineWeigher } from '../baseline/baseline-weights.js';
+import { poolCounts, relabelledChiSquare } from '../baseline/relabelled-chi-square.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
 
@@ -46,9 +47,16 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     encodeStatistics(evaluated.stats, result, j * STATISTICS_FIELDS, evaluated.expectation);
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
+    // controls: each simulated labelling has its own controls (the rest of the pool), so its own weights
+    const { expectation } = evaluated;
+    const relabel = expectation.expectedFrom === 'controls' && expectation.coverageKept !== undefined && expectation.gridWeights !== undefined;
+    const pool = relabel ? poolCounts(evaluated.counts, expectation.gridWeights!, expectation.coverageKept!) : null;
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
-      const { chi2, df } = dispersionChiSquare(keptCounts(scratch, evaluated.kept, kept), evaluated.expectation.weights);
+      const { chi2, df } =
+        pool !== null
+          ? relabelledChiSquare(scratch, pool, expectation.coverageKept!)
+          : dispersionChiSquare(keptCounts(scratch, evaluated.kept, kept), expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
     }
