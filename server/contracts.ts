@@ -146,6 +146,9 @@ export interface PlacementRow extends Omit<PlacementStatistics, 'poissonFit'> {
   baselineTotal?: number;
   zeroBaselineCells?: number;
   pointsInZeroBaselineCells?: number;
+  /** against a baseline: the same placement's area-only chi2/df and verdict (NaN / null in area mode) */
+  areaChi2PerDf?: number;
+  areaVerdict?: Verdict | null;
   /** natural log of pClustered in log space; in summary.json rows (reference, lowest and highest vmr) */
   logPClustered?: number;
   /** natural log of pRegular in log space; in summary.json rows */
@@ -207,6 +210,11 @@ export interface SizeSummary {
   highestVmr: PlacementRow;
   monteCarlo: MonteCarloResult | null;
   conclusion: string;
+  /**
+   * against a baseline (issue 15): the area-only verdicts of the same placements (per-placement chi-square against
+   * area, no Monte Carlo), shown beside the baseline verdicts
+   */
+  areaOnly?: { verdictShares: Record<Verdict, number>; mostCommon: Verdict; chi2PerDfMedian: number };
 }
 
 /** The one test behind the overall conclusion (server/summary/overall-test.ts); null without sims. */

@@ -50,6 +50,14 @@ describe('sweep against baseline polygons', () => {
     expect(against.rows.every((row) => row.zero_baseline_cells === '0')).toBe(true);
     expect(against.summary.conclusion).toContain('the population at risk (baseline: ');
     expect(against.summary.conclusion).toContain('field residents)');
+    // side by side: every size clustered against area, and the baseline's verdict beside it
+    for (const size of against.summary.sizes) expect(size.areaOnly?.mostCommon).toBe('clustered');
+    expect(against.rows.every((row) => row.expected_from === 'baseline' && Number(row.baseline_total) > 0)).toBe(true);
+    expect(against.report).toContain('Against area and against the population at risk');
+    expect(against.report).toContain('Goodchild and Lam 1980');
+    expect(against.report).toContain('areal weighting');
+    expect(area.report).not.toContain('Against area and against the population at risk');
+    expect(area.summary.conclusion).toContain('clustering beyond complete spatial randomness');
   }, 240_000);
 
   it('one extra cluster on top of the population is found against the baseline', async () => {

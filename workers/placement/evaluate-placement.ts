@@ -4,8 +4,8 @@
  * Cost O(cells + edge crossings + n) per call.
  */
 import { EngineError } from '../engine-error.js';
-import { placementStatistics } from '../stats/index.js';
-import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region } from '../types.js';
+import { dispersionChiSquare, dispersionVerdict, placementStatistics } from '../stats/index.js';
+import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region, Verdict } from '../types.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from './cell-counter.js';
@@ -45,6 +45,9 @@ export interface Expectation {
   /** with a baseline: the weights of every grid cell, and the cells the coverage rule alone keeps */
   gridWeights?: Float64Array;
   coverageKept?: KeptCells;
+  /** with a baseline: the area-only test of the same placement (coverage-kept cells, E ∝ area) for comparison */
+  areaChi2PerDf?: number;
+  areaVerdict?: Verdict;
 }
 
 export interface EvaluatedPlacement {
@@ -114,6 +117,11 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
     );
   }
   if (baseline === undefined) counter.count(grid, cellSize, placement, counts);
+  if (expectation.coverageKept !== undefined && expectation.coverageKept.index.length >= 2) {
+    const areaTest = dispersionChiSquare(keptCounts(counts, expectation.coverageKept), expectation.coverageKept.coverage);
+    expectation.areaChi2PerDf = areaTest.chi2 / areaTest.df;
+    expectation.areaVerdict = dispersionVerdict(areaTest.chi2, areaTest.df, alpha).verdict;
+  }
   const observed = keptCounts(counts, kept);
   const stats =
     baseline === undefined

@@ -16,6 +16,9 @@ export interface EncodedStatistics extends Omit<PlacementStatistics, 'poissonFit
   baselineTotal: number;
   zeroBaselineCells: number;
   pointsInZeroBaselineCells: number;
+  /** with a baseline: the area-only chi2/df and verdict of the same placement (NaN / null in area mode) */
+  areaChi2PerDf: number;
+  areaVerdict: Verdict | null;
 }
 
 /** The expectation part of a placement's result (workers/placement Expectation without the weights). */
@@ -24,9 +27,11 @@ export interface EncodedExpectation {
   baselineTotal: number;
   zeroBaselineCells: number;
   pointsInZeroBaselineCells: number;
+  areaChi2PerDf?: number;
+  areaVerdict?: Verdict;
 }
 
-export const STATISTICS_FIELDS = 27;
+export const STATISTICS_FIELDS = 29;
 
 const VERDICTS: readonly Verdict[] = ['csr', 'clustered', 'regular'];
 const EXPECTED_FROM: readonly ExpectedFrom[] = ['area', 'baseline', 'controls'];
@@ -40,6 +45,8 @@ export function encodeStatistics(stats: PlacementStatistics, out: Float64Array, 
   out[offset + 24] = expectation?.baselineTotal ?? Number.NaN;
   out[offset + 25] = expectation?.zeroBaselineCells ?? 0;
   out[offset + 26] = expectation?.pointsInZeroBaselineCells ?? 0;
+  out[offset + 27] = expectation?.areaChi2PerDf ?? Number.NaN;
+  out[offset + 28] = expectation?.areaVerdict === undefined ? -1 : VERDICTS.indexOf(expectation.areaVerdict);
   out[offset] = stats.cells;
   out[offset + 1] = stats.points;
   out[offset + 2] = stats.mean;
@@ -95,5 +102,7 @@ export function decodeStatistics(data: Float64Array, offset: number): EncodedSta
     baselineTotal: data[offset + 24],
     zeroBaselineCells: data[offset + 25],
     pointsInZeroBaselineCells: data[offset + 26],
+    areaChi2PerDf: data[offset + 27],
+    areaVerdict: VERDICTS[data[offset + 28]] ?? null,
   };
 }
