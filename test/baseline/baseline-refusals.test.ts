@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { loadDataset } from '../../server/inputs/index.js';
 import { GridshakeError } from '../../server/errors.js';
+import { writeGeoPackage } from '../inputs/geopackage-writer.js';
 import { run } from '../cli/run-cli.js';
 import { featuresGeoJson, OBSERVED, pointsCsv, polygonFile, rect, STUDY, write } from './baseline-fixtures.js';
 
@@ -111,5 +112,29 @@ describe('baseline refusals', () => {
     expect(result.code).not.toBe(0);
     expect(result.stderr.trim().split('\n')).toHaveLength(1);
     expect(result.stderr).toMatch(/^gridshake: .*pop\.geojson: feature 2: the baseline field 'pop' is negative/);
+  });
+});
+
+describe('baseline polygons from a GeoPackage', () => {
+  const layer = (epsg: number | undefined, residents: (number | string | null)[]) =>
+    writeGeoPackage([{ table: 'blocks', geometryType: 'POLYGON', epsg, geometries: two.map((ring) => ({ type: 'Polygon', coordinates: [ring] })), properties: residents.map((r) => ({ residents: r })) }]);
+  const loadPackage = (bytes: Buffer, crs = 'planar') => () =>
+    loadDataset(
+      {
+        points: { name: 'points.csv', content: pointsCsv(OBSERVED) },
+        area: { name: 'area.geojson', content: polygonFile([STUDY]) },
+        baseline: { name: 'blocks.gpkg', content: new Uint8Array(bytes) },
+      },
+      { crs, baselineField: 'residents' },
+    );
+
+  it('reads the count column of each feature', () => {
+    expect(loadPackage(layer(undefined, [100, 300]))().baseline?.info).toMatchObject({ totalInside: 400, features: 2 });
+  });
+  it('a NULL count names the feature', () => {
+    expect(refusal(loadPackage(layer(undefined, [100, null]))).message).toMatch(/blocks\.gpkg: feature 2: no value in the baseline field 'residents'/);
+  });
+  it('a layer in another EPSG system than the points', () => {
+    expect(refusal(loadPackage(layer(32633, [1, 2]), 'EPSG:32634')).message).toMatch(/blocks\.gpkg: the layer is in EPSG:32633 but the points are in EPSG:32634/);
   });
 });
