@@ -94,6 +94,13 @@ export function formatCount(result: CountResult): string {
     lines.push('');
     lines.push(caveat);
   }
+  if (result.expectedFrom === 'controls') {
+    lines.push('');
+    lines.push(
+      'Read first: the chi-square p below treats the control counts as exact, which overstates significance; the calibrated ' +
+        'test against controls is the Monte Carlo test by random labelling of gridshake sweep --controls FILE --sims 99.',
+    );
+  }
   lines.push('');
   lines.push(verdictSentence(result));
   if (result.pointsInZeroBaselineCells > 0) {

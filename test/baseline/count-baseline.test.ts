@@ -1,3 +1,4 @@
+import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { run } from '../cli/run-cli.js';
 import { featuresGeoJson, OBSERVED, pointsCsv, polygonFile, rect, STUDY, write } from './baseline-fixtures.js';
@@ -155,5 +156,9 @@ describe('count against control points', () => {
     expect(json.chi2).toBeCloseTo(6.16, 10);
     expect(json.pClustered).toBeCloseTo(0.5211963208682182, 12);
     expect(json.baseline).toMatchObject({ kind: 'controls', totalInside: 60 });
+    const text = (await run(['count', '--crs', 'planar', '--cell', '100', '--points', join(dirname(json.baseline.file), 'points.csv'),
+      '--area', join(dirname(json.baseline.file), 'area.geojson'), '--controls', json.baseline.file])).stdout;
+    expect(text).toContain('Read first: the chi-square p below treats the control counts as exact');
+    expect(text.indexOf('Read first: the chi-square p')).toBeLessThan(text.indexOf('The counts do not depart from the population at risk (controls: '));
   });
 });
