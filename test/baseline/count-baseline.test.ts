@@ -162,3 +162,37 @@ describe('count against control points', () => {
     expect(text.indexOf('Read first: the chi-square p')).toBeLessThan(text.indexOf('The counts do not depart from the population at risk (controls: '));
   });
 });
+
+describe('described cells against a baseline (grid exports, report map)', () => {
+  it('left-out zero-weight cells and E_c = N·w_c/Σw in the kept ones', async () => {
+    const { loadDataset } = await import('../../server/inputs/index.js');
+    const { describeCells, createCellCounter } = await import('../../workers/placement/index.js');
+    const { createBaselineWeigher } = await import('../../workers/baseline/baseline-weights.js');
+    const { insideCoordinates } = await import('../../server/inputs/index.js');
+    const dataset = loadDataset(
+      {
+        points: { name: 'points.csv', content: pointsCsv(OBSERVED) },
+        area: { name: 'area.geojson', content: polygonFile([STUDY]) },
+        baseline: { name: 'pop.geojson', content: featuresGeoJson([rect(0, 0, 150, 200), rect(150, 0, 300, 200)], [{ n: 60 }, { n: 90 }]) },
+      },
+      { crs: 'planar', baselineField: 'n' },
+    );
+    const cells = describeCells({
+      counter: createCellCounter(insideCoordinates(dataset), dataset.origin),
+      region: dataset.region,
+      origin: dataset.origin,
+      cellSize: 100,
+      placement: { u: 0, v: 0, angle: 0 },
+      minCoverage: 0.5,
+      baseline: createBaselineWeigher(dataset.baseline!.engine, dataset.origin),
+    });
+    // w: (0,j) 60·10000/30000 = 20, (1,j) 60·5000/30000 + 90·5000/30000 = 25, (2,j) 90·10000/30000 = 30, (3,j) 0 -> left out;
+    // N = 2+3+10+1+4+8 = 28, Σw = 150
+    const byCell = new Map(cells.map((cell) => [`${cell.i},${cell.j}`, cell]));
+    expect(byCell.get('3,0')!.kept).toBe(false);
+    expect(byCell.get('3,0')!.expected).toBeNull();
+    expect(byCell.get('0,0')!.expected).toBeCloseTo((28 * 20) / 150, 9);
+    expect(byCell.get('1,1')!.expected).toBeCloseTo((28 * 25) / 150, 9);
+    expect(byCell.get('2,1')!.expected).toBeCloseTo((28 * 30) / 150, 9);
+  });
+});
