@@ -45,4 +45,7 @@ export const MIGRATIONS: readonly string[] = [
   // 2: placement rows as v8-serialised BLOBs (exact doubles, NaN and infinities, fast to read); older chunks
   // written as JSON text stay readable
   `ALTER TABLE placement_chunks RENAME COLUMN rows_json TO rows_data;`,
+  // 3: the population at risk of a dataset (issue 15), the engine's baseline v8-serialised (typed arrays kept exact);
+  // NULL when expected counts follow area
+  `ALTER TABLE datasets ADD COLUMN baseline BLOB;`,
 ];
