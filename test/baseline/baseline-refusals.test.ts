@@ -138,3 +138,30 @@ describe('baseline polygons from a GeoPackage', () => {
     expect(refusal(loadPackage(layer(32633, [1, 2]), 'EPSG:32634')).message).toMatch(/blocks\.gpkg: the layer is in EPSG:32633 but the points are in EPSG:32634/);
   });
 });
+
+describe('the projection centre', () => {
+  it('is chosen from the points and the study area only: a far-reaching baseline does not move it', () => {
+    const points = 'id,lon,lat\n1,10.10,50.10\n2,10.20,50.20\n3,10.15,50.12\n4,10.12,50.18\n';
+    const area = polygonFile([[[10.05, 50.05], [10.25, 50.05], [10.25, 50.25], [10.05, 50.25], [10.05, 50.05]]]);
+    // one block over the study area and one far to the north-east (outside the valid region: reported, ignored)
+    const baseline = featuresGeoJson(
+      [[[10.0, 50.0], [10.3, 50.0], [10.3, 50.3], [10.0, 50.3], [10.0, 50.0]], [[12.0, 52.0], [12.5, 52.0], [12.5, 52.5], [12.0, 52.5], [12.0, 52.0]]],
+      [{ pop: 100 }, { pop: 50 }],
+    );
+    const without = loadDataset({ points: { name: 'points.csv', content: points }, area: { name: 'area.geojson', content: area } });
+    const withBaseline = loadDataset(
+      { points: { name: 'points.csv', content: points }, area: { name: 'area.geojson', content: area }, baseline: { name: 'pop.geojson', content: baseline } },
+      { baselineField: 'pop' },
+    );
+    expect(withBaseline.projection).toEqual(without.projection);
+    expect(withBaseline.origin).toEqual(without.origin);
+    expect(withBaseline.baseline?.info.outsideFeatures).toEqual([2]);
+    const withControls = loadDataset({
+      points: { name: 'points.csv', content: points },
+      area: { name: 'area.geojson', content: area },
+      controls: { name: 'controls.csv', content: 'id,lon,lat\n1,10.11,50.11\n2,14.0,54.0\n' },
+    });
+    expect(withControls.projection).toEqual(without.projection);
+    expect(withControls.baseline?.info).toMatchObject({ totalInside: 1, controlsOutside: 1 });
+  });
+});
