@@ -18,7 +18,6 @@ import type { Dataset } from '../contracts.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor } from '../sweeps/executor.js';
 import { shareDataset } from '../sweeps/shared-dataset.js';
 import { sweepCancelledError } from '../sweeps/sweep-errors.js';
-import { parameterError } from '../errors.js';
 import { packDataset } from './queue-dataset.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
 import { redisOptions } from './redis-options.js';
@@ -121,9 +120,6 @@ export class QueueExecutor implements SweepExecutor {
 
   /** Uploads the dataset once per content hash (or refreshes its expiry), then waits until a worker is connected. */
   async share(dataset: Dataset, ref: DatasetRef, signal: AbortSignal): Promise<void> {
-    if (dataset.baseline !== undefined) {
-      throw parameterError('the Redis queue executor does not carry a population-at-risk baseline yet: run this sweep on the local pool (without the queue)');
-    }
     await this.guarded(this.start());
     const key = datasetKey(this.prefix, ref.hash);
     const refreshed = await this.guarded(this.redis.expire(key, DATASET_TTL_SECONDS));
