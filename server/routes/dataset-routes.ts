@@ -59,6 +59,22 @@ const GEOMETRY_RESPONSE = {
     pointInside: { type: 'array', items: { type: 'integer' } },
     totalPoints: { type: 'integer' },
     stride: { type: 'integer' },
+    baseline: {
+      type: 'object',
+      properties: {
+        polygons: {
+          type: 'array',
+          items: {
+            type: 'object',
+            properties: {
+              rings: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } },
+              density: { type: 'number' },
+            },
+          },
+        },
+        maxDensity: { type: 'number' },
+      },
+    },
     studyArea: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     noDataZones: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     bbox: BBOX_SCHEMA,

@@ -19,6 +19,27 @@ export interface DatasetGeometry {
   noDataZones: number[][][][];
   bbox: Dataset['region']['bbox'];
   origin: Dataset['origin'];
+  /**
+   * the population-at-risk polygons inside the valid region (p ∩ V, closed rings) with their density P_p / |p ∩ V| per
+   * km², for the map's choropleth (issue 15); absent without baseline polygons
+   */
+  baseline?: { polygons: { rings: number[][][]; density: number }[]; maxDensity: number };
+}
+
+/** The baseline pieces as closed GeoJSON-style rings with their density per km². Cost O(vertices). */
+function baselineLayer(dataset: Dataset): DatasetGeometry['baseline'] {
+  const engine = dataset.baseline?.engine;
+  if (engine === undefined || engine.kind !== 'polygons') return undefined;
+  const polygons = engine.pieces.map((piece, p) => ({
+    rings: piece.rings.map((ring) => {
+      const closed: number[][] = [];
+      for (let k = 0; k < ring.length; k += 2) closed.push([ring[k]!, ring[k + 1]!]);
+      if (closed.length > 0) closed.push([...closed[0]!]);
+      return closed;
+    }),
+    density: (engine.counts[p]! / piece.area) * 1e6,
+  }));
+  return { polygons, maxDensity: Math.max(0, ...polygons.map((polygon) => polygon.density)) };
 }
 
 export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DRAWN_POINTS): DatasetGeometry {
@@ -41,5 +62,6 @@ export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DR
     noDataZones: dataset.noDataZones,
     bbox: dataset.region.bbox,
     origin: dataset.origin,
+    ...(dataset.baseline?.engine.kind === 'polygons' ? { baseline: baselineLayer(dataset) } : {}),
   };
 }

@@ -37,6 +37,12 @@ describe('POST /api/datasets with a baseline', () => {
     expect(response.statusCode, response.body).toBe(201);
     const dataset = response.json();
     expect(dataset.baseline).toMatchObject({ kind: 'polygons', file: 'blocks.geojson', field: 'residents', totalInside: 3645 });
+    // the map's choropleth: each 500 m block (0.25 km²) at residents / 0.25 per km²
+    const geometry = (await app.inject({ method: 'GET', url: `/api/datasets/${dataset.id}/geometry` })).json();
+    expect(geometry.baseline.polygons).toHaveLength(16);
+    expect(geometry.baseline.maxDensity).toBeCloseTo(900 / 0.25, 9);
+    expect(geometry.baseline.polygons.map((polygon: { density: number }) => Math.round(polygon.density))).toContain(80);
+    expect(geometry.baseline.polygons[0].rings[0]).toHaveLength(5);
     const started = await app.inject({
       method: 'POST',
       url: '/api/sweeps',

@@ -5,7 +5,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { polygonFile } from '../baseline/baseline-fixtures.js';
 import { blocksGeoJson, csv, populationPoints, TOWN } from '../baseline/population-fixtures.js';
-import { launchBrowser } from './browser.js';
+import { canvasColourShare, launchBrowser } from './browser.js';
 import { getJson, startPageServer, type PageServer } from './page-server.js';
 
 // The data step's optional "population at risk" upload (issue 15) in headless Chromium against the real server:
@@ -15,6 +15,7 @@ describe('population at risk upload in Chromium', () => {
   let server: PageServer;
   let browser: Browser;
   let page: Page;
+  const errors: string[] = [];
   const folder = mkdtempSync(join(tmpdir(), 'gridshake-baseline-page-'));
   const file = (name: string, content: string): string => {
     const path = join(folder, name);
@@ -26,6 +27,7 @@ describe('population at risk upload in Chromium', () => {
     server = await startPageServer();
     browser = await launchBrowser();
     page = await (await browser.newContext({ viewport: { width: 1280, height: 800 } })).newPage();
+    page.on('pageerror', (error) => errors.push(error.message));
   });
 
   afterAll(async () => {
@@ -51,5 +53,9 @@ describe('population at risk upload in Chromium', () => {
     const datasets = await getJson<{ name: string; baseline?: { field: string; totalInside: number } }[]>(server, '/api/datasets');
     const uploaded = datasets.find((dataset) => dataset.name === 'Town with residents');
     expect(uploaded?.baseline).toMatchObject({ field: 'residents', totalInside: 3645 });
+    // the map shows the population at risk as a choropleth under the points (no grid is chosen yet, so any strong
+    // colour on the map is the choropleth: the study area, the points and the zones are grey or black)
+    await expect.poll(() => canvasColourShare(page, '#map')).toBeGreaterThan(0.05);
+    expect(errors).toEqual([]);
   }, 120_000);
 });

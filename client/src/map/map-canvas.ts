@@ -54,6 +54,7 @@ export class MapCanvas {
     )!;
     const transform = fitTransform(box, width, height, PADDING);
     this.drawPolygons(context, transform, geometry.studyArea, '#eef3f7', NEUTRAL.ink, 1.5);
+    this.drawBaseline(context, transform, geometry);
     this.drawGrid(context, transform);
     const zoneHatch = hatchPattern(context, NEUTRAL.grey, 7, 'rgba(255,255,255,0.85)');
     this.drawPolygons(context, transform, geometry.noDataZones, zoneHatch, NEUTRAL.grey, 1);
@@ -79,6 +80,21 @@ export class MapCanvas {
       context.fill('evenodd');
       context.strokeStyle = stroke;
       context.lineWidth = lineWidth;
+      context.stroke();
+    }
+  }
+
+  /** The population at risk as a choropleth of density per km² (issue 15), under the grid and the points. */
+  private drawBaseline(context: CanvasRenderingContext2D, transform: MapTransform, geometry: DatasetGeometry): void {
+    const layer = geometry.baseline;
+    if (!layer || !(layer.maxDensity > 0)) return;
+    for (const polygon of layer.polygons) {
+      context.beginPath();
+      this.tracePolygon(context, transform, polygon.rings);
+      context.fillStyle = withAlpha(sequentialColour(polygon.density / layer.maxDensity), 0.55);
+      context.fill('evenodd');
+      context.strokeStyle = 'rgba(255,255,255,0.7)';
+      context.lineWidth = 0.6;
       context.stroke();
     }
   }
