@@ -1,8 +1,9 @@
 import { defineConfig } from 'vitest/config';
 
-// The long runs (`npm run test:soak`), not part of CI yet: the kill loop (at least 100 SIGKILLs of a real server
-// process with a restart after each, bounded in time by the test itself; about 25 s a round on a loaded 2-core
-// machine) and the upload-latency check (reads p99 < 50 ms during the largest upload: not met yet, see README).
+// The long runs (`npm run test:soak`), not part of CI (about 20 minutes on the loaded 2-core development machine): the
+// kill loop (at least 100 SIGKILLs of a real server process with a restart after each, bounded in time by the test
+// itself; about 11 s a round there) and the upload-latency check (reads p99 < 50 ms during the largest upload: not
+// met yet, see README).
 export default defineConfig({
   test: {
     include: ['test/soak/**/*.test.ts'],

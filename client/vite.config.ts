@@ -19,7 +19,8 @@ function cleanOwnOutput(): Plugin {
   };
 }
 
-// The analyst's page: built into dist/client and served by the local server. No CDN: chart.js is bundled.
+// The analyst's page: built into dist/client and served by the local server. No CDN: chart.js and the map library
+// (OpenLayers) are bundled, which puts the one chunk near 700 kB.
 export default defineConfig({
   root: fileURLToPath(new URL('.', import.meta.url)),
   base: './',
@@ -28,6 +29,6 @@ export default defineConfig({
     outDir,
     emptyOutDir: false,
     sourcemap: true,
-    chunkSizeWarningLimit: 400,
+    chunkSizeWarningLimit: 760,
   },
 });

@@ -19,6 +19,7 @@ import { registerSweepEventsRoute } from './routes/sweep-events-route.js';
 import { registerSweepExportRoutes } from './routes/sweep-export-routes.js';
 import { registerSweepRoutes } from './routes/sweep-routes.js';
 import { formatValidationErrors } from './routes/validation-message.js';
+import { lazySchemaController } from './routes/lazy-schema-compilers.js';
 import { createHostPolicy } from './security/allowed-hosts.js';
 import { installRequestGuards } from './security/request-guards.js';
 import { DatasetService } from './services/dataset-service.js';
@@ -103,6 +104,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     bodyLimit: JSON_BODY_LIMIT,
     ...serverTimeoutOptions(timeouts),
     ajv: { customOptions: { removeAdditional: false, allErrors: false } },
+    // route schemas compile on first use: a (re)start does not wait for thirty routes' compilers
+    schemaController: lazySchemaController(),
     schemaErrorFormatter: formatValidationErrors,
     return503OnClosing: true,
     // event streams and idle keep-alive sockets must not hold a shutdown

@@ -59,6 +59,11 @@ export function tooFewSimsError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_TOO_FEW_SIMS', message);
 }
 
+/** The Redis queue did not answer within its timeout; the message names the URL and what to check (503). */
+export function queueUnreachableError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_QUEUE_UNREACHABLE', message);
+}
+
 /** CLI exit codes of coded errors other than 1 (the default for a GridshakeError). */
 export const CLI_EXIT_CODES: Readonly<Partial<Record<ErrorCode, number>>> = Object.freeze({ GS_ERR_TOO_FEW_SIMS: 2 });
 

@@ -62,6 +62,8 @@ export const ERROR_CODES = {
   GS_ERR_LISTEN: 500,
   /** the data folder or its database cannot be created, opened or written (disk full, read-only, locked) */
   GS_ERR_STORAGE: 507,
+  /** the Redis queue of `--queue` did not answer within its timeout (503 Service Unavailable, RFC 9110 15.6.4) */
+  GS_ERR_QUEUE_UNREACHABLE: 503,
 } as const satisfies Record<`GS_ERR_${string}`, number>;
 
 export type ErrorCode = keyof typeof ERROR_CODES;

@@ -16,6 +16,7 @@ import { TaskCache } from './sweep/task-cache.js';
 import { unpackBaseline } from './baseline/baseline-buffer.js';
 import { createBaselineWeigher, type BaselineWeigher } from './baseline/baseline-weights.js';
 import { createLabellingSampler, createPolygonSampler, type PatternSampler } from './baseline/baseline-sampler.js';
+import { validPixels, type StabilityRaster } from './stability/stability-raster.js';
 
 interface DatasetEntry {
   region: Region;
@@ -27,6 +28,15 @@ const samplers = new TaskCache<CsrSampler | PatternSampler>();
 const weighers = new TaskCache<BaselineWeigher>();
 // one simulation at a time: its patterns can be large, and a sweep's patterns are not reused by the next
 const simulations = new TaskCache<PatternCounter[]>(1);
+// the valid pixels of a stability raster, per dataset and raster
+const rasterPixels = new TaskCache<Uint32Array>(4);
+
+function stabilityOf(task: ChunkTask, region: Region): { raster: StabilityRaster; pixels: Uint32Array } | undefined {
+  const raster = task.stability;
+  if (raster === undefined) return undefined;
+  const key = `${task.datasetKey}:${raster.x0},${raster.y0},${raster.side},${raster.width},${raster.height}`;
+  return { raster, pixels: rasterPixels.get(key, () => validPixels(region, raster)) };
+}
 
 function runChunk(task: ChunkTask): Float64Array {
   const dataset = datasets.get(task.datasetKey, () => ({
@@ -45,7 +55,7 @@ function runChunk(task: ChunkTask): Float64Array {
   const weigher =
     baseline === undefined ? undefined : weighers.get(baseline.key, () => createBaselineWeigher(unpackBaseline(baseline.buffer), task.origin));
   return evaluateChunk(
-    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha, baseline: weigher },
+    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha, baseline: weigher, stability: stabilityOf(task, dataset.region) },
     task.placements,
   );
 }

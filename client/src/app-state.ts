@@ -2,7 +2,7 @@
  * The page's state, shared by the panels: the chosen dataset and its geometry, the sweep, its summary and rows,
  * the cell size chosen for the detail charts and the placement shown on the map. Panels subscribe to changes.
  */
-import type { PlacementRow, SweepSummary } from '../../server/contracts.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
 import type { DatasetGeometry, GridCollection, HealthInfo, StoredDataset } from './api/api-client.js';
 
 export interface AppState {

@@ -1,7 +1,8 @@
 /** Entry of the analyst's page: connects the panels of the five steps, the map and the cautions to one store. */
+import 'ol/ol.css';
 import { api } from './api/api-client.js';
 import { Store } from './app-state.js';
-import { CAUTIONS } from './charts/cautions.js';
+import { CAUTIONS } from '../../shared/charts/cautions.js';
 import { initDataPanel } from './panels/data-panel.js';
 import { initMapPanel } from './panels/map-panel.js';
 import { initPlanPanel } from './panels/plan-panel.js';
@@ -18,7 +19,7 @@ function byId<T extends HTMLElement>(id: string): T {
 
 const store = new Store();
 byId('cautions-list').replaceChildren(...CAUTIONS.map((caution) => el('li', {}, caution)));
-const pick = initMapPanel(byId<HTMLCanvasElement>('map'), byId('map-caption'), byId('map-legend'), store);
+const pick = initMapPanel(byId('map'), byId('map-caption'), byId('map-legend'), byId('map-tools'), store);
 initDataPanel(byId('data-panel'), store);
 initPlanPanel(byId('plan-panel'), store);
 initRunPanel(byId('run-panel'), store);

@@ -5,6 +5,7 @@
 import { parseArgs } from 'node:util';
 import { parameterError } from '../errors.js';
 import { CELL_SHAPES, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
+import { PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
 
 export interface OptionSpec {
   type: 'string' | 'boolean';
@@ -136,10 +137,10 @@ export function parseShape(raw: string, name = 'shape'): CellShape {
 
 /** Significance level of the two-sided test, (0, 0.5]. */
 export function parseAlpha(raw: string, name = 'alpha'): number {
-  return parseChecked(raw, name, 'a significance level in (0, 0.5]', (v) => v > 0 && v <= 0.5);
+  return parseChecked(raw, name, `a significance level in ${PLAN_RANGE_WORDS.alpha}`, (v) => v > 0 && v <= PLAN_LIMITS.alphaMax);
 }
 
 /** Least coverage a kept cell must have, (0, 1]. */
 export function parseMinCoverage(raw: string, name = 'min-coverage'): number {
-  return parseChecked(raw, name, 'a share of the cell in (0, 1]', (v) => v > 0 && v <= 1);
+  return parseChecked(raw, name, `a share of the cell in ${PLAN_RANGE_WORDS.minCoverage}`, (v) => v > 0 && v <= PLAN_LIMITS.minCoverageMax);
 }

@@ -2,7 +2,7 @@
  * `gridshake count`: the quadrat test for one grid placement and one cell size (shared/design.md, command line).
  * Reads the files, builds the dataset, counts through the engine and prints plain words or one JSON object.
  */
-import { DEFAULT_PLAN } from '../contracts.js';
+import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
 import { parameterError } from '../errors.js';
 import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
 import { assertCellCountWithinLimit } from '../sweeps/plan.js';

@@ -1,5 +1,5 @@
 /** The result of `gridshake count`: one placement's statistics plus what was counted and how (the --json object). */
-import type { BaselineInfo, DatasetSummary, InputWarning, ProjectionInfo } from '../contracts.js';
+import type { BaselineInfo, DatasetSummary, InputWarning, ProjectionInfo } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import type { Placement, PlacementStatistics } from '../../workers/types.js';
 

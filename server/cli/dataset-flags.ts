@@ -3,7 +3,7 @@
  * CSV columns) and the dataset they describe, read from disk and loaded through server/inputs.
  */
 import { DEFAULT_BODY_LIMIT, DEFAULT_MAX_POINTS } from '../limits.js';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { loadDataset } from '../inputs/index.js';
 import {
   optionalString,

@@ -1,12 +1,7 @@
 /** Plain-words rendering of a count result for the terminal: verdict, key numbers, rule of thumb, warnings, caution. */
 import type { CountResult } from './count-result.js';
-import { formatPValue, pPhrase } from '../../shared/p-value.js';
+import { formatP, pPhrase } from '../../shared/format.js';
 import { beyondNull, nullName } from '../summary/null-hypothesis.js';
-
-/** A p-value for reading (shared/p-value.ts): "< 1e-300" below the smallest double, never "0". */
-export function formatP(p: number): string {
-  return formatPValue(p);
-}
 
 const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? value.toFixed(digits) : String(value));
 

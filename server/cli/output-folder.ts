@@ -147,7 +147,7 @@ export function checkOutputFolder(path: string, names: readonly string[]): () =>
  * Writes the output files into a folder checked by checkOutputFolder; a failure now (a disk that filled during
  * the sweep) is one line naming the file.
  */
-export function writeOutputs(path: string, files: ReadonlyArray<readonly [name: string, content: string]>): void {
+export function writeOutputs(path: string, files: ReadonlyArray<readonly [name: string, content: string | Uint8Array]>): void {
   for (const [name, content] of files) {
     try {
       writeFileSync(join(path, name), content);

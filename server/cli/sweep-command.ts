@@ -3,10 +3,13 @@
  * test (shared/design.md, "Command line"). Writes placements.csv, summary.json and report.html to --out, shows a
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
-import type { Plan, SweepProgress } from '../contracts.js';
+import type { Plan, SweepProgress } from '../../shared/contracts.js';
 import { renderReport } from '../report/render-report.js';
 import { reportMap } from '../report/report-map.js';
-import { normalizePlan } from '../sweeps/plan.js';
+import { normalizePlan, planShapes, resolveCellSizes } from '../sweeps/plan.js';
+import { DEFAULT_PLAN, PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
+import { stabilityFileNames, stabilityFiles } from '../stability/stability-files.js';
+import { stabilityLines } from '../stability/stability-notes.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
 import { isAbortError } from '../sweeps/sweep-errors.js';
 import { SweepPool } from '../sweeps/sweep-pool.js';
@@ -30,15 +33,15 @@ import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
 
 const OPTIONS: OptionSpecs = {
   ...DATASET_OPTIONS,
-  cells: { type: 'string', value: 'M,M,...', description: 'cell sides in metres (up to 16)' },
+  cells: { type: 'string', value: 'M,M,...', description: `cell sides in metres (up to ${PLAN_LIMITS.maxCellSizes})` },
   'per-cell': { type: 'string', value: 'K,K,...', description: 'expected points per cell, turned into sides sqrt(K A / n)' },
-  placements: { type: 'string', value: 'N', description: 'placements per cell size, 1..65536; default 256' },
+  placements: { type: 'string', value: 'N', description: `placements per cell size, ${PLAN_RANGE_WORDS.placements}; default ${DEFAULT_PLAN.placements}` },
   'no-rotation': { type: 'boolean', description: 'offsets only, every grid at angle 0' },
   design: { type: 'string', value: 'D', description: "placement design: 'halton' (default) or 'lattice'" },
-  'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
-  alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
-  sims: { type: 'string', value: 'R', description: 'simulated CSR patterns for the Monte Carlo test, 0..9999; default 99' },
-  seed: { type: 'string', value: 'S', description: 'seed of the simulations, an integer; default 1' },
+  'min-coverage': { type: 'string', value: 'T', description: `least share of a cell in the valid region, ${PLAN_RANGE_WORDS.minCoverage}; default ${DEFAULT_PLAN.minCoverage}` },
+  alpha: { type: 'string', value: 'A', description: `two-sided significance level, ${PLAN_RANGE_WORDS.alpha}; default ${DEFAULT_PLAN.alpha}` },
+  sims: { type: 'string', value: 'R', description: `simulated CSR patterns for the Monte Carlo test, ${PLAN_RANGE_WORDS.sims}; default ${DEFAULT_PLAN.sims}` },
+  seed: { type: 'string', value: 'S', description: `seed of the simulations, an integer; default ${DEFAULT_PLAN.seed}` },
   shape: {
     type: 'string',
     value: 'SHAPE',
@@ -55,11 +58,11 @@ function planFromFlags(values: OptionValues): Plan {
   const input: Record<string, unknown> = { rotation: values['no-rotation'] !== true };
   if (text('cells') !== undefined) input.cells = parsePositiveList(text('cells') as string, 'cells');
   if (text('per-cell') !== undefined) input.perCell = parsePositiveList(text('per-cell') as string, 'per-cell');
-  if (text('placements') !== undefined) input.placements = parseWholeNumber(text('placements') as string, 'placements', 1);
+  if (text('placements') !== undefined) input.placements = parseWholeNumber(text('placements') as string, 'placements', PLAN_LIMITS.placements.min);
   if (text('design') !== undefined) input.design = text('design');
   if (text('min-coverage') !== undefined) input.minCoverage = parseMinCoverage(text('min-coverage') as string);
   if (text('alpha') !== undefined) input.alpha = parseAlpha(text('alpha') as string);
-  if (text('sims') !== undefined) input.sims = parseWholeNumber(text('sims') as string, 'sims', 0);
+  if (text('sims') !== undefined) input.sims = parseWholeNumber(text('sims') as string, 'sims', PLAN_LIMITS.sims.min);
   if (text('seed') !== undefined) input.seed = parseNumber(text('seed') as string, 'seed', 'an integer');
   const shape = text('shape');
   if (shape !== undefined) {
@@ -94,6 +97,10 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   const createOutDir = checkOutputFolder(outDir, SWEEP_OUTPUTS);
   const queue = queueFromOptions(values);
   const dataset = loadDatasetFromFlags(values);
+  // the stability files' names depend on the cell sides, known once the dataset is read (--per-cell)
+  const shapes = planShapes(plan);
+  const sides = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
+  checkOutputFolder(outDir, shapes.flatMap((shape) => sides.flatMap((side) => stabilityFileNames(side, shape, shapes.length > 1))));
   const pool =
     queue === null
       ? new SweepPool({ threads: threadCount })
@@ -103,7 +110,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   process.once('SIGINT', onInterrupt);
   const progress = progressWriter(io);
   try {
-    const { rows, summary } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update });
+    const { rows, summary, stability } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update, stability: true });
     progress.end();
     createOutDir();
     const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
@@ -111,13 +118,14 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
       [csvName, placementsToCsv(rows, { summary })],
       [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
       [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
+      ...stabilityFiles(stability, summary.stability ?? [], dataset.projection, dataset.name),
     ]);
     // warnings first: a warning that makes a p-value meaningless is read before the p-value; the dataset's
     // warnings (first in the list) in the command line's words
     summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));
     const lines = [...summary.sizes.map((size) => size.conclusion), '', summary.conclusion];
-    io.stdout(`${lines.join('\n')}\n`);
-    io.stderr(`wrote placements.csv, summary.json and report.html to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
+    io.stdout(`${[...lines, '', ...stabilityLines(stability)].join('\n')}\n`);
+    io.stderr(`wrote placements.csv, summary.json, report.html and the stability surfaces (stability-<side>m.tif, excess-areas-<side>m.geojson) to ${outDir} (${summary.timings.seconds.toFixed(1)} s)\n`);
     return 0;
   } catch (error) {
     progress.end();

@@ -1,5 +1,5 @@
 /** The one-line progress bar of `gridshake sweep` (stderr). */
-import type { SweepProgress } from '../contracts.js';
+import type { SweepProgress } from '../../shared/contracts.js';
 
 const WIDTH = 30;
 

@@ -8,7 +8,7 @@ import { createCellCounter, describeCellGrid, type CellGrid } from '../../worker
 import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
 import type { Placement } from '../../workers/types.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { gridTooLargeError } from '../errors.js';
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
 

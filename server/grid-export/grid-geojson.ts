@@ -9,7 +9,7 @@
  */
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { cellAt, type CellDescription, type CellGrid } from '../../workers/placement/index.js';
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo } from '../../shared/contracts.js';
 import { parameterError } from '../errors.js';
 import type { GridRequest } from './grid-cells.js';
 import { lonLatRing } from './lonlat-ring.js';

@@ -12,7 +12,7 @@
 import Database from 'better-sqlite3';
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { cellAt, type CellGrid } from '../../workers/placement/index.js';
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo } from '../../shared/contracts.js';
 import type { GridRequest } from './grid-cells.js';
 import { workingSystem } from './working-system.js';
 

@@ -4,7 +4,7 @@
  * reference system row a GeoPackage needs (an EPSG code, or the local equal-area projection's WKT).
  */
 import proj4 from 'proj4';
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo } from '../../shared/contracts.js';
 import { describeProjection, metresPerUnit } from '../inputs/describe-projection.js';
 import { epsgDefinition } from '../inputs/epsg-definition.js';
 

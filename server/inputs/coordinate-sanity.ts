@@ -11,7 +11,7 @@
  * Cost O(n + polygon vertices) plus a handful of proj4 calls.
  */
 import proj4 from 'proj4';
-import type { InputWarning } from '../contracts.js';
+import type { InputWarning } from '../../shared/contracts.js';
 import { inputError } from '../errors.js';
 import type { CoordinateSystem } from './coordinate-system.js';
 import { epsgDefinition } from './epsg-definition.js';

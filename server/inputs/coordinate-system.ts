@@ -10,7 +10,7 @@
  * centred on the data, so that areas, and hence expected counts, are right.
  */
 import proj4 from 'proj4';
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo } from '../../shared/contracts.js';
 import { inputError, parameterError } from '../errors.js';
 import type { CoordinateKind } from './column-names.js';
 import { epsgDefinition } from './epsg-definition.js';

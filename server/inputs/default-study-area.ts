@@ -2,7 +2,7 @@
  * The default study area when none is given: the points' bounding box, widened on its upper sides by a hair
  * (1e-9 of its extent) so that the extreme points are inside (cells and the inside test are half-open).
  */
-import type { InputWarning } from '../contracts.js';
+import type { InputWarning } from '../../shared/contracts.js';
 import { inputError } from '../errors.js';
 import { defaultAreaWarning } from './input-warnings.js';
 import type { LabelledRings } from './valid-region.js';

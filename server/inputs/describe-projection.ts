@@ -4,7 +4,7 @@
  * from its own outputs.
  */
 import proj4 from 'proj4';
-import type { ProjectionInfo } from '../contracts.js';
+import type { ProjectionInfo } from '../../shared/contracts.js';
 
 /** Metres per unit of a proj4 definition (1 unless it says +units=us-ft, +to_meter=...). */
 export function metresPerUnit(definition: string): number {

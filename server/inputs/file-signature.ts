@@ -7,7 +7,7 @@
  * gzip 1F 8B (RFC 1952); PDF "%PDF-". GeoPackage (SQLite) files are read, not refused: see geopackage/.
  */
 import { inputError } from '../errors.js';
-import type { InputFile } from './input-file.js';
+import type { InputFile } from './input-file-type.js';
 
 const EXPORT_TEXT = 'export the points as CSV (UTF-8, with a header row) or GeoJSON, or the layer as a GeoPackage (also accepted)';
 

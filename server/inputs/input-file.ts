@@ -4,11 +4,9 @@
  */
 import { inputError } from '../errors.js';
 import { refuseForeignFormat } from './file-signature.js';
+import type { InputFile } from './input-file-type.js';
 
-export interface InputFile {
-  name: string;
-  content: string | Uint8Array;
-}
+export type { InputFile } from './input-file-type.js';
 
 const BYTE_ORDER_MARK = '\uFEFF';
 export const SQLITE_MAGIC = 'SQLite format 3';

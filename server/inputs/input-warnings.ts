@@ -1,5 +1,5 @@
 /** Builders of the InputWarning objects the inputs attach to a dataset (never silent: the CLI prints them all). */
-import type { InputWarning } from '../contracts.js';
+import type { InputWarning } from '../../shared/contracts.js';
 import { fieldRef, renderMessage } from '../messages/field-names.js';
 
 /** A warning worded for the page (message) and for the command line (cliMessage) from one text. */

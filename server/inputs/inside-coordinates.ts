@@ -1,5 +1,5 @@
 /** The coordinates (interleaved x, y) of a dataset's points inside the valid region: the only ones ever counted. */
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 
 /** Gathers xy[inside[k]] in the order of `inside`. Cost O(n inside). */
 export function insideCoordinates(dataset: Pick<Dataset, 'xy' | 'inside'>): Float64Array {

@@ -14,7 +14,7 @@ import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
 import { BASELINE_SHARE_NOISE, type Baseline } from '../../workers/baseline/baseline.js';
 import type { Region } from '../../workers/types.js';
-import type { BaselineInfo, InputWarning } from '../contracts.js';
+import type { BaselineInfo, InputWarning } from '../../shared/contracts.js';
 import { baselineError, GridshakeError } from '../errors.js';
 import type { CoordinateSystem, Projector } from './coordinate-system.js';
 import type { InputFile } from './input-file.js';

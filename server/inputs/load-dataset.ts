@@ -3,7 +3,7 @@
  * the engine. Pure apart from reading the EPSG definitions package; the CLI reads files, the server passes uploads.
  */
 import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
-import type { Dataset, InputWarning } from '../contracts.js';
+import type { Dataset, InputWarning } from '../../shared/contracts.js';
 import { baselineError, inputError, tooLargeError } from '../errors.js';
 import { checkCoordinateSanity } from './coordinate-sanity.js';
 import { readPolygonFeatures } from './read-polygon-file.js';

@@ -1,5 +1,5 @@
 /** summarizeDataset: counts, areas and suggested cell sizes of a loaded dataset, for the API and the CLI. */
-import type { Dataset, DatasetSummary } from '../contracts.js';
+import type { Dataset, DatasetSummary } from '../../shared/contracts.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 import { describeProjection } from './describe-projection.js';
 import { multiPolygonArea, multiPolygonBBox } from './planar-rings.js';

@@ -8,15 +8,22 @@
  * after BullMQ's stall detection, a parameter error fails at once; while Redis does not answer for `lostAfterMs`
  * the tasks in flight reject with a message naming the URL, and cancelled tasks are removed from Redis (a task a
  * worker holds is waited for, then its result deleted).
+ *
+ * Connections: the executor's own ioredis client connects first; BullMQ's Queue and QueueEvents are made only once it
+ * has answered (startBullmq). BullMQ 5 re-emits a connection's failed start as an 'error' after close() removed every
+ * listener, which surfaces as an unhandled ECONNREFUSED rejection when a Queue made against an unreachable Redis is
+ * closed while a reconnect is under way; made after Redis answered, and told not to wait for their own first answer
+ * (skipWaitingForReady, skipVersionCheck: the version is checked here), their start cannot fail.
  */
 import { createRequire } from 'node:module';
 import { randomBytes } from 'node:crypto';
 import { setTimeout as sleep } from 'node:timers/promises';
-import { Queue, QueueEvents } from 'bullmq';
+import { Queue, QueueEvents, RedisConnection } from 'bullmq';
 import { Redis } from 'ioredis';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor } from '../sweeps/executor.js';
 import { shareDataset } from '../sweeps/shared-dataset.js';
+import { queueUnreachableError } from '../errors.js';
 import { sweepCancelledError } from '../sweeps/sweep-errors.js';
 import { packDataset } from './queue-dataset.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
@@ -78,9 +85,10 @@ export class QueueExecutor implements SweepExecutor {
   readonly display: string;
   private readonly prefix: string;
   private readonly lostAfterMs: number;
+  private readonly connection: QueueConnection;
   private readonly redis: Redis;
-  private readonly queue: Queue;
-  private readonly events: QueueEvents;
+  private bullmq: { queue: Queue; events: QueueEvents } | null = null;
+  private readyWait: Promise<void> | null = null;
   private readonly pending = new Map<string, PendingTask>();
   private readonly waiters = new Set<Waiter>();
   private readonly runId = randomBytes(6).toString('hex');
@@ -99,21 +107,11 @@ export class QueueExecutor implements SweepExecutor {
     this.threads = this.maxInFlight;
     this.lostAfterMs = options.lostAfterMs ?? lostAfterFromEnv();
     this.onNotice = options.onNotice ?? (() => undefined);
-    const connection = redisOptions(options.connection, undefined, 1000);
-    this.redis = new Redis({ ...connection, lazyConnect: true });
+    this.connection = options.connection;
+    this.redis = new Redis({ ...redisOptions(options.connection, undefined, 1000), lazyConnect: true });
     this.redis.on('error', (error: Error) => {
       this.lastError = error.message;
     });
-    this.queue = new Queue(TASK_QUEUE, { connection, prefix: BULL_PREFIX });
-    this.queue.on('error', (error: Error) => {
-      this.lastError = error.message;
-    });
-    this.events = new QueueEvents(TASK_QUEUE, { connection, prefix: BULL_PREFIX, autorun: false });
-    this.events.on('error', (error: Error) => {
-      this.lastError = error.message;
-    });
-    this.events.on('completed', ({ jobId }) => this.completed(jobId));
-    this.events.on('failed', ({ jobId, failedReason }) => this.failed(jobId, failedReason));
     this.watchdog = setInterval(() => this.checkConnection(), 250);
     this.watchdog.unref();
   }
@@ -148,11 +146,12 @@ export class QueueExecutor implements SweepExecutor {
       minCoverage: work.minCoverage,
       alpha: work.alpha,
       placements: encodePlacements(work.placements),
+      ...(work.stability === undefined ? {} : { stability: work.stability }),
     };
     const result = new Promise<Float64Array>((resolve, reject) => {
       const task: PendingTask = { jobId, added: Promise.resolve(), cancelled: false, resolve, reject };
       this.pending.set(jobId, task);
-      task.added = this.queue
+      task.added = this.bullQueue()
         .add('chunk', data, { jobId, attempts: TASK_ATTEMPTS, removeOnComplete: true, removeOnFail: true })
         .catch((error: unknown) => {
           this.pending.delete(jobId);
@@ -188,35 +187,81 @@ export class QueueExecutor implements SweepExecutor {
     this.closed = true;
     clearInterval(this.watchdog);
     const quit = async (close: () => Promise<unknown>): Promise<void> => {
-      await Promise.race([close().catch(() => undefined), sleep(2000)]);
+      await Promise.race([close().catch(() => undefined), sleep(2000, undefined, { ref: false })]);
     };
-    await Promise.all([quit(() => this.events.close()), quit(() => this.queue.close())]);
+    const bullmq = this.bullmq;
+    if (bullmq !== null) await Promise.all([quit(() => bullmq.events.close()), quit(() => bullmq.queue.close())]);
+    // quit answers at once when the client is not connected; disconnect stops its reconnect timer in every state
     await quit(() => this.redis.quit());
     this.redis.disconnect();
   }
 
+  /** Connects (once Redis answers) and makes BullMQ's queue and event reader; a failed start is tried again by the next sweep. */
   private start(): Promise<void> {
     this.started ??= (async () => {
-      await this.redis.connect().catch((error: Error) => {
-        this.lastError = error.message;
-      });
-      void this.events.run().catch((error: Error) => {
-        this.lastError = error.message;
-      });
-      await this.events.waitUntilReady();
-      await this.queue.waitUntilReady();
+      if (this.redis.status === 'wait') {
+        // a refused first connection is retried by the client itself (retryStrategy); the watchdog bounds the wait
+        this.redis.connect().catch((error: Error) => {
+          this.lastError = error.message;
+        });
+      }
+      await this.whenReady();
+      if (this.bullmq === null && !this.closed) await this.startBullmq();
     })();
-    // a failed start is tried again by the next sweep
     this.started.catch(() => {
       this.started = null;
     });
     return this.started;
   }
 
+  /** Resolves when the executor's own client is connected and has answered its ready check. */
+  private whenReady(): Promise<void> {
+    if (this.redis.status === 'ready') return Promise.resolve();
+    this.readyWait ??= new Promise<void>((resolve) => {
+      this.redis.once('ready', () => {
+        this.readyWait = null;
+        resolve();
+      });
+    });
+    return this.readyWait;
+  }
+
+  /** BullMQ's Queue and QueueEvents, made once the executor's own client has answered (see the file comment). */
+  private async startBullmq(): Promise<void> {
+    const info = await this.redis.info('server');
+    const version = /^redis_version:(\S+)/m.exec(info)?.[1] ?? '0';
+    if (versionBelow(version, RedisConnection.minimumVersion)) {
+      throw new Error(`the Redis at ${this.display} is version ${version}; BullMQ needs ${RedisConnection.minimumVersion} or newer (Redis 7 recommended)`);
+    }
+    if (this.bullmq !== null || this.closed) return;
+    const options = { connection: redisOptions(this.connection, undefined, 1000), prefix: BULL_PREFIX, skipWaitingForReady: true, skipVersionCheck: true };
+    const queue = new Queue(TASK_QUEUE, options);
+    queue.on('error', (error: Error) => {
+      this.lastError = error.message;
+    });
+    // read the event stream from its present end, however late the reader's first XREAD reaches Redis
+    const last = await this.redis.xrevrange(queue.keys.events, '+', '-', 'COUNT', 1).catch(() => []);
+    const events = new QueueEvents(TASK_QUEUE, { ...options, autorun: false, lastEventId: last[0]?.[0] ?? '0' });
+    events.on('error', (error: Error) => {
+      this.lastError = error.message;
+    });
+    events.on('completed', ({ jobId }) => this.completed(jobId));
+    events.on('failed', ({ jobId, failedReason }) => this.failed(jobId, failedReason));
+    events.run().catch((error: Error) => {
+      this.lastError = error.message;
+    });
+    this.bullmq = { queue, events };
+  }
+
+  private bullQueue(): Queue {
+    if (this.bullmq === null) throw new Error('the queue executor was used before share()');
+    return this.bullmq.queue;
+  }
+
   private async waitForWorkers(signal: AbortSignal): Promise<void> {
     let told = false;
     for (;;) {
-      const workers = await this.guarded(this.queue.getWorkersCount());
+      const workers = await this.guarded(this.bullQueue().getWorkersCount());
       if (workers > 0) {
         if (told) this.onNotice(`a worker connected to ${this.display}; sending tasks`);
         return;
@@ -236,7 +281,7 @@ export class QueueExecutor implements SweepExecutor {
     task.cancelled = true;
     await task.added;
     if (!this.pending.has(task.jobId)) return;
-    const removed = await this.queue.remove(task.jobId).catch(() => 0);
+    const removed = await this.bullQueue().remove(task.jobId).catch(() => 0);
     if (removed === 1) {
       this.pending.delete(task.jobId);
       task.reject(sweepCancelledError());
@@ -301,9 +346,21 @@ export class QueueExecutor implements SweepExecutor {
 
   private lostError(): Error {
     const seconds = Math.round(this.lostAfterMs / 1000);
-    return new Error(
+    return queueUnreachableError(
       `the Redis queue at ${this.display} did not answer for ${seconds} s (${this.lastError}); check that Redis runs there, ` +
         'that this machine can reach it (address, port, firewall, TLS) and the password; the sweep was stopped',
     );
   }
+}
+
+/** Whether the dotted version `version` is below `minimum` (numeric parts compared left to right). */
+function versionBelow(version: string, minimum: string): boolean {
+  const a = version.split('.').map(Number);
+  const b = minimum.split('.').map(Number);
+  for (let k = 0; k < Math.max(a.length, b.length); k++) {
+    const x = a[k] ?? 0;
+    const y = b[k] ?? 0;
+    if (x !== y) return x < y;
+  }
+  return false;
 }

@@ -3,11 +3,13 @@
  * (server/sweeps/local-executor.ts, the same engine and task entry as a local sweep). Each dataset is fetched from
  * Redis once and kept (the last two), each simulation (dataset, seed, sims) drawn once and kept (the last one).
  * A stop (SIGTERM) finishes the tasks in hand, then exits. An unreachable Redis is reported and retried with
- * backoff (redis-options.ts).
+ * backoff (redis-options.ts) by the worker's own client; BullMQ's Worker is made once that client has connected, so
+ * that no BullMQ connection ever starts against an unreachable Redis (see queue-executor.ts: BullMQ 5 can leave an
+ * unhandled rejection when such a connection is closed).
  */
 import { Worker, UnrecoverableError, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { DatasetRef, SimulationRef } from '../sweeps/executor.js';
 import { LocalExecutor } from '../sweeps/local-executor.js';
 import { simulateTasks } from '../sweeps/sweep-runner.js';
@@ -45,7 +47,8 @@ export function lockFromEnv(env: Record<string, string | undefined> = process.en
 export class QueueWorker {
   private readonly executor: LocalExecutor;
   private readonly redis: Redis;
-  private readonly worker: Worker;
+  private worker: Worker | null = null;
+  private closing = false;
   private readonly datasets = new Map<string, Promise<DatasetRef>>();
   private simulation: { key: string; ready: Promise<SimulationRef> } | null = null;
   private lastError = 'no answer';
@@ -63,8 +66,14 @@ export class QueueWorker {
     this.redis.on('error', (error: Error) => {
       this.lastError = error.message;
     });
-    this.redis.on('ready', () => log(`connected to ${connection.display}; taking sweep tasks on ${this.executor.threads} threads`));
-    this.worker = new Worker(TASK_QUEUE, (job) => this.process(job), {
+    this.redis.on('ready', () => {
+      log(`connected to ${connection.display}; taking sweep tasks on ${this.executor.threads} threads`);
+      if (this.worker === null && !this.closing) this.worker = this.startWorker(connection, lockMs, log);
+    });
+  }
+
+  private startWorker(connection: QueueConnection, lockMs: number, log: (line: string) => void): Worker {
+    const worker = new Worker(TASK_QUEUE, (job) => this.process(job), {
       connection: redisOptions(connection),
       prefix: BULL_PREFIX,
       concurrency: this.executor.threads,
@@ -72,12 +81,13 @@ export class QueueWorker {
       stalledInterval: lockMs,
       maxStalledCount: 2,
     });
-    this.worker.on('error', (error: Error) => {
+    worker.on('error', (error: Error) => {
       this.lastError = error.message;
     });
-    this.worker.on('failed', (job: Job | undefined, error: Error) => {
+    worker.on('failed', (job: Job | undefined, error: Error) => {
       if (job !== undefined) log(`task ${job.id} failed (try ${job.attemptsMade}): ${error.message}`);
     });
+    return worker;
   }
 
   get threads(): number {
@@ -90,7 +100,8 @@ export class QueueWorker {
 
   /** Finishes the tasks in hand and disconnects. */
   async close(): Promise<void> {
-    await this.worker.close();
+    this.closing = true;
+    await this.worker?.close();
     await this.executor.destroy();
     await this.redis.quit().catch(() => undefined);
     this.redis.disconnect();
@@ -112,6 +123,7 @@ export class QueueWorker {
           minCoverage: task.minCoverage,
           alpha: task.alpha,
           placements: task.placementValues,
+          ...(task.stability === undefined ? {} : { stability: task.stability }),
         },
         new AbortController().signal,
       );

@@ -5,6 +5,7 @@
  * (workers/sweep/sweep-task.ts layout), stored as raw bytes under the task's result key.
  */
 import { isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
+import type { StabilityRaster } from '../../workers/stability/stability-raster.js';
 
 export const TASK_FORMAT = 1;
 
@@ -22,6 +23,8 @@ export interface QueueTaskData {
   alpha: number;
   /** base64 of the placements' float64 bytes (u, v, angle triples) */
   placements: string;
+  /** the stability surface's raster (absent: no surface) */
+  stability?: StabilityRaster;
 }
 
 export function encodePlacements(placements: Float64Array): string {

@@ -2,10 +2,10 @@
  * The methods paragraphs of the report, written from the actual run: what was varied, how no-data and partial
  * cells were handled, how the p-values were calibrated, with the references. Plain text; the renderer escapes it.
  */
-import type { SweepSummary } from '../contracts.js';
+import type { SweepSummary } from '../../shared/contracts.js';
 import { OVERALL_TEST_METHOD } from '../summary/overall-test.js';
 import { nullName } from '../summary/null-hypothesis.js';
-import { formatMetres, formatNumber } from '../../client/src/charts/format.js';
+import { formatMetres, formatNumber } from '../../shared/format.js';
 
 export interface Reference {
   key: string;

@@ -3,12 +3,13 @@
  * written from the run, versions and seed, cautions. Self-contained (chart.js and CSS inline, no network), prints
  * cleanly to PDF. Used by `gridshake sweep --out` and GET /api/sweeps/:id/report.html.
  */
-import type { PlacementRow, SweepSummary } from '../contracts.js';
-import { CAUTIONS } from '../../client/src/charts/cautions.js';
-import { overviewBundles, sizeBundles } from '../../client/src/charts/chart-bundles.js';
-import type { ChartBundle, ChartSpec } from '../../client/src/charts/chart-spec.js';
-import { formatMetres } from '../../client/src/charts/format.js';
-import { sizeNumbers } from '../../client/src/charts/size-numbers.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
+import { CAUTIONS } from '../../shared/charts/cautions.js';
+import { overviewBundles, sizeBundles } from '../../shared/charts/chart-bundles.js';
+import type { ChartBundle, ChartSpec } from '../../shared/charts/chart-spec.js';
+import { formatMetres } from '../../shared/format.js';
+import { sizeNumbers } from '../../shared/charts/size-numbers.js';
+import { orderSizes } from '../../shared/charts/size-label.js';
 import { chartLibrarySource } from './chart-library.js';
 import { escapeHtml } from './html-escape.js';
 import { htmlTable } from './html-table.js';
@@ -17,6 +18,7 @@ import { baselineComparisonSection, datasetSection, monteCarloSection, planSecti
 import { REPORT_CHART_SIZE, reportChartScript } from './report-script.js';
 import { REPORT_CSS } from './report-styles.js';
 import { reportMapSvg, type ReportMap } from './report-map.js';
+import { stabilitySection } from './stability-section.js';
 
 /** Long tables (one row per placement or offset bin) are folded away on screen and left out of print. */
 const FOLD_TABLE_ROWS = 12;
@@ -45,8 +47,7 @@ function sizeSection(summary: SweepSummary, rows: readonly PlacementRow[], sizeI
 /** Renders the whole report as one HTML string; with `map` (report-map.ts) it holds the map figure. */
 export function renderReport(summary: SweepSummary, rows: PlacementRow[], map?: ReportMap): string {
   const overview = overviewBundles(summary);
-  const perSize = [...summary.sizes]
-    .sort((a, b) => a.cellSize - b.cellSize)
+  const perSize = orderSizes(summary.sizes)
     .map((size) => ({ sizeIndex: size.sizeIndex, bundles: sizeBundles(summary, rows, size.sizeIndex) }));
   const specs: Record<string, ChartSpec> = {};
   for (const bundle of [...overview, ...perSize.flatMap((entry) => entry.bundles)]) specs[bundle.id] = bundle.spec;
@@ -74,6 +75,7 @@ ${planSection(summary)}
 <section><h2>Results across cell sizes</h2>${sizeTable(summary)}${overview.map(figure).join('\n')}</section>
 ${baselineComparisonSection(summary)}
 ${monteCarloSection(summary)}
+${stabilitySection(summary, map)}
 ${perSize.map((entry) => sizeSection(summary, rows, entry.sizeIndex, entry.bundles)).join('\n')}
 <section><h2>Methods</h2>${methods.paragraphs.map((paragraph) => `<p>${escapeHtml(paragraph)}</p>`).join('\n')}
 <h3>References</h3><ol>${methods.references.map((reference) => `<li>${escapeHtml(reference)}</li>`).join('')}</ol></section>

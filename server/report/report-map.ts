@@ -8,8 +8,8 @@
 import { describeCellGrid, createCellCounter, cellAt } from '../../workers/placement/index.js';
 import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
 import { gridExtent } from '../../workers/geometry/coverage.js';
-import type { Dataset, SweepSummary } from '../contracts.js';
-import { formatMetres } from '../../client/src/charts/format.js';
+import type { Dataset, SweepSummary } from '../../shared/contracts.js';
+import { formatMetres } from '../../shared/format.js';
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
 import { escapeHtml } from './html-escape.js';
 

@@ -2,8 +2,8 @@
  * The inline script of the report: draws every chart from its embedded JSON spec with the bundled chart.js, using
  * the same runtime helpers as the page (their source text is embedded, so the definitions are shared).
  */
-import { hydrateChartSpec, whiteBackgroundPlugin } from '../../client/src/charts/chart-runtime.js';
-import type { ChartSpec } from '../../client/src/charts/chart-spec.js';
+import { hydrateChartSpec, whiteBackgroundPlugin } from '../../shared/charts/chart-runtime.js';
+import type { ChartSpec } from '../../shared/charts/chart-spec.js';
 import { jsonForScript } from './html-escape.js';
 
 /** Canvas size of report charts (CSS pixels); fixed so that print and screen draw the same picture. */

@@ -1,8 +1,10 @@
 /** The text sections of the report: dataset, plan, per-size table, Monte Carlo results, versions. */
-import type { SweepSummary } from '../contracts.js';
-import { formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
-import { datasetSummaryEntries, warningRecords } from '../../client/src/charts/dataset-entries.js';
-import { warningTitle } from '../messages/warning-titles.js';
+import type { SweepSummary } from '../../shared/contracts.js';
+import { formatMetres, formatNumber, formatP, formatPercent } from '../../shared/format.js';
+import { sideLabel } from '../../shared/charts/size-label.js';
+import { monteCarloTableData, sizeTableData } from '../../shared/charts/size-tables.js';
+import { datasetSummaryEntries, warningRecords } from '../../shared/charts/dataset-entries.js';
+import { warningTitle } from '../../shared/messages/warning-titles.js';
 import { escapeHtml } from './html-escape.js';
 import { definitionTable, htmlTable } from './html-table.js';
 import { nullName } from '../summary/null-hypothesis.js';
@@ -16,11 +18,6 @@ export function datasetSection(summary: SweepSummary): string {
         .map((warning) => `<li><strong>${escapeHtml(warningTitle(warning.code))}:</strong> ${escapeHtml(warning.message + warningRecords(warning))}</li>`)
         .join('')}</ul>`;
   return `<section><h2>Dataset</h2>${definitionTable('Dataset summary', entries)}<h3>Input warnings</h3>${warnings}</section>`;
-}
-
-/** A size entry's side in tables: "90" for squares, "90 hexagons" for hexagons of area 90^2 m^2. */
-export function sideLabel(size: Pick<SweepSummary['sizes'][number], 'cellSize' | 'shape'>): string {
-  return `${formatMetres(size.cellSize)}${size.shape === 'hex' ? ' hexagons' : ''}`;
 }
 
 /** The distinct cell sides of a sweep, in plan order (a sweep of two shapes lists each side once). */
@@ -50,24 +47,8 @@ export function planSection(summary: SweepSummary): string {
 }
 
 export function sizeTable(summary: SweepSummary): string {
-  const rows = [...summary.sizes]
-    .sort((a, b) => a.cellSize - b.cellSize)
-    .map((size) => [
-      sideLabel(size),
-      formatNumber(size.expectedPerCell),
-      String(size.placements),
-      formatNumber(size.chi2PerDf.p50),
-      `${formatNumber(size.chi2PerDf.p5)} to ${formatNumber(size.chi2PerDf.p95)}`,
-      formatNumber(size.vmr.p50),
-      formatPercent(size.verdictShares.clustered),
-      formatPercent(size.verdictShares.csr),
-      formatPercent(size.verdictShares.regular),
-      formatPercent(size.agreement),
-      `${formatNumber(size.reference.vmr)} (${formatPercent(size.referenceRank)})`,
-      formatP(size.monteCarlo?.pMedianClustered),
-    ]);
-  const head = ['cell side', 'expected per cell', 'placements', 'median chi2/df', 'chi2/df 5-95 %', 'median VMR', 'clustered', 'CSR', 'regular', 'agreement', 'reference VMR (rank)', 'Monte Carlo p (median)'];
-  return htmlTable('Results per cell size', head, rows);
+  const table = sizeTableData(summary);
+  return htmlTable(table.caption, table.head, table.rows);
 }
 
 /**
@@ -97,28 +78,9 @@ export function baselineComparisonSection(summary: SweepSummary): string {
 }
 
 export function monteCarloSection(summary: SweepSummary): string {
-  const simulated = summary.sizes.filter((size) => size.monteCarlo && size.monteCarlo.sims > 0);
-  if (simulated.length === 0) return '<section><h2>Monte Carlo test</h2><p>No CSR simulations were run (sims = 0).</p></section>';
-  const rows = simulated
-    .sort((a, b) => a.cellSize - b.cellSize)
-    .map((size) => {
-      const result = size.monteCarlo!;
-      const meanShare = result.simulatedShareSignificant.reduce((sum, share) => sum + share, 0) / Math.max(1, result.simulatedShareSignificant.length);
-      return [
-        sideLabel(size),
-        String(result.sims),
-        formatNumber(result.observedMedian),
-        `${formatNumber(result.envelope.lo)} to ${formatNumber(result.envelope.hi)}`,
-        formatP(result.pMedianClustered),
-        formatP(result.pMedianRegular),
-        formatNumber(result.observedMax),
-        formatP(result.pMaxClustered),
-        formatP(result.pMinRegular),
-        `${formatPercent(result.observedShareSignificant)} (CSR: ${formatPercent(meanShare)})`,
-      ];
-    });
-  const head = ['cell side', 'sims', 'observed median chi2/df', 'CSR envelope', 'p clustered (median)', 'p regular (median)', 'observed maximum', 'p clustered (maximum)', 'p regular (minimum)', 'placements significant'];
-  return `<section><h2>Monte Carlo test</h2>${htmlTable('Placement-robust Monte Carlo p-values', head, rows)}</section>`;
+  const table = monteCarloTableData(summary);
+  if (table === null) return '<section><h2>Monte Carlo test</h2><p>No CSR simulations were run (sims = 0).</p></section>';
+  return `<section><h2>Monte Carlo test</h2>${htmlTable(table.caption, table.head, table.rows)}</section>`;
 }
 
 export function versionsSection(summary: SweepSummary): string {

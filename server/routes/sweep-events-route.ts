@@ -7,7 +7,7 @@
  * 429 GS_ERR_TOO_MANY_STREAMS (the page then polls GET /api/sweeps/:id).
  */
 import type { FastifyInstance, FastifyReply } from 'fastify';
-import type { SweepProgress, SweepStatus } from '../contracts.js';
+import type { SweepProgress, SweepStatus } from '../../shared/contracts.js';
 import type { SweepQueue } from '../services/sweep-queue.js';
 import type { SweepService } from '../services/sweep-service.js';
 import { FINISHED_STATUSES } from '../store/sweep-store.js';

@@ -84,6 +84,29 @@ export function registerSweepExportRoutes(app: FastifyInstance, exportsOf: Sweep
     },
   );
 
+  // the stability files of issue 17, under the names `sweep --out` writes (server/stability/stability-files.ts)
+  app.get<{ Params: { id: string; file: string } }>(
+    '/api/sweeps/:id/:file',
+    {
+      schema: {
+        params: {
+          type: 'object',
+          required: ['id', 'file'],
+          additionalProperties: false,
+          properties: {
+            ...ID_PARAMS.properties,
+            file: { type: 'string', maxLength: 80, pattern: '^(stability-[a-z0-9.-]+m\\.tif|excess-areas-[a-z0-9.-]+m\\.geojson)$' },
+          },
+        },
+        response: errorResponses(400, 404, 409),
+      },
+    },
+    async (request, reply) => {
+      const { type, body } = exportsOf.stabilityFile(request.params.id, request.params.file);
+      return reply.type(type).header('content-disposition', attachment(request.params.file)).send(body);
+    },
+  );
+
   app.get<{ Params: { id: string }; Querystring: { download?: number } }>(
     '/api/sweeps/:id/report.html',
     { schema: { params: ID_PARAMS, querystring: DOWNLOAD_QUERY, response: { 200: { type: 'string' }, ...errorResponses(400, 404, 409) } } },

@@ -3,28 +3,9 @@
  * Decimation is a deterministic stride: every k-th point with k = ceil(n / maxPoints), so the same dataset always
  * draws the same points, and the drawn ones are spread over the file order (cost O(n / k)).
  */
-import type { Dataset } from '../contracts.js';
+import type { Dataset, DatasetGeometry } from '../../shared/contracts.js';
 
 export const DEFAULT_DRAWN_POINTS = 5000;
-
-export interface DatasetGeometry {
-  /** points drawn, x,y interleaved (planar metres) */
-  points: number[];
-  /** 1 when the drawn point is inside the valid region, 0 when it lies outside (never counted) */
-  pointInside: number[];
-  /** points in the dataset, and the stride used (1 = every point drawn) */
-  totalPoints: number;
-  stride: number;
-  studyArea: number[][][][];
-  noDataZones: number[][][][];
-  bbox: Dataset['region']['bbox'];
-  origin: Dataset['origin'];
-  /**
-   * the population-at-risk polygons inside the valid region (p ∩ V, closed rings) with their density P_p / |p ∩ V| per
-   * km², for the map's choropleth (issue 15); absent without baseline polygons
-   */
-  baseline?: { polygons: { rings: number[][][]; density: number }[]; maxDensity: number };
-}
 
 /** The baseline pieces as closed GeoJSON-style rings with their density per km². Cost O(vertices). */
 function baselineLayer(dataset: Dataset): DatasetGeometry['baseline'] {

@@ -5,6 +5,14 @@
  */
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { lowerThreadPriority } from '../threads/thread-priority.cjs';
+
+/**
+ * Nice increment of the parser thread (server/threads/thread-priority.cts): parsing a 2,000,000-point upload takes
+ * seconds of CPU, and the request thread must win every time it wants the CPU meanwhile (weights 1024 : 110).
+ */
+const PARSER_THREAD_NICE = 10;
+lowerThreadPriority(PARSER_THREAD_NICE);
 
 type TaskFunction = (task: unknown) => unknown;
 

@@ -9,7 +9,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { dirname } from 'node:path';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { isGridshakeError } from '../errors.js';
 import type { ErrorCode } from '../../shared/error-codes.js';
 import { loadDataset, summarizeDataset, type DatasetOptions } from '../inputs/index.js';

@@ -2,8 +2,11 @@
  * DatasetParser: uploads are parsed, validated, projected and stored in a worker thread (dataset-parser-task.ts),
  * never on the event loop, so that reads and event streams stay prompt while the largest allowed upload
  * (2,000,000 points, 64 MB) is processed. The route streams the uploaded files to a temporary folder; the worker
- * reads them from there. One thread, started on the first upload and ended after a minute without one; uploads wait
- * their turn. A worker that runs out of memory fails that upload only (413); the pool replaces it.
+ * reads them from there. One thread, started on the first upload and kept while the server runs; uploads wait
+ * their turn. It runs below the request thread's priority (dataset-parser-entry.cts). It is not ended when idle:
+ * tearing down a thread whose heap held a 2,000,000-point parse stalled the request thread for 1-5 s on a busy
+ * machine (the thread's memory is unmapped while the process's other threads wait), so its heap shrinks by garbage
+ * collection instead. A worker that runs out of memory fails that upload only (413); the pool replaces it.
  */
 import { join } from 'node:path';
 import { Piscina } from 'piscina';
@@ -39,7 +42,8 @@ export class DatasetParser {
       filename: PARSER_TASK_FILE,
       minThreads: 0,
       maxThreads: 1,
-      idleTimeout: 60_000,
+      // never ended for being idle (setTimeout's largest delay, about 24.8 days; Infinity would mean 1 ms)
+      idleTimeout: 2 ** 31 - 1,
       resourceLimits: { maxOldGenerationSizeMb: PARSER_HEAP_MB },
     });
   }

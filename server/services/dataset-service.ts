@@ -4,13 +4,13 @@
  * Uploads and demo scenarios are parsed and stored in a worker thread (createFromUpload, DatasetParser), so the
  * server's thread never loads the input libraries (a faster start) nor parses on the event loop.
  */
-import type { Dataset } from '../contracts.js';
+import type { Dataset, DatasetGeometry } from '../../shared/contracts.js';
 import { notFoundError } from '../errors.js';
 import type { DatasetOptions } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import type { GridshakeStore } from '../store/store.js';
 import type { DatasetParser, UploadedDataset } from './dataset-parser.js';
-import { datasetGeometry, type DatasetGeometry } from './dataset-geometry.js';
+import { datasetGeometry } from './dataset-geometry.js';
 import type { SweepQueue } from './sweep-queue.js';
 
 export class DatasetService {

@@ -4,7 +4,7 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Plan } from '../contracts.js';
+import type { Plan } from '../../shared/contracts.js';
 import type { DatasetService } from './dataset-service.js';
 import type { SweepService } from './sweep-service.js';
 

@@ -2,7 +2,7 @@
  * Turns the pool's placements-done counts into SweepProgress: elapsed seconds since the sweep started and the
  * remaining time extrapolated linearly, remaining = elapsed * (total - done) / done (null before the first task ends).
  */
-import type { SweepProgress } from '../contracts.js';
+import type { SweepProgress } from '../../shared/contracts.js';
 import type { RunnerProgress } from './sweep-runner.js';
 
 export class ProgressClock {

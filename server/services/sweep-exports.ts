@@ -9,7 +9,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
-import type { PlacementRow } from '../contracts.js';
+import type { PlacementRow } from '../../shared/contracts.js';
 import { conflictError, exportBusyError, notFoundError } from '../errors.js';
 import { boundedCellGrid, type GridFormat, type GridRequest } from '../grid-export/grid-cells.js';
 import { effectiveCoordinates, gridGeoJsonChunks, type GridCoordinates } from '../grid-export/grid-geojson.js';
@@ -20,8 +20,9 @@ import type { GridshakeStore } from '../store/store.js';
 import { ROWS_PER_CHUNK } from '../store/placement-store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
-import { downloadName } from '../messages/download-names.js';
+import { downloadName } from '../../shared/messages/download-names.js';
 import type { DatasetService } from './dataset-service.js';
+import { areasGeoJson } from '../stability/areas-geojson.js';
 import type { SweepService } from './sweep-service.js';
 
 export class SweepExports {
@@ -53,6 +54,31 @@ export class SweepExports {
   downloadName(id: string, what: string, extension: string): string {
     const summary = this.finished(id).summary!;
     return downloadName(summary.dataset.name, summary.sizes.map((size) => size.cellSize), what, extension);
+  }
+
+  /**
+   * A stability file of a done sweep by its name: `stability-<side>m.tif` (the stored GeoTIFF) or
+   * `excess-areas-<side>m.geojson` (made from summary.stability). 404 naming the files the sweep has.
+   */
+  stabilityFile(id: string, name: string): { type: string; body: Buffer | string } {
+    const record = this.finished(id);
+    const entries = record.summary!.stability ?? [];
+    const known = entries.flatMap((entry) => [entry.files.tif, entry.files.geojson]);
+    const entry = entries.find((candidate) => candidate.files.tif === name || candidate.files.geojson === name);
+    if (entry === undefined) {
+      throw notFoundError(
+        known.length === 0
+          ? `sweep ${id} has no stability surface (it ran before surfaces were computed)`
+          : `sweep ${id} has no file ${name}; it has ${known.join(', ')}`,
+      );
+    }
+    if (name === entry.files.tif) {
+      const bytes = this.store.stability.read(id, name);
+      if (bytes === undefined) throw notFoundError(`sweep ${id} has no stored ${name}`);
+      return { type: 'image/tiff; application=geotiff', body: bytes };
+    }
+    const dataset = this.datasets.load(record.datasetId);
+    return { type: 'application/geo+json; charset=utf-8', body: `${JSON.stringify(areasGeoJson(entry, dataset.projection, dataset.name))}\n` };
   }
 
   report(id: string): string {

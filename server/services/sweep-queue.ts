@@ -6,12 +6,13 @@
  * `interrupted`, as they would after a crash.
  */
 import { EventEmitter } from 'node:events';
-import type { SweepProgress, SweepStatus } from '../contracts.js';
+import type { SweepProgress, SweepStatus } from '../../shared/contracts.js';
 import type { GridshakeStore } from '../store/store.js';
 import { writeRowsInChunks } from '../store/placement-store.js';
 import { trustStoredPlan } from '../sweeps/plan.js';
 import { ProgressClock } from './progress-clock.js';
 import type { SweepRunner } from './sweep-runner.js';
+import { storeStabilityFiles } from '../stability/stored-stability.js';
 
 /** How often the progress of a running sweep is written to the store (ms). */
 const SAVE_PROGRESS_EVERY_MS = 1000;
@@ -129,6 +130,7 @@ export class SweepQueue extends EventEmitter {
       const result = await this.runner.runSweep(dataset, trustStoredPlan(record.plan), {
         signal: active.controller.signal,
         datasetId: record.datasetId,
+        stability: true,
         onProgress: (reported) => {
           const progress = active.clock.update(reported);
           if (Date.now() - lastSaved >= SAVE_PROGRESS_EVERY_MS) {
@@ -142,11 +144,13 @@ export class SweepQueue extends EventEmitter {
       if (this.store.sweeps.get(id) === undefined) return;
       await writeRowsInChunks(this.store.placements, id, result.rows);
       if (active.stopReason !== null) throw new Error('stopped');
+      storeStabilityFiles(this.store, id, result, dataset.projection);
       const final = active.clock.now();
       this.finish(id, 'done', { summary: result.summary, progress: { ...final, done: final.total, remainingSeconds: 0 } });
     } catch (error) {
       if (this.store.sweeps.get(id) === undefined) return;
       this.store.placements.clear(id);
+      this.store.stability.clear(id);
       if (active.stopReason === 'cancelled') this.finish(id, 'cancelled', { progress: active.clock.now() });
       else if (active.stopReason === 'interrupted') {
         this.finish(id, 'interrupted', { progress: active.clock.now(), error: 'the server stopped while this sweep ran' });

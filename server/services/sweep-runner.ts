@@ -3,7 +3,8 @@
  * on an executor: the local pool or the Redis queue):
  * run one sweep with cancellation and progress, and shut down.
  */
-import type { Dataset, PlacementRow, Plan, SweepSummary } from '../contracts.js';
+import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
+import type { StabilitySurface } from '../stability/stability-accumulator.js';
 
 /** Progress as the pool reports it: at least placements done and total. */
 export interface RunnerProgress {
@@ -18,10 +19,12 @@ export interface SweepRunOptions {
   onProgress?: (progress: RunnerProgress) => void;
   /** the stored dataset's id, so that its shared copy is kept per dataset rather than per sweep */
   datasetId?: string;
+  /** also compute the stability surfaces (server/stability) */
+  stability?: boolean;
 }
 
 export interface SweepRunner {
-  runSweep(dataset: Dataset, plan: Plan, options: SweepRunOptions): Promise<{ rows: PlacementRow[]; summary: SweepSummary }>;
+  runSweep(dataset: Dataset, plan: Plan, options: SweepRunOptions): Promise<{ rows: PlacementRow[]; summary: SweepSummary; stability?: StabilitySurface[] }>;
   destroy(): Promise<void>;
   /** worker threads, for /api/health */
   readonly threads?: number;

@@ -3,7 +3,7 @@
  * status and summaries, cancel, rerun from the stored plan, delete. Refusals are coded 4xx errors raised before
  * anything is stored or queued; at most MAX_QUEUED_SWEEPS may wait (429 GS_ERR_QUEUE_FULL).
  */
-import type { Plan, SweepProgress, SweepStatus } from '../contracts.js';
+import type { Plan, SweepProgress, SweepStatus } from '../../shared/contracts.js';
 import { conflictError, notFoundError, queueFullError } from '../errors.js';
 import { MAX_QUEUED_SWEEPS } from '../limits.js';
 import type { GridshakeStore } from '../store/store.js';

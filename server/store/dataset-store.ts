@@ -5,7 +5,7 @@
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
 import { deserialize, serialize } from 'node:v8';
-import type { BaselineInfo, Dataset, DatasetSummary } from '../contracts.js';
+import type { BaselineInfo, Dataset, DatasetSummary } from '../../shared/contracts.js';
 import type { Baseline } from '../../workers/baseline/baseline.js';
 import {
   bufferToFloat64,

@@ -45,7 +45,16 @@ export const MIGRATIONS: readonly string[] = [
   // 2: placement rows as v8-serialised BLOBs (exact doubles, NaN and infinities, fast to read); older chunks
   // written as JSON text stay readable
   `ALTER TABLE placement_chunks RENAME COLUMN rows_json TO rows_data;`,
-  // 3: the population at risk of a dataset (issue 15), the engine's baseline v8-serialised (typed arrays kept exact);
+  // 3: the stability surfaces of a sweep (GeoTIFF bytes per shape and cell size, under their file names)
+  `
+  CREATE TABLE stability_files (
+    sweep_id TEXT NOT NULL REFERENCES sweeps(id) ON DELETE CASCADE,
+    name TEXT NOT NULL,
+    content BLOB NOT NULL,
+    PRIMARY KEY (sweep_id, name)
+  );
+  `,
+  // 4: the population at risk of a dataset (issue 15), the engine's baseline v8-serialised (typed arrays kept exact);
   // NULL when expected counts follow area
   `ALTER TABLE datasets ADD COLUMN baseline BLOB;`,
 ];

@@ -8,7 +8,7 @@
  */
 import type Database from 'better-sqlite3';
 import { deserialize, serialize } from 'node:v8';
-import type { PlacementRow } from '../contracts.js';
+import type { PlacementRow } from '../../shared/contracts.js';
 import { fromStoredJson } from './blob-codec.js';
 
 export const ROWS_PER_CHUNK = 500;

@@ -5,12 +5,14 @@ import type Database from 'better-sqlite3';
 import { DatasetStore } from './dataset-store.js';
 import { openDatabase } from './open-database.js';
 import { PlacementStore } from './placement-store.js';
+import { StabilityStore } from './stability-store.js';
 import { SweepStore } from './sweep-store.js';
 
 export class GridshakeStore {
   readonly datasets: DatasetStore;
   readonly sweeps: SweepStore;
   readonly placements: PlacementStore;
+  readonly stability: StabilityStore;
 
   private constructor(
     private readonly db: Database.Database,
@@ -19,6 +21,7 @@ export class GridshakeStore {
     this.datasets = new DatasetStore(db);
     this.sweeps = new SweepStore(db);
     this.placements = new PlacementStore(db);
+    this.stability = new StabilityStore(db);
   }
 
   /** Open the store of a data folder (':memory:' for a throw-away one). */

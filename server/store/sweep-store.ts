@@ -5,7 +5,7 @@
  */
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
-import type { Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../contracts.js';
+import type { Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../shared/contracts.js';
 import { fromStoredJson, toStoredJson } from './blob-codec.js';
 
 export interface SweepRecord {

@@ -1,21 +1,23 @@
-import type { BaselineInfo, MonteCarloResult, OverallTest, SizeSummary } from '../contracts.js';
+import type { BaselineInfo, MonteCarloResult, OverallTest, SizeSummary } from '../../shared/contracts.js';
 import { beyondNull, nullName } from './null-hypothesis.js';
-import { formatPValue, pPhrase } from '../../shared/p-value.js';
+import { formatMetres, formatP, pPhrase } from '../../shared/format.js';
+import { verdictWords } from '../../shared/verdict-words.js';
+import { shapeSentence, shapesOf } from '../../shared/shape-sentence.js';
 import type { Verdict } from '../../workers/types.js';
 
 /** Agreement below this share means the verdict depends on where the grid falls (our choice, stated in the text). */
 export const LOW_AGREEMENT = 0.9;
 
-const VERDICT_WORDS: Record<Verdict, string> = {
-  clustered: 'clustered',
-  regular: 'regular',
-  csr: 'no departure from CSR',
+/** Verdict words against a baseline: the null is named (issue 15); area mode keeps shared/verdict-words.ts. */
+const BASELINE_VERDICT_WORDS: Record<Verdict, string> = {
+  clustered: 'clustered beyond the baseline',
+  regular: 'more even than the baseline',
+  csr: 'no departure from the baseline',
 };
 
-/** The verdict words against a baseline: the null is named (issue 15); area mode keeps VERDICT_WORDS. */
-function verdictWords(baseline: BaselineInfo | undefined): Record<Verdict, string> {
-  if (baseline === undefined) return VERDICT_WORDS;
-  return { clustered: 'clustered beyond the baseline', regular: 'more even than the baseline', csr: 'no departure from the baseline' };
+/** The short verdict words of a sweep, against area or against its baseline. */
+function verdictText(verdict: Verdict, baseline: BaselineInfo | undefined): string {
+  return baseline === undefined ? verdictWords(verdict, 'short') : BASELINE_VERDICT_WORDS[verdict];
 }
 
 /** A share 0..1 as a whole percentage that never rounds a partial share to 0 % or 100 %. */
@@ -26,22 +28,12 @@ export function formatShare(share: number): string {
   return `${percent} %`;
 }
 
-/** A p-value for text (shared/p-value.ts: "< 1e-300" below the smallest double, never "0"). */
-export function formatP(p: number): string {
-  return formatPValue(p);
-}
-
-/** A length in metres with at most 4 significant digits. */
-export function formatMetres(metres: number): string {
-  return String(Number(metres.toPrecision(4)));
-}
-
 /**
  * How a size's cells are named in sentences: "120 m cells" for squares (as before shapes existed), "120 m hexagonal
  * cells" for hexagons of area 120^2 m^2.
  */
 export function cellsLabel(size: Pick<SizeSummary, 'cellSize' | 'shape'>): string {
-  return `${formatMetres(size.cellSize)} m ${size.shape === 'hex' ? 'hexagonal ' : ''}cells`;
+  return `${formatMetres(size.cellSize, { significant: 4 })} ${size.shape === 'hex' ? 'hexagonal ' : ''}cells`;
 }
 
 function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string {
@@ -61,10 +53,9 @@ function monteCarloWords(verdict: Verdict, monteCarlo: MonteCarloResult): string
  */
 export function sizeConclusion(summary: Omit<SizeSummary, 'conclusion'>, baseline?: BaselineInfo): string {
   const { verdictShares, mostCommon, placements, monteCarlo } = summary;
-  const words = verdictWords(baseline);
-  const parts = [`${cellsLabel(summary)}: ${words[mostCommon]} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
+    const parts = [`${cellsLabel(summary)}: ${verdictText(mostCommon, baseline)} in ${formatShare(verdictShares[mostCommon])} of ${placements} placements`];
   const others = (['clustered', 'regular', 'csr'] as Verdict[]).filter((v) => v !== mostCommon && verdictShares[v] > 0);
-  if (others.length > 0) parts[0] += ` (${others.map((v) => `${words[v]} in ${formatShare(verdictShares[v])}`).join(', ')})`;
+  if (others.length > 0) parts[0] += ` (${others.map((v) => `${verdictText(v, baseline)} in ${formatShare(verdictShares[v])}`).join(', ')})`;
   if (monteCarlo) parts.push(monteCarloWords(mostCommon, monteCarlo));
   else parts.push('per-placement evidence only, no Monte Carlo test (sims = 0)');
   return parts.join('; ');
@@ -108,10 +99,9 @@ export function overallConclusion(sizes: readonly Omit<SizeSummary, 'conclusion'
   } else {
     const counts: Record<Verdict, number> = { clustered: 0, regular: 0, csr: 0 };
     for (const size of sizes) counts[size.mostCommon] += 1;
-    const verdictText = verdictWords(baseline);
     const words = (['clustered', 'regular', 'csr'] as Verdict[])
       .filter((v) => counts[v] > 0)
-      .map((v) => `${verdictText[v]} at ${counts[v]} of ${total} cell sizes`);
+      .map((v) => `${verdictText(v, baseline)} at ${counts[v]} of ${total} cell sizes`);
     const where = shapes.length > 1 ? 'cell sizes and shapes' : 'cell sizes';
     sentences.push(`Per-placement evidence only, not a test (sims = 0): most placements say ${words.join(', ').replace(/cell sizes/g, where)} at alpha ${alpha}; run with sims > 0 for a Monte Carlo test`);
   }
@@ -136,32 +126,4 @@ function baselineOverallSentence(overall: OverallTest, sizesWords: string, alpha
     return `${across} finds counts more even than ${nullName(baseline)} gives at alpha ${alpha} ${tail}, most marked at ${strongest}`;
   }
   return `${across} finds clustering ${beyondNull(baseline)} at alpha ${alpha} ${tail}, most marked at ${strongest}`;
-}
-
-/** The shapes of a sweep's size entries, in order of first appearance (entries without one are squares). */
-function shapesOf(sizes: readonly Pick<SizeSummary, 'shape'>[]): string[] {
-  return [...new Set(sizes.map((size) => size.shape ?? 'square'))];
-}
-
-/**
- * The one sentence on whether the conclusion depends on the cells' shape: at each cell side, the most common verdict
- * of the placements with squares against that with hexagons (a description of the placements, not a test; the
- * tests are the per-size Monte Carlo p-values and the overall test).
- */
-export function shapeSentence(sizes: readonly Omit<SizeSummary, 'conclusion'>[]): string {
-  const bySide = new Map<number, Map<string, Verdict>>();
-  for (const size of sizes) {
-    const entry = bySide.get(size.cellSize) ?? new Map<string, Verdict>();
-    entry.set(size.shape ?? 'square', size.mostCommon);
-    bySide.set(size.cellSize, entry);
-  }
-  const compared = [...bySide.entries()].filter(([, verdicts]) => verdicts.size > 1);
-  const differing = compared.filter(([, verdicts]) => new Set(verdicts.values()).size > 1);
-  if (differing.length === 0) {
-    return `The conclusion does not depend on the cell shape: at ${compared.length === 1 ? 'the 1 cell size' : `all ${compared.length} cell sizes`} squares and hexagons give the same most common verdict`;
-  }
-  const details = differing
-    .sort(([a], [b]) => a - b)
-    .map(([side, verdicts]) => `${formatMetres(side)} m: ${[...verdicts.entries()].map(([shape, verdict]) => `${shape === 'hex' ? 'hexagons' : 'squares'} ${VERDICT_WORDS[verdict]}`).join(', ')}`);
-  return `The conclusion depends on the cell shape at ${differing.length} of ${compared.length} cell sizes, where squares and hexagons give different most common verdicts (${details.join('; ')})`;
 }

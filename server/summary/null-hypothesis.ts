@@ -3,7 +3,7 @@
  * counts proportional to area) or the population at risk (a baseline: polygons with a count field, or control points).
  * Every sentence that claims clustering names its null through these phrases.
  */
-import type { BaselineInfo } from '../contracts.js';
+import type { BaselineInfo } from '../../shared/contracts.js';
 
 /** "the population at risk (baseline: FILE, field NAME)", "… (controls: FILE)" or "complete spatial randomness". */
 export function nullName(baseline: BaselineInfo | undefined): string {

@@ -1,4 +1,4 @@
-import type { MonteCarloResult, OverallTest } from '../contracts.js';
+import type { MonteCarloResult, OverallTest } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { simsCanReject } from '../../shared/monte-carlo-rule.js';
 

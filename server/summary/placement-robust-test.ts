@@ -1,4 +1,4 @@
-import type { MonteCarloResult } from '../contracts.js';
+import type { MonteCarloResult } from '../../shared/contracts.js';
 import { monteCarloPValue } from './monte-carlo-p-value.js';
 import { quantileSorted, sortedFinite } from './quantiles.js';
 

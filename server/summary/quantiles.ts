@@ -1,4 +1,4 @@
-import type { Quantiles } from '../contracts.js';
+import type { Quantiles } from '../../shared/contracts.js';
 
 /**
  * Sample quantile by linear interpolation between order statistics (Hyndman & Fan type 7, the default of

@@ -1,4 +1,4 @@
-import type { MonteCarloResult, PlacementRow, SizeSummary } from '../contracts.js';
+import type { MonteCarloResult, PlacementRow, SizeSummary } from '../../shared/contracts.js';
 import { sizeConclusion } from './conclusion.js';
 import { quantiles, median } from './quantiles.js';
 import { extremeIndices, referenceRank } from './reference-rank.js';

@@ -1,4 +1,4 @@
-import type { DatasetSummary, Plan, SizeSummary, SweepSummary } from '../contracts.js';
+import type { DatasetSummary, Plan, SizeSummary, SweepSummary } from '../../shared/contracts.js';
 import { overallConclusion, sizeConclusion } from './conclusion.js';
 import { overallMonteCarloTest } from './overall-test.js';
 import { sweepWarnings } from './sweep-warnings.js';

@@ -1,4 +1,4 @@
-import type { DatasetSummary, SizeSummary } from '../contracts.js';
+import type { DatasetSummary, SizeSummary } from '../../shared/contracts.js';
 import { RULE_OF_5_EXPECTED } from '../../workers/stats/expected-per-cell.js';
 import { cellsLabel, formatShare } from './conclusion.js';
 

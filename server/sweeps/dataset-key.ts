@@ -5,7 +5,7 @@
  * one. Cost O(n) hashing (about 30 ms for 2e6 points), memoised per dataset object.
  */
 import { createHash } from 'node:crypto';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { DatasetRef } from './executor.js';
 
 const memo = new WeakMap<Dataset, string>();

@@ -4,8 +4,9 @@
  * the data the way it moves it (shared memory for the local pool, Redis keys for the queue).
  * Executors: local-executor.ts (piscina, the default) and ../queue/queue-executor.ts (BullMQ on Redis).
  */
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
+import type { StabilityRaster } from '../../workers/stability/stability-raster.js';
 
 /** A dataset the executor has shared with its workers, under a key made of the dataset id and its content hash. */
 export interface DatasetRef {
@@ -44,6 +45,8 @@ export interface ChunkWork {
   minCoverage: number;
   alpha: number;
   placements: Float64Array;
+  /** the stability surface's raster (absent: no surface) */
+  stability?: StabilityRaster;
 }
 
 export type SweepWork = SimulateWork | ChunkWork;

@@ -7,18 +7,19 @@ import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import type { ResourceLimits } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { PACKAGE_ROOT } from '../services/project-paths.js';
 import type { ChunkTask, SimulateTask, SweepTask } from '../../workers/sweep/sweep-task.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor, SweepWork } from './executor.js';
 import { shareDataset, type SharedDataset } from './shared-dataset.js';
 
 /**
- * The compiled task entry piscina loads (npm run build): a CommonJS file that imports the ES task module, so that
- * piscina never require()s an ES module (see workers/pool-entry.cts). The same file whether the caller runs from
- * TypeScript or from dist/.
+ * The compiled task entry piscina loads (npm run build): a CommonJS file that lowers the thread's priority below the
+ * request thread's and hands tasks to the engine's entry, which imports the ES task module, so that piscina never
+ * require()s an ES module (see server/threads/sweep-thread-entry.cts, workers/pool-entry.cts). The same file whether
+ * the caller runs from TypeScript or from dist/.
  */
-export const POOL_TASK_FILE = join(PACKAGE_ROOT, 'dist', 'workers', 'pool-entry.cjs');
+export const POOL_TASK_FILE = join(PACKAGE_ROOT, 'dist', 'server', 'threads', 'sweep-thread-entry.cjs');
 
 /** Datasets kept in shared memory at once (the oldest goes first); a server's sweeps mostly reuse one or two. */
 const SHARED_DATASETS = 4;
@@ -95,6 +96,7 @@ export class LocalExecutor implements SweepExecutor {
         alpha: work.alpha,
         placements: work.placements,
         ...(shared.baseline === null ? {} : { baseline: { key: shared.key, buffer: shared.baseline } }),
+        ...(work.stability === undefined ? {} : { stability: work.stability }),
       } satisfies ChunkTask;
     }
     return this.pool.run(task, { signal }) as Promise<Float64Array | number>;

@@ -3,7 +3,7 @@
  * angle 0): the Halton design (bases 2, 3, 5; Halton 1960, Numerische Mathematik 2:84-90) or the regular
  * lattice of workers/random.
  */
-import type { Plan } from '../contracts.js';
+import type { Plan } from '../../shared/contracts.js';
 import { haltonPlacements, latticePlacements } from '../../workers/random/index.js';
 import type { Placement } from '../../workers/types.js';
 

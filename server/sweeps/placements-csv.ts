@@ -6,9 +6,8 @@
  * placements.json keeps every number at full precision. Used by the CLI and the HTTP export; README documents
  * the columns.
  */
-import type { PlacementRow, SweepSummary } from '../contracts.js';
-
-type Rounding = 'integer' | 'text' | { significant: number } | { decimals: number };
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
+import { type Rounding, type StatisticField, STATISTIC_FIELDS, STATISTIC_NAMES } from '../../workers/stats/statistic-fields.js';
 
 /** Column of placements.csv: its name (with unit), the PlacementRow field and how its numbers are written. */
 export interface PlacementCsvColumn {
@@ -17,49 +16,24 @@ export interface PlacementCsvColumn {
   rounding: Rounding;
 }
 
-const SIG6 = { significant: 6 };
-const SIG4 = { significant: 4 };
-
-/** Column order and names of placements.csv. */
+/**
+ * Column order and names of placements.csv: the placement's parameters, then every statistic field in the order
+ * and with the names and roundings of STATISTIC_FIELDS (workers/stats/statistic-fields.ts), leaving out the fields
+ * without a column (csv null: the area-only comparison against a baseline, in the JSON files only).
+ */
 export const PLACEMENT_CSV_COLUMNS: readonly PlacementCsvColumn[] = [
   { name: 'size_index', field: 'sizeIndex', rounding: 'integer' },
-  { name: 'cell_side_m', field: 'cellSize', rounding: SIG6 },
+  { name: 'cell_side_m', field: 'cellSize', rounding: { significant: 6 } },
   { name: 'shape', field: 'shape', rounding: 'text' },
   { name: 'placement', field: 'placementIndex', rounding: 'integer' },
   // offsets and angles come from a low-discrepancy sequence; 1e-6 cell and 1e-4 degree are far below any effect
   { name: 'offset_u_cells', field: 'u', rounding: { decimals: 6 } },
   { name: 'offset_v_cells', field: 'v', rounding: { decimals: 6 } },
   { name: 'angle_deg', field: 'angle', rounding: { decimals: 4 } },
-  { name: 'cells_kept', field: 'cells', rounding: 'integer' },
-  { name: 'points_counted', field: 'points', rounding: 'integer' },
-  { name: 'mean_points_per_cell', field: 'mean', rounding: SIG6 },
-  { name: 'variance_points2', field: 'variance', rounding: SIG6 },
-  { name: 'vmr', field: 'vmr', rounding: SIG6 },
-  { name: 'chi2', field: 'chi2', rounding: SIG6 },
-  { name: 'df', field: 'df', rounding: 'integer' },
-  { name: 'chi2_per_df', field: 'chi2PerDf', rounding: SIG6 },
-  // p-values: four significant digits keep small tails readable (1.234e-9) without false precision
-  { name: 'p_clustered', field: 'pClustered', rounding: SIG4 },
-  { name: 'p_regular', field: 'pRegular', rounding: SIG4 },
-  { name: 'verdict', field: 'verdict', rounding: 'text' },
-  { name: 'expected_points_per_whole_cell', field: 'expectedPerCell', rounding: SIG6 },
-  { name: 'meets_rule_of_5', field: 'meetsRuleOf5', rounding: 'text' },
-  { name: 'meets_rule_of_1_6', field: 'meetsRuleOf1_6', rounding: 'text' },
-  { name: 'morisita_index', field: 'morisita', rounding: SIG6 },
-  { name: 'morisita_standardized', field: 'morisitaStandardized', rounding: SIG6 },
-  { name: 'mean_crowding_points', field: 'meanCrowding', rounding: SIG6 },
-  { name: 'patchiness', field: 'patchiness', rounding: SIG6 },
-  { name: 'green_index', field: 'green', rounding: SIG6 },
-  { name: 'negative_binomial_k', field: 'negativeBinomialK', rounding: SIG6 },
-  { name: 'poisson_fit_chi2', field: 'poissonChi2', rounding: SIG6 },
-  { name: 'poisson_fit_df', field: 'poissonDf', rounding: 'integer' },
-  { name: 'poisson_fit_p', field: 'poissonP', rounding: SIG4 },
-  // issue 15: what the expected counts follow ('area', 'baseline', 'controls'), the kept cells' total weight (m² of
-  // valid area in area mode) and the cells (and points) passing the coverage rule with no population at risk
-  { name: 'expected_from', field: 'expectedFrom', rounding: 'text' },
-  { name: 'baseline_total', field: 'baselineTotal', rounding: SIG6 },
-  { name: 'zero_baseline_cells', field: 'zeroBaselineCells', rounding: 'integer' },
-  { name: 'points_in_zero_baseline_cells', field: 'pointsInZeroBaselineCells', rounding: 'integer' },
+  ...STATISTIC_NAMES.flatMap((field) => {
+    const { csv, rounding } = STATISTIC_FIELDS[field] as StatisticField;
+    return csv === null ? [] : [{ name: csv, field, rounding }];
+  }),
 ];
 
 /** The PlacementRow fields in CSV column order. */

@@ -3,30 +3,16 @@
  * DEFAULT_PLAN, and the resolution of "expected points per cell" into cell sides.
  * Every bad value is a GS_ERR_PARAMETER error naming the field and the allowed range.
  */
-import { DEFAULT_PLAN, type Plan, type PlacementDesign } from '../contracts.js';
+import type { Plan, PlacementDesign } from '../../shared/contracts.js';
+import { DEFAULT_PLAN, PLAN_LIMITS } from '../../shared/plan-rules.js';
 import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
+import { formatMetres, significant } from '../../shared/format.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
-import { CELL_SHAPES, DEFAULT_CELL_SHAPE, isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
+import { CELL_SHAPES, isCellShape, shapeList, type CellShape } from '../../workers/lattice/cell-shape.js';
 
-/** Allowed ranges of the plan fields (shared with the HTTP schema and the CLI help). */
-export const PLAN_LIMITS = Object.freeze({
-  placements: { min: 1, max: 65536 },
-  sims: { min: 0, max: 9999 },
-  /** alpha in (0, 0.5] */
-  alphaMax: 0.5,
-  /** minCoverage in (0, 1] */
-  minCoverageMax: 1,
-  maxCellSizes: 16,
-  /** a cell size must leave at least this many whole cells' worth of area in the valid region */
-  minCellsInRegion: 2,
-  /**
-   * and at most this many: the work budget counts point-placements only, while coverage costs O(cells) time and
-   * memory per placement (1e8 cells took 50 s and 4 GB for one placement)
-   */
-  maxCellsInRegion: 1 << 22,
-});
+export { PLAN_LIMITS } from '../../shared/plan-rules.js';
 
 const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed', 'shape']);
 const DESIGNS: readonly PlacementDesign[] = ['halton', 'lattice'];
@@ -78,8 +64,7 @@ function shapeField(value: unknown): CellShape | CellShape[] {
 
 /** The shapes a plan runs, in its order (a plan without `shape` runs squares only). */
 export function planShapes(plan: Pick<Plan, 'shape'>): CellShape[] {
-  if (plan.shape === undefined) return [DEFAULT_CELL_SHAPE];
-  return typeof plan.shape === 'string' ? [plan.shape] : [...plan.shape];
+  return shapeList(plan.shape);
 }
 
 /**
@@ -151,6 +136,9 @@ export function validatedPlan(input: Plan): Plan {
   return VALIDATED.has(input) ? input : normalizePlan(input);
 }
 
+/** Cell sides in messages: six significant digits. */
+const SIX = { significant: 6 };
+
 /**
  * Cell sides in metres for a plan: `cells` as given, or `perCell` turned into sides by side = sqrt(k * A / n)
  * (A valid area in m^2, n points inside the valid region; shared/reference-values.md, "Rules of thumb").
@@ -172,8 +160,8 @@ export function resolveCellSizes(plan: Plan, validArea: number, nInside: number)
     assertCellCountWithinLimit(size, validArea, field);
     if (size > largest) {
       throw parameterError(
-        `${field} gives cells of ${formatMetres(size)} m, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
-          `valid region of ${formatMetres(validArea)} m²; use cells of at most ${formatMetres(largest)} m`,
+        `${field} gives cells of ${formatMetres(size, SIX)}, which leave fewer than ${PLAN_LIMITS.minCellsInRegion} cells in the ` +
+          `valid region of ${significant(validArea, 6)} m²; use cells of at most ${formatMetres(largest, SIX)}`,
       );
     }
   });
@@ -190,12 +178,8 @@ export function assertCellCountWithinLimit(size: number, validArea: number, fiel
   if (size >= smallest) return;
   const cells = validArea / (size * size);
   throw parameterError(
-    `${field} gives cells of ${formatMetres(size)} m, ${Number.isFinite(cells) ? `about ${formatMetres(cells)}` : 'too many'} cells in the ` +
-      `valid region of ${formatMetres(validArea)} m², more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
-      `${formatMetres(smallest)} m`,
+    `${field} gives cells of ${formatMetres(size, SIX)}, ${Number.isFinite(cells) ? `about ${significant(cells, 6)}` : 'too many'} cells in the ` +
+      `valid region of ${significant(validArea, 6)} m², more than ${PLAN_LIMITS.maxCellsInRegion}; use cells of at least ` +
+      `${formatMetres(smallest, SIX)}`,
   );
-}
-
-function formatMetres(value: number): string {
-  return Number(value.toPrecision(6)).toString();
 }

@@ -3,7 +3,7 @@
  * (the only ones ever counted), Morton-sorted once so that the count array stays in cache, and the packed region.
  */
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
-import type { Dataset } from '../contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { mortonCodes, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
 import { packBaseline } from '../../workers/baseline/baseline-buffer.js';

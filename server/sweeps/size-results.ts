@@ -3,13 +3,15 @@
  * matrices, then summarises them (server/summary). Chunks may arrive in any order; the result does not depend
  * on it, so it does not depend on the number of threads either.
  */
-import type { PlacementRow, SizeSummary } from '../contracts.js';
-import type { Verdict } from '../../workers/types.js';
+import type { PlacementRow, SizeSummary } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { placementRobustTest } from '../summary/placement-robust-test.js';
 import { summarizeSize } from '../summary/size-summary.js';
 import { decodeStatistics, STATISTICS_FIELDS } from '../../workers/sweep/statistics-codec.js';
-import { simulatedFlagOffset, simulatedValueOffset } from '../../workers/sweep/sweep-task.js';
+import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from '../../workers/sweep/sweep-task.js';
+import { stabilityRaster, validPixels, type StabilityRaster } from '../../workers/stability/stability-raster.js';
+import type { Region, Verdict } from '../../workers/types.js';
+import { StabilityAccumulator, type StabilitySurface } from '../stability/stability-accumulator.js';
 
 export class SizeResults {
   readonly rows: PlacementRow[];
@@ -17,6 +19,8 @@ export class SizeResults {
   private readonly observedSignificant: Uint8Array;
   private readonly simulated: Float64Array;
   private readonly simulatedSignificant: Uint8Array;
+  /** the stability surface being folded (null when the sweep computes none) */
+  private stability: StabilityAccumulator | null = null;
 
   constructor(
     readonly sizeIndex: number,
@@ -32,6 +36,23 @@ export class SizeResults {
     this.observedSignificant = new Uint8Array(count);
     this.simulated = new Float64Array(count * sims);
     this.simulatedSignificant = new Uint8Array(count * sims);
+  }
+
+  /** Makes this size compute the stability surface over the region (workers/stability); returns its raster. */
+  enableStability(region: Region): StabilityRaster {
+    const raster = stabilityRaster(region, this.cellSize);
+    this.stability = new StabilityAccumulator(raster, validPixels(region, raster), this.sims);
+    return raster;
+  }
+
+  /** The stability raster, when enabled. */
+  get stabilityRaster(): StabilityRaster | undefined {
+    return this.stability?.raster;
+  }
+
+  /** The stability surface and its calibration at the two-sided level alpha; null when not enabled. */
+  stabilitySurface(alpha: number): StabilitySurface | null {
+    return this.stability?.finish(this.shape, this.cellSize, this.placements.length / 3, alpha) ?? null;
   }
 
   /** Stores the result of the chunk of placements first .. first + count - 1. Cost O(count (F + R)). */
@@ -59,6 +80,7 @@ export class SizeResults {
         this.simulatedSignificant[r * total + index] = result[simulatedFlagOffset(count, this.sims, j, r)];
       }
     }
+    this.stability?.addChunk(result, chunkResultLength(count, this.sims));
   }
 
   /** The size summary with the placement-robust Monte Carlo test when sims > 0. */

@@ -3,22 +3,12 @@
  * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern; "sizes"
  * counts every (shape, cell size) pair of the plan.
  */
-import type { Plan, SweepEstimate } from '../contracts.js';
+import type { Plan, SweepEstimate } from '../../shared/contracts.js';
 import { budgetError } from '../errors.js';
 import { planShapes } from './plan.js';
+import { DEFAULT_WORK_BUDGET, MAX_EVALUATIONS, MAX_SIMULATED_BYTES, planWork } from '../../shared/plan-rules.js';
 
-/**
- * Default work budget (point-placements). A whole sweep measured about 6 ns per point-placement on two threads
- * of the benchmark machine at 1e6 points (npm run bench; simulated patterns cost less, the statistics of their cells
- * being only the chi-square), so the default allows a few minutes of work on two cores.
- */
-export const DEFAULT_WORK_BUDGET = 2e10;
-
-/** Most (size, placement, pattern) evaluations a sweep may hold: each keeps a chi-square value until summarised. */
-export const MAX_EVALUATIONS = 2e7;
-
-/** Most bytes of simulated CSR coordinates held at once (n x sims x 16 bytes). */
-export const MAX_SIMULATED_BYTES = 1024 * 1024 * 1024;
+export { DEFAULT_WORK_BUDGET } from '../../shared/plan-rules.js';
 
 /** Work of one chunk task, in point-placements: small enough that a cancelled sweep stops within a second. */
 export const CHUNK_WORK = 1e7;
@@ -55,15 +45,9 @@ function sizeCount(plan: Plan): number {
  */
 export function estimateSweep(plan: Plan, nInside: number, budget: number = DEFAULT_WORK_BUDGET): SweepEstimate {
   const sizes = sizeCount(plan);
-  const patterns = 1 + plan.sims;
   const perChunk = chunkPlacements(nInside, plan.sims);
-  return {
-    work: nInside * plan.placements * sizes * patterns,
-    budget,
-    tasks: sizes * Math.ceil(plan.placements / perChunk),
-    evaluations: sizes * plan.placements * patterns,
-    simulatedBytes: nInside * 16 * plan.sims,
-  };
+  const { work, evaluations, simulatedBytes } = planWork(nInside, plan.placements, sizes, plan.sims);
+  return { work, budget, tasks: sizes * Math.ceil(plan.placements / perChunk), evaluations, simulatedBytes };
 }
 
 function formatCount(value: number): string {

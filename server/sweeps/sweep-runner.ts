@@ -5,7 +5,7 @@
  * not change a single number of the result.
  */
 import { setMaxListeners } from 'node:events';
-import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../contracts.js';
+import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../../shared/contracts.js';
 import { summarizeDataset } from '../inputs/summarize-dataset.js';
 import { PACKAGE_VERSION } from '../services/project-paths.js';
 import { buildSweepSummary } from '../summary/sweep-summary.js';
@@ -16,6 +16,8 @@ import { planShapes, resolveCellSizes, validatedPlan } from './plan.js';
 import { latticeOf } from '../../workers/lattice/registry.js';
 import { runBounded } from './bounded-tasks.js';
 import { SizeResults } from './size-results.js';
+import type { StabilitySurface } from '../stability/stability-accumulator.js';
+import { stabilitySummary } from '../stability/stability-summary.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv } from './sweep-budget.js';
 import { fromWorkerError, isAbortError, sweepCancelledError } from './sweep-errors.js';
 
@@ -27,11 +29,15 @@ export interface SweepRunOptions {
   onProgress?: (progress: SweepProgress) => void;
   /** the stored dataset's id: with the content hash, the key its shared copy is kept under */
   datasetId?: string;
+  /** also compute the stability surface of every (shape, cell size) (server/stability) */
+  stability?: boolean;
 }
 
 export interface SweepResult {
   rows: PlacementRow[];
   summary: SweepSummary;
+  /** one per (shape, cell size) when options.stability, in the order of summary.sizes; empty otherwise */
+  stability: StabilitySurface[];
 }
 
 export class ExecutorSweepRunner {
@@ -86,6 +92,7 @@ export class ExecutorSweepRunner {
         const placements = planPlacements(plan, latticeOf(shape).anglePeriod);
         return cellSizes.map((cellSize, index) => new SizeResults(shapeIndex * cellSizes.length + index, cellSize, placements, plan.sims, shape));
       });
+      if (options.stability === true) for (const size of sizes) size.enableStability(dataset.region);
       if (simulation !== null && !this.executor.simulatesInWorkers && !controller.signal.aborted) {
         await runBounded(simulateTasks(ref, simulation), this.executor.maxInFlight, (work) => guard(this.executor.run(work, controller.signal)), () => controller.signal.aborted);
       }
@@ -121,7 +128,12 @@ export class ExecutorSweepRunner {
         startedAt,
         finishedAt: new Date(),
       });
-      return { rows: sizes.flatMap((size) => size.rows), summary };
+      const stability = options.stability === true ? sizes.map((size) => size.stabilitySurface(plan.alpha) as StabilitySurface) : [];
+      if (stability.length > 0) {
+        const bothShapes = new Set(sizes.map((size) => size.shape)).size > 1;
+        summary.stability = stability.map((surface, k) => stabilitySummary(surface, sizes[k]!.sizeIndex, bothShapes));
+      }
+      return { rows: sizes.flatMap((size) => size.rows), summary, stability };
     } finally {
       options.signal?.removeEventListener('abort', onAbort);
       if (simulation !== null) this.executor.release(simulation);
@@ -166,6 +178,7 @@ function* chunkTasks(dataset: DatasetRef, simulation: SimulationRef | null, plan
         minCoverage: plan.minCoverage,
         alpha: plan.alpha,
         placements: placements.slice(3 * first, 3 * (first + count)),
+        ...(size.stabilityRaster === undefined ? {} : { stability: size.stabilityRaster }),
       };
       yield { size, first, count, task };
     }

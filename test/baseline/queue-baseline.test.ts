@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { loadDataset } from '../../server/inputs/index.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { SweepPool } from '../../server/sweeps/sweep-pool.js';

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
-import type { SweepSummary } from '../../server/contracts.js';
+import type { SweepSummary } from '../../shared/contracts.js';
 import { run } from '../cli/run-cli.js';
 import { polygonFile, write } from './baseline-fixtures.js';
 import { blocksGeoJson, csv, discPoints, populationPoints, TOWN } from './population-fixtures.js';

@@ -3,7 +3,7 @@
  * 20 km across with an invented reservoir as a no-data zone, and clustered points (Thomas-like: 60 % around 400
  * seeded sites with sd 250 m, 40 % uniform), all inside the valid region. Demo data only.
  */
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { toRegion } from '../../server/inputs/to-region.js';
 import { createRegionLocator } from '../../workers/geometry/index.js';
 import { createRandom } from '../../workers/random/index.js';

@@ -8,7 +8,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { DEFAULT_PLAN } from '../../server/contracts.js';
+import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
 import { PACKAGE_ROOT } from '../../server/services/project-paths.js';
 import { haltonPlacements } from '../../workers/random/index.js';
 import { BENCH_ORIGIN, cellSideForExpected, clusteredDataset } from './bench-data.js';

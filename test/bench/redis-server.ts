@@ -46,9 +46,10 @@ export function redisCommand(port: number, command: string): Promise<string> {
 }
 
 /** Starts redis-server on `port` (a free one by default) and waits until it answers PING. */
-export async function startRedis(port?: number): Promise<TestRedis> {
+export async function startRedis(port?: number, extraArgs: string[] = []): Promise<TestRedis> {
   const chosen = port ?? (await freePort());
-  const child = spawn(REDIS_SERVER, ['--port', String(chosen), '--bind', '127.0.0.1', '--save', '', '--appendonly', 'no', '--loglevel', 'warning'], {
+  const args = ['--port', String(chosen), '--bind', '127.0.0.1', '--save', '', '--appendonly', 'no', '--loglevel', 'warning', ...extraArgs];
+  const child = spawn(REDIS_SERVER, args, {
     stdio: ['ignore', 'ignore', 'pipe'],
   });
   const failed = new Promise<never>((_, reject) => {
@@ -59,7 +60,8 @@ export async function startRedis(port?: number): Promise<TestRedis> {
   const deadline = Date.now() + 10_000;
   for (;;) {
     const answer = await Promise.race([redisCommand(chosen, 'PING').catch(() => ''), failed]);
-    if (answer.startsWith('+PONG')) break;
+    // with --requirepass an unauthenticated PING is answered -NOAUTH: the server is up
+    if (answer.startsWith('+PONG') || answer.startsWith('-NOAUTH')) break;
     if (Date.now() > deadline) throw new Error(`redis-server on port ${chosen} did not answer within 10 s`);
     await sleep(50);
   }

@@ -6,7 +6,8 @@
  *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|hex|queue   one group (queue: the Redis queue's
  *                                     figures, with a redis-server started on a free loopback port)
  *   npm run bench -- --json           the same, tables on stderr and one JSON object on stdout: one key per target
- *                                     (wholeSweep, defaultPlanCli, monteCarlo, peakMemory, serverVsCli), each
+ *                                     (wholeSweep, defaultPlanCli, monteCarlo, peakMemory, serverVsCli, and
+ *                                     hexVsSquare: hexagon counting against square counting), each
  *                                     { ratio, ours, reference, target, met, status }, plus the machine and load
  */
 import { availableParallelism, cpus, loadavg, totalmem } from 'node:os';
@@ -58,7 +59,7 @@ if (wants('server')) targets.serverVsCli = await runServerBench();
 if (wants('memory')) targets.peakMemory = runMemoryBench();
 if (wants('sweep') || wants('phases')) runPhaseBench();
 if (wants('naive')) await runNaiveBench(twoThreadNs);
-if (wants('hex')) runHexBench();
+if (wants('hex')) targets.hexVsSquare = runHexBench();
 if (wants('queue')) await runQueueBench();
 
 const loadAverageAtEnd = loadavg()[0];

@@ -148,7 +148,10 @@ describe('sweep checks --out before any work', () => {
     const result = await run(['sweep', '--points', join(SAMPLE, 'points.csv'), '--area', join(SAMPLE, 'area.geojson'), '--crs', 'planar',
       '--per-cell', '2', '--placements', '4', '--sims', '0', '--threads', '1', '--out', out]);
     expect(result.code, result.stderr).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['placements.csv', 'report.html', 'summary.json']);
+    // the three files and the stability surface of the one cell size (issue 17): stability-<side>m.tif and its areas
+    const names = readdirSync(out).sort();
+    const side = /^stability-([0-9.]+m)\.tif$/.exec(names.find((name) => name.startsWith('stability-')) ?? '')?.[1];
+    expect(names).toEqual([`excess-areas-${side}.geojson`, 'placements.csv', 'report.html', `stability-${side}.tif`, 'summary.json']);
     rmSync(join(folder, 'new'), { recursive: true });
   });
 });

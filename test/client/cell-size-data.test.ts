@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { cellSizeSeries } from '../../client/src/charts/cell-size-data.js';
-import { cellSizeChartSpec, cellSizeTable } from '../../client/src/charts/cell-size-chart.js';
-import { hydrateChartSpec } from '../../client/src/charts/chart-runtime.js';
+import { cellSizeSeries } from '../../shared/charts/cell-size-data.js';
+import { cellSizeChartSpec, cellSizeTable } from '../../shared/charts/cell-size-chart.js';
+import { hydrateChartSpec } from '../../shared/charts/chart-runtime.js';
 import { makeMonteCarlo, makeRow, makeSize, quantiles } from './summary-fixture.js';
 
 // Expected values are hand computations from the fixture's numbers.
@@ -49,11 +49,11 @@ describe('cellSizeChartSpec(series, placements)', () => {
     const labels = spec.data.datasets.map((dataset) => dataset.label);
     expect(labels).toContain('CSR envelope of medians (2.5-97.5 %)');
     const quartiles = spec.data.datasets.find((dataset) => dataset.label === 'quartiles (25-75 %)');
-    expect(quartiles?.data).toEqual([{ x: 250, y: [1.3, 1.9] }, { x: 500, y: [2.5, 3.5] }]);
+    expect(quartiles?.data).toEqual([{ x: 250, y: [1.3, 1.9], entry: 0 }, { x: 500, y: [2.5, 3.5], entry: 1 }]);
     const one = spec.data.datasets.find((dataset) => dataset.label === '1 = CSR expectation');
-    expect(one?.data).toEqual([{ x: 250, y: 1 }, { x: 500, y: 1 }]);
+    expect(one?.data).toEqual([{ x: 250, y: 1, entry: 0 }, { x: 500, y: 1, entry: 1 }]);
     expect(spec.data.datasets[0].fill).toBe('+1');
-    expect(spec.data.datasets[1].data).toEqual([{ x: 250, y: 2.3 }, { x: 500, y: 4 }]);
+    expect(spec.data.datasets[1].data).toEqual([{ x: 250, y: 2.3, entry: 0 }, { x: 500, y: 4, entry: 1 }]);
     const scales = spec.options.scales as Record<string, { title: { text: string } }>;
     expect(scales.x.title.text).toBe('cell side (m)');
     expect(JSON.parse(JSON.stringify(spec))).toEqual(spec);
@@ -71,6 +71,21 @@ describe('cellSizeChartSpec(series, placements)', () => {
     // margins of 8 % of the range (8.8 m) or of the smallest side (11.52 m), whichever is larger, each way
     expect(scales.x.min).toBeCloseTo(144 - 11.52, 10);
     expect(scales.x.max).toBeCloseTo(254 + 11.52, 10);
+  });
+
+  it('draws squares and hexagons of the same side as separate, labelled series; each point names its entry', () => {
+    const hexSmall = makeSize({ sizeIndex: 2, cellSize: 250, shape: 'hex', chi2PerDf: quantiles(1.1, 1.4, 1.7, 2, 2.4) });
+    const series = cellSizeSeries([hexSmall, large, small], 'chi2PerDf');
+    expect(series.labels).toEqual(['250 m', '250 m hexagons', '500 m']);
+    expect(series.shapes).toEqual(['square', 'hex', 'square']);
+    expect(series.sizeIndex).toEqual([1, 2, 0]);
+    const spec = cellSizeChartSpec(series, 64);
+    const medianOf = (label: string) => spec.data.datasets.find((dataset) => dataset.label === label)?.data;
+    expect(medianOf('median, squares')).toEqual([{ x: 250, y: 1.6, entry: 0 }, { x: 500, y: 3, entry: 2 }]);
+    expect(medianOf('median, hexagons')).toEqual([{ x: 250, y: 1.7, entry: 1 }]);
+    expect(spec.data.datasets.filter((dataset) => dataset.label === '1 = CSR expectation')).toHaveLength(1);
+    const subtitle = (spec.options.plugins as { subtitle: { text: string[] } }).subtitle.text;
+    expect(subtitle.join(' ')).toContain('hexagons (area = side²) in orange');
   });
 
   it('has no envelope datasets without simulations', () => {

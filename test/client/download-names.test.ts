@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { downloadName, fileSlug, sidesTag } from '../../server/messages/download-names.js';
+import { downloadName, fileSlug, sidesTag } from '../../shared/messages/download-names.js';
 
 // Ten downloads in one folder stay apart: every file name carries the dataset name and the cell side(s).
 describe('download names', () => {

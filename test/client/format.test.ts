@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { formatDuration, formatMetres, formatNumber, formatP, formatPercent } from '../../client/src/charts/format.js';
+import { formatDuration, formatMetres, formatNumber, formatP, formatPercent } from '../../shared/format.js';
 
 describe('format helpers', () => {
   it('formatNumber keeps significant digits and drops trailing zeros', () => {

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { equalEdges, histogram, monteCarloHistograms, stepPoints, sturgesBins } from '../../client/src/charts/histogram-data.js';
-import { monteCarloChartSpec } from '../../client/src/charts/monte-carlo-chart.js';
+import { equalEdges, histogram, monteCarloHistograms, stepPoints, sturgesBins } from '../../shared/charts/histogram-data.js';
+import { monteCarloChartSpec } from '../../shared/charts/monte-carlo-chart.js';
 import { makeMonteCarlo } from './summary-fixture.js';
 
 describe('sturgesBins(n)', () => {

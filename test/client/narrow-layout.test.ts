@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { narrowLayout, wrapText } from '../../client/src/charts/narrow-layout.js';
-import { baseOptions, axis } from '../../client/src/charts/chart-spec.js';
+import { baseOptions, axis } from '../../shared/charts/chart-spec.js';
 
 // Charts on a 360 px phone: long titles wrap into lines that fit instead of running into the axis titles.
 describe('narrow chart layout', () => {

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { defaultOffsetBins, offsetHeatmap } from '../../client/src/charts/offset-heatmap-data.js';
-import { offsetHeatmapChartSpec } from '../../client/src/charts/offset-heatmap-chart.js';
-import { sequentialColour } from '../../client/src/charts/palette.js';
+import { defaultOffsetBins, offsetHeatmap } from '../../shared/charts/offset-heatmap-data.js';
+import { offsetHeatmapChartSpec } from '../../shared/charts/offset-heatmap-chart.js';
+import { sequentialColour } from '../../shared/charts/palette.js';
 import { makeRow } from './summary-fixture.js';
 
 describe('offsetHeatmap(rows, sizeIndex, bins)', () => {

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { DEFAULT_PLAN } from '../../server/contracts.js';
+import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
 import { estimateSweep } from '../../server/sweeps/sweep-budget.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { planCost } from '../../client/src/plan/plan-estimate.js';
@@ -24,6 +24,18 @@ describe('readPlan(values)', () => {
     expect(reading.plan).toEqual({ cells: [150, 190, 400], placements: 256, rotation: true, design: 'halton', minCoverage: 0.5, alpha: 0.05, sims: 99, seed: 1 });
     // the server's own validation accepts what the page sends
     expect(normalizePlan(reading.plan)).toEqual(reading.plan);
+  });
+
+  it('maps the shape choice to the plan\'s shape: none for squares (the default), "hex", or both in a list', () => {
+    expect(readPlan(form({ shape: 'square' })).plan).not.toHaveProperty('shape');
+    const hex = readPlan(form({ shape: 'hex' })).plan!;
+    expect(hex.shape).toBe('hex');
+    const both = readPlan(form({ shape: 'both' })).plan!;
+    expect(both.shape).toEqual(['square', 'hex']);
+    // the server's own validation accepts what the page sends, and counts both shapes in its estimate
+    expect(normalizePlan(both)).toEqual(both);
+    expect(planCost(both, 564, 2e10).work).toBe(estimateSweep(both, 564, 2e10).work);
+    expect(planCost(both, 564, 2e10).work).toBe(2 * planCost(readPlan(form({})).plan!, 564, 2e10).work);
   });
 
   it('starts from the server defaults', () => {

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { sizeNumbers } from '../../client/src/charts/size-numbers.js';
+import { sizeNumbers } from '../../shared/charts/size-numbers.js';
 import { makeMonteCarlo, makeRow, makeSize } from './summary-fixture.js';
 
 describe('sizeNumbers(size)', () => {

@@ -2,7 +2,7 @@
  * Test-only builders of placement rows and size summaries with hand-chosen numbers. Invented values for checking
  * the chart data shaping against hand computation; not output of the engine.
  */
-import type { MonteCarloResult, PlacementRow, Quantiles, SizeSummary, SweepSummary } from '../../server/contracts.js';
+import type { MonteCarloResult, PlacementRow, Quantiles, SizeSummary, SweepSummary } from '../../shared/contracts.js';
 
 export function makeRow(fields: Partial<PlacementRow>): PlacementRow {
   return {

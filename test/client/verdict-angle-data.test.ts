@@ -1,9 +1,9 @@
 import { describe, it, expect } from 'vitest';
-import { angleSeries } from '../../client/src/charts/angle-data.js';
-import { angleChartSpec } from '../../client/src/charts/angle-chart.js';
-import { hydrateChartSpec } from '../../client/src/charts/chart-runtime.js';
-import { verdictSeries } from '../../client/src/charts/verdict-data.js';
-import { verdictChartSpec } from '../../client/src/charts/verdict-chart.js';
+import { angleSeries } from '../../shared/charts/angle-data.js';
+import { angleChartSpec } from '../../shared/charts/angle-chart.js';
+import { hydrateChartSpec } from '../../shared/charts/chart-runtime.js';
+import { verdictSeries } from '../../shared/charts/verdict-data.js';
+import { verdictChartSpec } from '../../shared/charts/verdict-chart.js';
 import { makeRow, makeSize } from './summary-fixture.js';
 
 describe('verdictSeries(sizes)', () => {
@@ -58,6 +58,10 @@ describe('angleSeries(rows, sizeIndex, referenceIndex)', () => {
     expect(series.points.find((point) => point.placementIndex === 7)?.tip).toBe('Placement 7: offset (0.25, 0.5) cells, angle 33.75°, VMR 1.9, clustered');
     expect(series.reference?.tip).toMatch(/^Reference grid\. Placement 0: .*no departure from CSR$/);
     const spec = angleChartSpec(series, '200 m');
+    const axisMax = (chart: typeof spec) => (chart.options.scales as Record<string, { max: number }>).x.max;
+    // the angle axis spans the lattice's period: 90 degrees for squares, 60 for hexagons
+    expect(axisMax(spec)).toBe(90);
+    expect(axisMax(angleChartSpec(series, '200 m hexagons', 60))).toBe(60);
     const scatter = spec.data.datasets.filter((dataset) => Array.isArray(dataset.data) && (dataset.data as { verdict?: string }[]).some((point) => point.verdict));
     // three verdict series plus the reference; no two share a colour or a point style
     const verdictSets = scatter.slice(0, 3);

@@ -56,6 +56,14 @@ describe('population at risk upload in Chromium', () => {
     // the map shows the population at risk as a choropleth under the points (no grid is chosen yet, so any strong
     // colour on the map is the choropleth: the study area, the points and the zones are grey or black)
     await expect.poll(() => canvasColourShare(page, '#map')).toBeGreaterThan(0.05);
+    // it is a layer of the map's list and legend: switched off, the strong colour goes
+    expect(await page.isChecked('#layer-toggle-baseline')).toBe(true);
+    expect(await page.innerText('#map-legend')).toContain('population at risk per km²');
+    await page.uncheck('#layer-toggle-baseline');
+    await expect.poll(() => canvasColourShare(page, '#map')).toBeLessThan(0.01);
+    expect(await page.innerText('#map-legend')).not.toContain('population at risk');
+    await page.check('#layer-toggle-baseline');
+    await expect.poll(() => canvasColourShare(page, '#map')).toBeGreaterThan(0.05);
     expect(errors).toEqual([]);
   }, 120_000);
 });

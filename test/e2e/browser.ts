@@ -28,20 +28,52 @@ export async function launchBrowser(): Promise<Browser> {
   });
 }
 
-/** Share of pixels of a canvas that are neither transparent nor white: > 0 means something was drawn. */
-export async function canvasInk(page: Page, selector: string): Promise<number> {
+/**
+ * Pixel shares of what `selector` shows: a canvas itself, or, for a container such as the map (a stack of layer
+ * canvases), its canvases composited by their on-screen boxes in document order. `ink`: neither transparent nor
+ * white; `colour`: a strong colour (max - min channel > 60), e.g. grid shading rather than grey or black ink;
+ * `dark`: every channel below 80 (black ink such as points).
+ */
+export async function canvasShares(page: Page, selector: string): Promise<{ ink: number; colour: number; dark: number }> {
   return page.$eval(selector, (element) => {
-    const canvas = element as HTMLCanvasElement;
-    const context = canvas.getContext('2d');
-    if (!context || canvas.width === 0 || canvas.height === 0) return 0;
-    const { data } = context.getImageData(0, 0, canvas.width, canvas.height);
-    let inked = 0;
-    for (let offset = 0; offset < data.length; offset += 4) {
-      const white = data[offset] > 245 && data[offset + 1] > 245 && data[offset + 2] > 245;
-      if (data[offset + 3] > 0 && !white) inked += 1;
+    let pixels: Uint8ClampedArray | null = null;
+    if (element instanceof HTMLCanvasElement) {
+      const context = element.getContext('2d');
+      if (context && element.width > 0 && element.height > 0) pixels = context.getImageData(0, 0, element.width, element.height).data;
+    } else {
+      const box = element.getBoundingClientRect();
+      const ratio = window.devicePixelRatio || 1;
+      const out = document.createElement('canvas');
+      out.width = Math.max(1, Math.round(box.width * ratio));
+      out.height = Math.max(1, Math.round(box.height * ratio));
+      const context = out.getContext('2d')!;
+      for (const canvas of Array.from(element.querySelectorAll('canvas'))) {
+        const inner = canvas.getBoundingClientRect();
+        if (canvas.width === 0 || canvas.height === 0 || inner.width === 0) continue;
+        context.drawImage(canvas, (inner.left - box.left) * ratio, (inner.top - box.top) * ratio, inner.width * ratio, inner.height * ratio);
+      }
+      pixels = context.getImageData(0, 0, out.width, out.height).data;
     }
-    return inked / (data.length / 4);
+    if (!pixels) return { ink: 0, colour: 0, dark: 0 };
+    let inked = 0;
+    let coloured = 0;
+    let dark = 0;
+    for (let offset = 0; offset < pixels.length; offset += 4) {
+      if (pixels[offset + 3] === 0) continue;
+      if (pixels[offset] < 80 && pixels[offset + 1] < 80 && pixels[offset + 2] < 80) dark += 1;
+      const high = Math.max(pixels[offset], pixels[offset + 1], pixels[offset + 2]);
+      const low = Math.min(pixels[offset], pixels[offset + 1], pixels[offset + 2]);
+      if (!(pixels[offset] > 245 && pixels[offset + 1] > 245 && pixels[offset + 2] > 245)) inked += 1;
+      if (high - low > 60) coloured += 1;
+    }
+    const total = pixels.length / 4;
+    return { ink: inked / total, colour: coloured / total, dark: dark / total };
   });
+}
+
+/** Share of pixels of a canvas (or of a container's canvases) that are neither transparent nor white: > 0 means something was drawn. */
+export async function canvasInk(page: Page, selector: string): Promise<number> {
+  return (await canvasShares(page, selector)).ink;
 }
 
 /** Records every request a page makes that does not go to `allowedOrigin` (or is not a data:/blob: URL). */
@@ -56,19 +88,7 @@ export function watchForeignRequests(page: Page, allowedOrigin: string | null): 
   return foreign;
 }
 
-/** Share of a canvas's pixels with a strong colour (max - min channel > 60): grid shading, not grey or black ink. */
+/** Share of a canvas's (or a container's canvases') pixels with a strong colour: grid shading, not grey or black ink. */
 export async function canvasColourShare(page: Page, selector: string): Promise<number> {
-  return page.$eval(selector, (element) => {
-    const canvas = element as HTMLCanvasElement;
-    const context = canvas.getContext('2d');
-    if (!context || canvas.width === 0 || canvas.height === 0) return 0;
-    const { data } = context.getImageData(0, 0, canvas.width, canvas.height);
-    let coloured = 0;
-    for (let offset = 0; offset < data.length; offset += 4) {
-      const high = Math.max(data[offset], data[offset + 1], data[offset + 2]);
-      const low = Math.min(data[offset], data[offset + 1], data[offset + 2]);
-      if (data[offset + 3] > 0 && high - low > 60) coloured += 1;
-    }
-    return coloured / (data.length / 4);
-  });
+  return (await canvasShares(page, selector)).colour;
 }

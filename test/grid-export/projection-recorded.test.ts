@@ -10,7 +10,7 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { run, tempFolder } from '../cli/run-cli.js';
-import { datasetSummaryEntries } from '../../client/src/charts/dataset-entries.js';
+import { datasetSummaryEntries } from '../../shared/charts/dataset-entries.js';
 import { lonLatScenario, utmScenario } from './geo-scenarios.js';
 
 const write = tempFolder();

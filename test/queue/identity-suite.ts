@@ -4,7 +4,7 @@
  * with 2 and 3.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { SweepPool } from '../../server/sweeps/sweep-pool.js';
 import { fixtureDataset } from '../sweeps/sweep-fixtures.js';

@@ -2,7 +2,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { QueueWorker } from '../../server/queue/queue-worker.js';
 import { parseQueueUrl } from '../../server/queue/queue-url.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';

@@ -5,7 +5,7 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
-import type { PlacementRow, SweepSummary } from '../../server/contracts.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
 import { QueueExecutor } from '../../server/queue/queue-executor.js';
 import { parseQueueUrl } from '../../server/queue/queue-url.js';
 import { PACKAGE_ROOT } from '../../server/services/project-paths.js';

@@ -3,7 +3,7 @@ import { chmodSync, closeSync, mkdirSync, mkdtempSync, openSync, readdirSync, re
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { DEFAULT_PLAN } from '../../server/contracts.js';
+import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
 import { loadDataset } from '../../server/inputs/index.js';
 import { resolveCellSizes } from '../../server/sweeps/plan.js';
 import { PROJECT_ROOT, runCliChild, type ChildRun } from './cli-child.js';

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { loadDataset } from '../../server/inputs/index.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { SweepPool } from '../../server/sweeps/sweep-pool.js';

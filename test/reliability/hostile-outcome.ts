@@ -3,7 +3,7 @@
  * a GS_ERR_ code, a 4xx status and a short message that says what is wrong. Anything else (another exception, an
  * invalid dataset, a run past its time bound) is a failure, described in one line for the report.
  */
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { GridshakeError } from '../../server/errors.js';
 import { loadDataset, type DatasetInput, type DatasetOptions } from '../../server/inputs/index.js';
 
@@ -14,7 +14,7 @@ export type HostileOutcome = { kind: 'dataset'; dataset: Dataset } | { kind: 're
 
 const finite = (values: ArrayLike<number>): boolean => Array.from(values).every(Number.isFinite);
 
-/** Why `dataset` breaks the Dataset contract (server/contracts.ts), or null when it is valid. */
+/** Why `dataset` breaks the Dataset contract (shared/contracts.ts), or null when it is valid. */
 export function datasetProblem(dataset: Dataset): string | null {
   const n = dataset.ids.length;
   if (dataset.xy.length !== 2 * n) return `xy holds ${dataset.xy.length} numbers for ${n} ids`;

@@ -6,7 +6,7 @@ import Database from 'better-sqlite3';
 import { GridshakeStore } from '../../server/store/store.js';
 import { MIGRATIONS } from '../../server/store/migrations.js';
 import { fromStoredJson, toStoredJson, decodeRings, encodeRings } from '../../server/store/blob-codec.js';
-import type { Dataset, DatasetSummary, PlacementRow } from '../../server/contracts.js';
+import type { Dataset, DatasetSummary, PlacementRow } from '../../shared/contracts.js';
 
 const folders: string[] = [];
 function tempFolder(): string {

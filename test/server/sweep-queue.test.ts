@@ -1,7 +1,7 @@
 import { describe, it, expect, afterEach } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../server/contracts.js';
+import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
 import { loadDataset, summarizeDataset } from '../../server/inputs/index.js';
 import { SweepQueue } from '../../server/services/sweep-queue.js';
 import type { SweepRunner, SweepRunOptions } from '../../server/services/sweep-runner.js';

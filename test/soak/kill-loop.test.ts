@@ -183,7 +183,7 @@ describe('kill loop', () => {
     // compared without the first line, a comment naming the run with its own sweep id
     const rowsOf = (csv: string): string => csv.slice(csv.indexOf('\n') + 1);
     const referenceCsv = rowsOf(await text(`/api/sweeps/${reference}/placements.csv`));
-    const small = await startSweep(survey.id, { cells: [120, 200], placements: 32, sims: 9 });
+    const small = await startSweep(survey.id, { cells: [120, 200], placements: 32, sims: 19 });
     await waitFor(small, (s) => s.status === 'done');
 
     const datasets = new Map<string, string>([[survey.id, await datasetDigest(survey.id)], [field.id, await datasetDigest(field.id)]]);

@@ -1,4 +1,4 @@
-import type { PlacementRow } from '../../server/contracts.js';
+import type { PlacementRow } from '../../shared/contracts.js';
 import type { Verdict } from '../../workers/types.js';
 
 /** A placement row with the fields a summary reads; the rest filled consistently for m = 21 whole cells. */

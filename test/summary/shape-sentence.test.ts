@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import type { PlacementRow } from '../../server/contracts.js';
-import { overallConclusion, shapeSentence } from '../../server/summary/conclusion.js';
+import type { PlacementRow } from '../../shared/contracts.js';
+import { overallConclusion } from '../../server/summary/conclusion.js';
+import { shapeSentence } from '../../shared/shape-sentence.js';
 import { summarizeSize } from '../../server/summary/size-summary.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import type { Verdict } from '../../workers/types.js';

@@ -1,6 +1,6 @@
-import type { OverallTest } from '../../server/contracts.js';
+import type { OverallTest } from '../../shared/contracts.js';
 import { describe, it, expect } from 'vitest';
-import type { MonteCarloResult } from '../../server/contracts.js';
+import type { MonteCarloResult } from '../../shared/contracts.js';
 import { overallConclusion, sizeConclusion, formatShare } from '../../server/summary/conclusion.js';
 import { referenceRank, extremeIndices } from '../../server/summary/reference-rank.js';
 import { summarizeSize } from '../../server/summary/size-summary.js';

@@ -1,40 +1,19 @@
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
-import { runCli } from '../../server/cli/main.js';
-import type { PlacementRow, SweepSummary } from '../../server/contracts.js';
-import { AREA_RING, RESERVOIR_RING, pointsCsv, polygonGeoJson } from './sweep-fixtures.js';
+import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
+import { run as cli } from '../cli/run-cli.js';
+import { scenarioFiles } from './sweep-fixtures.js';
 
 // `gridshake sweep --shape` (issue 16): the hexagon rows of a sweep are what `gridshake count --shape hex` says at
 // the same placement, and square,hex puts both shapes of one placement design side by side in every output.
 
-function scenarioFiles(): { folder: string; points: string; area: string; reservoir: string } {
-  const folder = mkdtempSync(join(tmpdir(), 'gridshake-hexsweep-'));
-  const write = (name: string, content: string): string => {
-    const path = join(folder, name);
-    writeFileSync(path, content);
-    return path;
-  };
-  return {
-    folder,
-    points: write('sightings.csv', pointsCsv(1200, true, 8)),
-    area: write('district.geojson', polygonGeoJson(AREA_RING)),
-    reservoir: write('reservoir.geojson', polygonGeoJson(RESERVOIR_RING)),
-  };
-}
-
-async function cli(argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const code = await runCli(argv, { stdout: (t) => (stdout += t), stderr: (t) => (stderr += t) });
-  return { code, stdout, stderr };
-}
+const scenario = () => scenarioFiles('gridshake-hexsweep-', 'sightings.csv', 1200, 8);
 
 describe('gridshake sweep --shape', () => {
   it('runs square,hex on one design: shape column, per-size shape, hexagon rows equal to count --shape hex', async () => {
-    const files = scenarioFiles();
+    const files = scenario();
     const out = join(files.folder, 'out');
     const input = ['--points', files.points, '--area', files.area, '--no-data', files.reservoir, '--crs', 'planar'];
     const sweep = await cli(['sweep', ...input, '--cells', '90,150', '--placements', '12', '--sims', '19', '--seed', '3', '--shape', 'square,hex', '--out', out, '--threads', '2']);
@@ -86,7 +65,7 @@ describe('gridshake sweep --shape', () => {
   });
 
   it('refuses an unknown shape in command-line words and writes nothing', async () => {
-    const files = scenarioFiles();
+    const files = scenario();
     const result = await cli(['sweep', '--points', files.points, '--crs', 'planar', '--cells', '90', '--shape', 'square,circle', '--out', join(files.folder, 'never')]);
     expect(result.code).toBe(1);
     expect(result.stderr).toContain("--shape must be one of square, hex, got 'circle'");
@@ -95,7 +74,7 @@ describe('gridshake sweep --shape', () => {
 
 describe('report.html of a sweep with both shapes', () => {
   it('lists each (side, shape) entry side by side and says what was varied for each shape', async () => {
-    const files = scenarioFiles();
+    const files = scenario();
     const out = join(files.folder, 'out');
     const sweep = await cli(['sweep', '--points', files.points, '--area', files.area, '--crs', 'planar', '--cells', '120', '--placements', '6', '--sims', '0', '--shape', 'square,hex', '--out', out, '--threads', '1']);
     expect(sweep.code, sweep.stderr).toBe(0);
@@ -108,7 +87,7 @@ describe('report.html of a sweep with both shapes', () => {
   });
 
   it('draws the reference grid of a hexagon-only sweep as hexagons on the report map', async () => {
-    const files = scenarioFiles();
+    const files = scenario();
     const out = join(files.folder, 'out');
     const sweep = await cli(['sweep', '--points', files.points, '--area', files.area, '--crs', 'planar', '--cells', '150', '--placements', '4', '--sims', '0', '--shape', 'hex', '--out', out, '--threads', '1']);
     expect(sweep.code, sweep.stderr).toBe(0);

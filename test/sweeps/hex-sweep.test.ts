@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset, PlacementRow } from '../../server/contracts.js';
+import type { Dataset, PlacementRow } from '../../shared/contracts.js';
 import { insideCoordinates } from '../../server/inputs/index.js';
 import { normalizePlan, planShapes } from '../../server/sweeps/plan.js';
 import { estimateSweep } from '../../server/sweeps/sweep-budget.js';

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { DEFAULT_PLAN } from '../../server/contracts.js';
+import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
 import { GridshakeError } from '../../server/errors.js';
 import { normalizePlan, resolveCellSizes } from '../../server/sweeps/plan.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv, DEFAULT_WORK_BUDGET } from '../../server/sweeps/sweep-budget.js';

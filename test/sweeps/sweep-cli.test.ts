@@ -1,41 +1,20 @@
 import { execFile } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync, existsSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { describe, it, expect } from 'vitest';
 import { parse } from 'csv-parse/sync';
-import { runCli } from '../../server/cli/main.js';
-import type { SweepSummary } from '../../server/contracts.js';
-import { AREA_RING, RESERVOIR_RING, pointsCsv, polygonGeoJson } from './sweep-fixtures.js';
+import type { SweepSummary } from '../../shared/contracts.js';
+import { run as inProcess } from '../cli/run-cli.js';
+import { scenarioFiles } from './sweep-fixtures.js';
 
 const run = promisify(execFile);
 
-function scenarioFiles(): { folder: string; points: string; area: string; reservoir: string } {
-  const folder = mkdtempSync(join(tmpdir(), 'gridshake-sweep-'));
-  const write = (name: string, content: string): string => {
-    const path = join(folder, name);
-    writeFileSync(path, content);
-    return path;
-  };
-  return {
-    folder,
-    points: write('incidents.csv', pointsCsv(1500, true, 5)),
-    area: write('district.geojson', polygonGeoJson(AREA_RING)),
-    reservoir: write('reservoir.geojson', polygonGeoJson(RESERVOIR_RING)),
-  };
-}
-
-async function inProcess(argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const code = await runCli(argv, { stdout: (t) => (stdout += t), stderr: (t) => (stderr += t) });
-  return { code, stdout, stderr };
-}
+const scenario = () => scenarioFiles('gridshake-sweep-', 'incidents.csv', 1500, 5);
 
 describe('gridshake sweep (compiled command)', () => {
   it('writes placements.csv, summary.json and report.html for a polygon with a no-data zone', async () => {
-    const files = scenarioFiles();
+    const files = scenario();
     const out = join(files.folder, 'out');
     const { stdout, stderr } = await run(process.execPath, [
       'bin/gridshake.js', 'sweep', '--points', files.points, '--area', files.area, '--no-data', files.reservoir,
@@ -70,7 +49,7 @@ describe('gridshake sweep (compiled command)', () => {
 
 describe('gridshake sweep (flags)', () => {
   it('says which flags are wrong in command-line words', async () => {
-    const files = scenarioFiles();
+    const files = scenario();
     const out = join(files.folder, 'never');
     const both = await inProcess(['sweep', '--points', files.points, '--crs', 'planar', '--cells', '50', '--per-cell', '5', '--out', out]);
     expect(both.code).toBe(1);

@@ -3,7 +3,10 @@
  * invented reservoir as a no-data zone, and seeded point patterns (uniform, or clustered around a few invented
  * sites). Demo data only: the checks compare against independent computations, not against these numbers.
  */
-import type { Dataset } from '../../server/contracts.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Dataset } from '../../shared/contracts.js';
 import { loadDataset } from '../../server/inputs/index.js';
 
 export const AREA_RING: number[][] = [
@@ -68,4 +71,25 @@ export function fixtureDataset(n: number, clustered: boolean, seed = 7): Dataset
     },
     { crs: 'planar' },
   );
+}
+
+/** The scenario as files in a new temporary folder: clustered points (`pointsName`), the district and the reservoir. */
+export function scenarioFiles(
+  folderPrefix: string,
+  pointsName: string,
+  n: number,
+  seed: number,
+): { folder: string; points: string; area: string; reservoir: string } {
+  const folder = mkdtempSync(join(tmpdir(), folderPrefix));
+  const write = (name: string, content: string): string => {
+    const path = join(folder, name);
+    writeFileSync(path, content);
+    return path;
+  };
+  return {
+    folder,
+    points: write(pointsName, pointsCsv(n, true, seed)),
+    area: write('district.geojson', polygonGeoJson(AREA_RING)),
+    reservoir: write('reservoir.geojson', polygonGeoJson(RESERVOIR_RING)),
+  };
 }

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, it, expect } from 'vitest';
 import { booleanPointInPolygon, point, polygon } from '@turf/turf';
-import type { Dataset, SweepProgress } from '../../server/contracts.js';
+import type { Dataset, SweepProgress } from '../../shared/contracts.js';
 import { GridshakeError } from '../../server/errors.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { insideCoordinates } from '../../server/inputs/index.js';

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Dataset } from '../../server/contracts.js';
+import type { Dataset } from '../../shared/contracts.js';
 import { datasetRef } from '../../server/sweeps/dataset-key.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor } from '../../server/sweeps/executor.js';
 import { LocalExecutor } from '../../server/sweeps/local-executor.js';

@@ -11,3 +11,4 @@ export * from './negative-binomial-k.js';
 export * from './poisson-goodness-of-fit.js';
 export * from './placement-statistics.js';
 export * from './cell-sums.js';
+export * from './poisson-tails.js';

@@ -4,6 +4,7 @@
  * Float64Array per chunk, moved rather than cloned.
  */
 import type { CellShape } from '../lattice/cell-shape.js';
+import type { StabilityRaster } from '../stability/stability-raster.js';
 import type { Origin } from '../types.js';
 import { STATISTICS_FIELDS } from './statistics-codec.js';
 
@@ -47,6 +48,8 @@ export interface ChunkTask {
   placements: Float64Array;
   /** expected counts proportional to this baseline (workers/baseline/baseline-buffer.ts) instead of area */
   baseline?: { key: string; buffer: SharedArrayBuffer };
+  /** the stability surface's raster (workers/stability); absent: no surface is computed */
+  stability?: StabilityRaster;
 }
 
 export type SweepTask = SimulateTask | ChunkTask;
@@ -54,7 +57,8 @@ export type SweepTask = SimulateTask | ChunkTask;
 /**
  * Layout of a chunk result for P placements and R sims: P blocks of STATISTICS_FIELDS (observed pattern), then
  * chi2/df on pattern r at placement j at P * F + j * R + r, then the significance flags (0/1) at
- * P * F + P * R + j * R + r.
+ * P * F + P * R + j * R + r. With a stability raster, the stability part follows
+ * (workers/stability/stability-chunk.ts), from offset chunkResultLength(P, R).
  */
 export function chunkResultLength(placements: number, sims: number): number {
   return placements * (STATISTICS_FIELDS + 2 * sims);

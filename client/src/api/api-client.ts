@@ -3,8 +3,7 @@
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
-import type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
-import type { DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../server/contracts.js';
+import type { DatasetGeometry, DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -25,7 +24,7 @@ export interface StoredDataset extends DatasetSummary {
   sample?: string | null;
 }
 
-export type { DatasetGeometry } from '../../../server/services/dataset-geometry.js';
+export type { DatasetGeometry } from '../../../shared/contracts.js';
 
 export interface SweepRecord {
   id: string;
@@ -74,7 +73,8 @@ export const api = {
   health: () => request<HealthInfo>('/api/health'),
   datasets: () => request<StoredDataset[]>('/api/datasets'),
   dataset: (id: string) => request<StoredDataset>(`/api/datasets/${id}`),
-  geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry`),
+  /** the points drawn on the map: up to the server's limit of 1e5 (the map layer decimates on screen) */
+  geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry?maxPoints=100000`),
   upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
   startSweep: (datasetId: string, plan: Plan) =>
     request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),

@@ -2,7 +2,7 @@
  * Follows a sweep's progress over server-sent events (GET /api/sweeps/:id/events): `progress` events with
  * { status, progress }, then one `end` event with the final status. Closes itself after the end.
  */
-import type { SweepProgress, SweepStatus } from '../../../server/contracts.js';
+import type { SweepProgress, SweepStatus } from '../../../shared/contracts.js';
 
 export interface SweepEventHandlers {
   onProgress: (status: SweepStatus, progress: SweepProgress) => void;

@@ -1,9 +1,9 @@
 /** The dataset summary and every input warning, as a definition list and a list. */
 import type { StoredDataset } from '../api/api-client.js';
-import { datasetSummaryEntries, warningRecords } from '../charts/dataset-entries.js';
-import { formatMetres, formatNumber } from '../charts/format.js';
+import { datasetSummaryEntries, warningRecords } from '../../../shared/charts/dataset-entries.js';
+import { formatMetres, formatNumber } from '../../../shared/format.js';
 import { el } from '../ui/dom.js';
-import { warningTitle } from '../../../server/messages/warning-titles.js';
+import { warningTitle } from '../../../shared/messages/warning-titles.js';
 
 export function datasetSummaryView(dataset: StoredDataset): HTMLElement {
   const entries: [string, string][] = [

@@ -1,11 +1,11 @@
 /** The sweeps already run on the chosen dataset (the demo scenarios come with one), to open their results. */
 import { api, type SweepRecord } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatMetres } from '../charts/format.js';
+import { formatMetres } from '../../../shared/format.js';
 import { clear, confirmButton, el } from '../ui/dom.js';
 
 function describePlan(record: SweepRecord): string {
-  const sides = record.plan.cells ? record.plan.cells.map(formatMetres).join(', ') : `${record.plan.perCell?.join(', ')} points per cell`;
+  const sides = record.plan.cells ? record.plan.cells.map((side) => formatMetres(side)).join(', ') : `${record.plan.perCell?.join(', ')} points per cell`;
   return `${sides}; ${record.plan.placements} placements; ${record.plan.sims} simulations; seed ${record.plan.seed}`;
 }
 

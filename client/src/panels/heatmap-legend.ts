@@ -1,6 +1,6 @@
 /** The colour key of the offset heat map: the sequential ramp between the VMR values at its ends (see colourRange). */
-import type { ChartBundle } from '../charts/chart-spec.js';
-import { sequentialGradientCss } from '../charts/palette.js';
+import type { ChartBundle } from '../../../shared/charts/chart-spec.js';
+import { sequentialGradientCss } from '../../../shared/charts/palette.js';
 import { el } from '../ui/dom.js';
 
 export function heatmapLegend(bundle: ChartBundle): HTMLElement {

@@ -2,8 +2,8 @@
  * Keyboard-operable ways to show a placement's grid on the map: the reference grid, the lowest and highest VMR
  * placements of the chosen size, or any placement by number.
  */
-import type { SizeSummary } from '../../../server/contracts.js';
-import { formatNumber } from '../charts/format.js';
+import type { SizeSummary } from '../../../shared/contracts.js';
+import { formatNumber } from '../../../shared/format.js';
 import { el } from '../ui/dom.js';
 
 export function placementPicker(size: SizeSummary, onPick: (placementIndex: number) => void): HTMLElement {

@@ -1,14 +1,16 @@
 /**
  * Step 2: the plan. Cell sides suggested from the dataset's rules of thumb (each labelled with its rule, editable,
- * with room for more), placements, design, rotation, minCoverage, alpha, sims and seed; a live cost estimate and
+ * with room for more), the cell shape (squares, hexagons or both side by side), placements, design, rotation, minCoverage, alpha, sims and seed; a live cost estimate and
  * the budget refusal before anything starts.
  */
 import { smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
+import { PLAN_LIMITS } from '../../../shared/plan-rules.js';
 import { api, ApiError } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatNumber } from '../charts/format.js';
+import { formatNumber } from '../../../shared/format.js';
 import { planCost } from '../plan/plan-estimate.js';
-import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues } from '../plan/plan-values.js';
+import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues, type ShapeChoice } from '../plan/plan-values.js';
+import { shapeList } from '../../../workers/lattice/cell-shape.js';
 import { clear, el, field, message } from '../ui/dom.js';
 
 export function initPlanPanel(container: HTMLElement, store: Store): void {
@@ -36,12 +38,22 @@ function buildForm(container: HTMLElement, store: Store): void {
     return { include, side, label: `${formatNumber(suggestion.perCell)} per cell`, row };
   });
   const extra = el('input', { type: 'text', id: 'plan-extra-sides', placeholder: 'e.g. 150, 400' });
-  const placements = el('input', { type: 'number', id: 'plan-placements', min: 1, max: 65536, step: 1, value: PLAN_FORM_DEFAULTS.placements });
+  const placements = el('input', { type: 'number', id: 'plan-placements', min: PLAN_LIMITS.placements.min, max: PLAN_LIMITS.placements.max, step: 1, value: PLAN_FORM_DEFAULTS.placements });
   const design = el('select', { id: 'plan-design' }, el('option', { value: 'halton' }, 'Halton sequence (spread evenly, any count)'), el('option', { value: 'lattice' }, 'regular lattice'));
+  const shape = el(
+    'select',
+    { id: 'plan-shape' },
+    el('option', { value: 'square' }, 'squares'),
+    el('option', { value: 'hex' }, 'hexagons (area = side², pointy-top)'),
+    el('option', { value: 'both' }, 'both, side by side on the same placements'),
+  );
+  shape.value = PLAN_FORM_DEFAULTS.shape;
   const rotation = el('input', { type: 'checkbox', id: 'plan-rotation', checked: PLAN_FORM_DEFAULTS.rotation });
-  const minCoverage = el('input', { type: 'number', id: 'plan-min-coverage', min: 0.05, max: 1, step: 'any', value: PLAN_FORM_DEFAULTS.minCoverage });
-  const alpha = el('input', { type: 'number', id: 'plan-alpha', min: 0.001, max: 0.5, step: 'any', value: PLAN_FORM_DEFAULTS.alpha });
-  const sims = el('input', { type: 'number', id: 'plan-sims', min: 0, max: 9999, step: 1, value: PLAN_FORM_DEFAULTS.sims });
+  const rotationLabel = el('label', { for: rotation.id });
+  // minCoverage and alpha are in (0, max]: the input's min is the open end 0 (readPlan refuses 0 itself)
+  const minCoverage = el('input', { type: 'number', id: 'plan-min-coverage', min: 0, max: PLAN_LIMITS.minCoverageMax, step: 'any', value: PLAN_FORM_DEFAULTS.minCoverage });
+  const alpha = el('input', { type: 'number', id: 'plan-alpha', min: 0, max: PLAN_LIMITS.alphaMax, step: 'any', value: PLAN_FORM_DEFAULTS.alpha });
+  const sims = el('input', { type: 'number', id: 'plan-sims', min: PLAN_LIMITS.sims.min, max: PLAN_LIMITS.sims.max, step: 1, value: PLAN_FORM_DEFAULTS.sims });
   const seed = el('input', { type: 'number', id: 'plan-seed', step: 1, value: PLAN_FORM_DEFAULTS.seed });
   const estimate = el('div', { id: 'plan-estimate', class: 'estimate', 'aria-live': 'polite' });
   const start = el('button', { type: 'submit', class: 'button button-primary', id: 'start-sweep' }, 'Start the sweep');
@@ -52,6 +64,7 @@ function buildForm(container: HTMLElement, store: Store): void {
     extraSides: extra.value,
     placements: placements.value,
     design: design.value === 'lattice' ? 'lattice' : 'halton',
+    shape: (['square', 'hex', 'both'] as const).find((choice) => choice === shape.value) ?? 'square',
     rotation: rotation.checked,
     minCoverage: minCoverage.value,
     alpha: alpha.value,
@@ -60,7 +73,9 @@ function buildForm(container: HTMLElement, store: Store): void {
   });
 
   const refresh = () => {
-    const reading = readPlan(values());
+    const current = values();
+    rotationLabel.textContent = rotationText(current.shape);
+    const reading = readPlan(current);
     if (!reading.plan) {
       clear(estimate, ...reading.errors.map((text) => message('error', text)));
       start.disabled = true;
@@ -71,7 +86,7 @@ function buildForm(container: HTMLElement, store: Store): void {
     const share = cost.shareOfBudget === null ? '' : ` (${formatNumber(100 * cost.shareOfBudget, 2)} % of the budget of ${budget!.toExponential(1)})`;
     clear(
       estimate,
-      el('p', {}, `Cost: ${dataset.nInside} points x ${reading.plan.placements} placements x ${reading.plan.cells!.length} cell sides x (1 + ${reading.plan.sims}) patterns = ${cost.work.toExponential(2)} point-placements${share}.`),
+      el('p', {}, `Cost: ${dataset.nInside} points x ${reading.plan.placements} placements x ${reading.plan.cells!.length} cell sides${shapeCount(reading.plan.shape)} x (1 + ${reading.plan.sims}) patterns = ${cost.work.toExponential(2)} point-placements${share}.`),
       cost.refusal ? message('error', cost.refusal) : null,
     );
     start.disabled = cost.refusal !== null;
@@ -89,12 +104,13 @@ function buildForm(container: HTMLElement, store: Store): void {
       el('div', { class: 'field-grid' },
         field('Placements per cell side', placements),
         field('Placement design', design),
+        field('Cell shape', shape, 'Hexagons have the area of the square of the same side; both runs the two shapes on the same placements and says whether the conclusion depends on the shape.'),
         field('minCoverage (0-1)', minCoverage, 'Cells with less of their area in the valid region are left out; 1 = whole cells only.'),
         field('alpha (two-sided)', alpha),
         field('CSR simulations', sims, `At least ${smallestWorkingSims(0.05)} at alpha 0.05, ${smallestWorkingSims(0.01)} at 0.01 (no p-value below 1/(R+1)); 0 = per-placement evidence only, no test.`),
         field('Seed', seed),
       ),
-      el('div', { class: 'check-row' }, rotation, el('label', { for: rotation.id }, 'Rotate the grids (angles 0 to 90 degrees)')),
+      el('div', { class: 'check-row' }, rotation, rotationLabel),
     ),
     estimate,
     start,
@@ -122,4 +138,17 @@ function buildForm(container: HTMLElement, store: Store): void {
   });
   clear(container, form);
   refresh();
+}
+
+/** The rotation checkbox's label: each shape turns over its own period (90 degrees for squares, 60 for hexagons). */
+function rotationText(choice: ShapeChoice): string {
+  if (choice === 'hex') return 'Rotate the grids (angles 0 to 60 degrees)';
+  if (choice === 'both') return 'Rotate the grids (angles 0 to 90 degrees for squares, 0 to 60 for hexagons)';
+  return 'Rotate the grids (angles 0 to 90 degrees)';
+}
+
+/** " x 2 shapes" in the cost line when the plan runs more than one shape. */
+function shapeCount(shape: Parameters<typeof shapeList>[0]): string {
+  const count = shapeList(shape).length;
+  return count > 1 ? ` x ${count} shapes` : '';
 }

@@ -4,10 +4,10 @@
  */
 import { downloads } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { formatMetres } from '../charts/format.js';
+import { formatMetres } from '../../../shared/format.js';
 import { chartViews } from '../ui/chart-view.js';
 import { clear, el } from '../ui/dom.js';
-import { downloadName } from '../../../server/messages/download-names.js';
+import { downloadName } from '../../../shared/messages/download-names.js';
 
 export function initReportPanel(container: HTMLElement, store: Store): void {
   const render = () => {

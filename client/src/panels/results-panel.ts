@@ -1,17 +1,22 @@
 /**
- * Step 4: results. The overall conclusion, the cell-size and verdict charts, then for a chosen size the VMR
- * against angle, the offset heat map and the Monte Carlo histogram, with the conclusion and its numbers. Clicking
+ * Step 4: results. The overall conclusion (with, for a sweep of squares and hexagons, the sentence on whether it
+ * depends on the cell shape), the cell-size and verdict charts and the tables per cell size and shape (spread,
+ * verdict shares, Monte Carlo p; the report's tables, shared/charts/size-tables.ts), then for a chosen entry the
+ * VMR against angle, the offset heat map and the Monte Carlo histogram, with the conclusion and its numbers. Clicking
  * a placement in any chart (or the buttons) shows its grid on the map.
  */
-import type { SweepSummary } from '../../../server/contracts.js';
+import type { SweepSummary } from '../../../shared/contracts.js';
 import type { Store } from '../app-state.js';
-import { overviewBundles, sizeBundles } from '../charts/chart-bundles.js';
-import { cellSizeSeries, type SpreadMeasure } from '../charts/cell-size-data.js';
-import { formatMetres } from '../charts/format.js';
-import { sizeNumbers } from '../charts/size-numbers.js';
+import { overviewBundles, sizeBundles } from '../../../shared/charts/chart-bundles.js';
+import { cellSizeSeries, type SpreadMeasure } from '../../../shared/charts/cell-size-data.js';
+import { formatMetres } from '../../../shared/format.js';
+import { sizeNumbers } from '../../../shared/charts/size-numbers.js';
 import { ChartView, setPngNamer, type ChartClick } from '../ui/chart-view.js';
-import { downloadName } from '../../../server/messages/download-names.js';
-import { clear, el, field } from '../ui/dom.js';
+import { downloadName } from '../../../shared/messages/download-names.js';
+import { clear, el, field, textTable } from '../ui/dom.js';
+import { orderSizes, sideLabel } from '../../../shared/charts/size-label.js';
+import { monteCarloTableData, sizeTableData } from '../../../shared/charts/size-tables.js';
+import { shapeSentence } from '../../../shared/shape-sentence.js';
 import { heatmapLegend } from './heatmap-legend.js';
 import { placementPicker } from './placement-picker.js';
 
@@ -29,10 +34,14 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
     const series = cellSizeSeries(summary.sizes, measure);
     const [cellSize, verdicts] = overviewBundles(summary, measure);
     const clickCellSize: ChartClick = (datasetIndex, index) => {
-      // any element of a size column selects that size; the reference triangle also shows the reference grid
-      const sizeIndex = series.sizeIndex[index];
+      // any element of a size column selects that entry (cell size and shape); the reference triangle also shows the
+      // reference grid. Each point carries its entry's index in the series (cell-size-chart.ts).
+      const dataset = cellSize.spec.data.datasets[datasetIndex];
+      const entry = (dataset?.data as { entry?: number }[] | undefined)?.[index]?.entry;
+      if (entry === undefined) return;
+      const sizeIndex = series.sizeIndex[entry]!;
       store.update({ sizeIndex });
-      if (cellSize.spec.data.datasets[datasetIndex]?.label === 'reference placement') pick(sizeIndex, series.referencePlacementIndex[index]);
+      if (String(dataset?.label).startsWith('reference placement')) pick(sizeIndex, series.referencePlacementIndex[entry]!);
     };
     const clickVerdicts: ChartClick = (_datasetIndex, index) => store.update({ sizeIndex: series.sizeIndex[index] });
     views = [
@@ -66,7 +75,7 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
     const heatmapIndex = bundles.findIndex((bundle) => bundle.id.startsWith('offsets-'));
     clear(
       detailBox,
-      el('h4', {}, `Cell side ${formatMetres(size.cellSize)}`),
+      el('h4', {}, `Cell side ${formatMetres(size.cellSize)}${size.shape === 'hex' ? ', hexagonal cells' : ''}`),
       el('p', { class: 'conclusion', 'data-testid': 'size-conclusion' }, size.conclusion),
       el('ul', { class: 'numbers', 'data-testid': 'size-numbers' }, ...sizeNumbers(size).map((line) => el('li', {}, line))),
       placementPicker(size, (placementIndex) => pick(sizeIndex, placementIndex)),
@@ -108,18 +117,24 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
       measure = measureSelect.value === 'vmr' ? 'vmr' : 'chi2PerDf';
       renderOverview(summary);
     });
-    const ordered = [...summary.sizes].sort((a, b) => a.cellSize - b.cellSize);
-    const sizeSelect = el('select', { id: 'size-select' }, ...ordered.map((size) => el('option', { value: String(size.sizeIndex) }, formatMetres(size.cellSize))));
+    const ordered = orderSizes(summary.sizes);
+    const sizeSelect = el('select', { id: 'size-select' }, ...ordered.map((size) => el('option', { value: String(size.sizeIndex) }, sideLabel(size))));
+    const twoShapes = new Set(summary.sizes.map((size) => size.shape ?? 'square')).size > 1;
+    const sizeTable = sizeTableData(summary);
+    const monteCarloTable = monteCarloTableData(summary);
     sizeSelect.addEventListener('change', () => store.update({ sizeIndex: Number(sizeSelect.value) }));
     clear(
       container,
       // warnings first: a warning that makes a p-value meaningless is read before the p-value
       el('div', { class: 'conclusion-box' }, el('h3', {}, 'In plain words'),
         summary.warnings.length > 0 ? el('ul', { class: 'warning-list', 'aria-label': 'Warnings about this run' }, ...summary.warnings.map((warning) => el('li', {}, warning))) : null,
-        el('p', { class: 'conclusion', 'data-testid': 'overall-conclusion' }, summary.conclusion)),
-      el('h3', {}, 'All cell sides'),
+        el('p', { class: 'conclusion', 'data-testid': 'overall-conclusion' }, summary.conclusion),
+        twoShapes ? el('p', { class: 'conclusion', 'data-testid': 'shape-sentence' }, `${shapeSentence(summary.sizes)}.`) : null),
+      el('h3', {}, twoShapes ? 'All cell sides, squares and hexagons side by side' : 'All cell sides'),
       field('Spread shown', measureSelect),
       overviewBox,
+      el('div', { class: 'table-scroll', 'data-testid': 'size-table' }, textTable(sizeTable.caption, sizeTable.head, sizeTable.rows)),
+      monteCarloTable ? el('div', { class: 'table-scroll', 'data-testid': 'monte-carlo-table' }, textTable(monteCarloTable.caption, monteCarloTable.head, monteCarloTable.rows)) : null,
       el('h3', {}, 'One cell side in detail'),
       field('Cell side', sizeSelect),
       detailBox,

@@ -2,11 +2,11 @@
  * Step 3: the run. A progress bar fed by the sweep's server-sent events (done of total, elapsed and remaining
  * time) and a cancel button; when the sweep is done, its summary and placement rows are loaded for the results.
  */
-import type { SweepProgress, SweepStatus } from '../../../server/contracts.js';
+import type { SweepProgress, SweepStatus } from '../../../shared/contracts.js';
 import { api } from '../api/api-client.js';
 import { followSweep } from '../api/sweep-events.js';
 import type { Store } from '../app-state.js';
-import { formatDuration } from '../charts/format.js';
+import { formatDuration } from '../../../shared/format.js';
 import { clear, el, message } from '../ui/dom.js';
 
 const STATUS_WORDS: Record<SweepStatus, string> = {

@@ -3,8 +3,8 @@
  * title, axis titles with units) and the same numbers as a text table for screen readers (shown on request).
  */
 import { Chart, registerables, type ChartConfiguration } from 'chart.js';
-import { hydrateChartSpec, whiteBackgroundPlugin } from '../charts/chart-runtime.js';
-import type { ChartBundle } from '../charts/chart-spec.js';
+import { hydrateChartSpec, whiteBackgroundPlugin } from '../../../shared/charts/chart-runtime.js';
+import type { ChartBundle } from '../../../shared/charts/chart-spec.js';
 import { el, textTable } from './dom.js';
 import { NARROW_CHART_WIDTH, narrowLayout } from '../charts/narrow-layout.js';
 

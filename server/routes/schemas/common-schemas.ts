@@ -3,6 +3,7 @@
  * Response schemas list the fields clients rely on and allow more (the contracts may grow).
  */
 import { CELL_SHAPES } from '../../../workers/lattice/cell-shape.js';
+import { PLAN_LIMITS } from '../../../shared/plan-rules.js';
 
 export const ID_PARAMS = {
   type: 'object',
@@ -71,19 +72,19 @@ export const SWEEP_ESTIMATE_SCHEMA = {
   properties: { work: { type: 'number' }, budget: { type: 'number' }, tasks: { type: 'integer' } },
 } as const;
 
-/** A plan as JSON: the CLI's names in camelCase (shared/design.md); the ranges are checked again by normalizePlan. */
+/** A plan as JSON: the CLI's names in camelCase (shared/design.md); the ranges of shared/plan-rules.ts, checked again by normalizePlan. */
 export const PLAN_SCHEMA = {
   type: 'object',
   additionalProperties: false,
   properties: {
-    cells: { type: 'array', minItems: 1, maxItems: 16, items: { type: 'number', exclusiveMinimum: 0 } },
-    perCell: { type: 'array', minItems: 1, maxItems: 16, items: { type: 'number', exclusiveMinimum: 0 } },
-    placements: { type: 'integer', minimum: 1, maximum: 65536 },
+    cells: { type: 'array', minItems: 1, maxItems: PLAN_LIMITS.maxCellSizes, items: { type: 'number', exclusiveMinimum: 0 } },
+    perCell: { type: 'array', minItems: 1, maxItems: PLAN_LIMITS.maxCellSizes, items: { type: 'number', exclusiveMinimum: 0 } },
+    placements: { type: 'integer', minimum: PLAN_LIMITS.placements.min, maximum: PLAN_LIMITS.placements.max },
     rotation: { type: 'boolean' },
     design: { type: 'string', enum: ['halton', 'lattice'] },
-    minCoverage: { type: 'number', exclusiveMinimum: 0, maximum: 1 },
-    alpha: { type: 'number', exclusiveMinimum: 0, maximum: 0.5 },
-    sims: { type: 'integer', minimum: 0, maximum: 9999 },
+    minCoverage: { type: 'number', exclusiveMinimum: 0, maximum: PLAN_LIMITS.minCoverageMax },
+    alpha: { type: 'number', exclusiveMinimum: 0, maximum: PLAN_LIMITS.alphaMax },
+    sims: { type: 'integer', minimum: PLAN_LIMITS.sims.min, maximum: PLAN_LIMITS.sims.max },
     seed: { type: 'integer' },
     // one cell shape or a list of different ones (workers/lattice CELL_SHAPES)
     shape: {

@@ -5,32 +5,9 @@ import { evaluatePlacement } from '../../../workers/placement/evaluate-placement
 import { latticeOf } from '../../../workers/lattice/registry.js';
 import type { CoverageGrid, Origin, Placement, Region } from '../../../workers/types.js';
 import { regionFromRings, starRing } from '../geometry/region-fixtures.js';
-import { oracleHex } from './hex-oracle.js';
+import { contractCell, nextDown, nextUp, oracleHex } from './hex-oracle.js';
 
 const hex = latticeOf('hex');
-
-/** The issue 16 rounding rule, written out here from the text: q, r, m in float64 in the stated order. */
-function contractCell(origin: Origin, cellSize: number, placement: Placement, px: number, py: number): [number, number] {
-  const a = cellSize * Math.sqrt(2 / (3 * Math.sqrt(3)));
-  const t = (placement.angle * Math.PI) / 180;
-  const cos = placement.angle === 0 ? 1 : Math.cos(t);
-  const sin = placement.angle === 0 ? 0 : Math.sin(t);
-  const x = (px - origin.x) * cos + (py - origin.y) * sin;
-  const y = -(px - origin.x) * sin + (py - origin.y) * cos;
-  const q = x / (Math.sqrt(3) * a) - y / (3 * a) - placement.u;
-  const r = y / (1.5 * a) - placement.v;
-  const m = -q - r;
-  let rq = Math.round(q);
-  let rr = Math.round(r);
-  let rm = Math.round(m);
-  const movedQ = Math.abs(rq - q);
-  const movedR = Math.abs(rr - r);
-  const movedM = Math.abs(rm - m);
-  if (movedQ > movedM && movedQ > movedR) rq = -rm - rr;
-  else if (movedM > movedR) rm = -rq - rr;
-  else rr = -rq - rm;
-  return [rq === 0 ? 0 : rq, rr === 0 ? 0 : rr];
-}
 
 function regionOf(fractions: number[]): Region {
   const shell = starRing(0, 0, 300, 500, fractions.slice(0, 30));
@@ -257,16 +234,3 @@ describe('hexagonal lattice: properties of the contract', () => {
     expect(evaluated.stats.cells).toBeGreaterThan(60);
   });
 });
-
-function nextUp(x: number): number {
-  const view = new DataView(new ArrayBuffer(8));
-  view.setFloat64(0, x);
-  const bits = view.getBigInt64(0);
-  if (x === 0) return Number.MIN_VALUE;
-  view.setBigInt64(0, x > 0 ? bits + 1n : bits - 1n);
-  return view.getFloat64(0);
-}
-
-function nextDown(x: number): number {
-  return -nextUp(-x);
-}

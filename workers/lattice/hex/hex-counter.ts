@@ -5,10 +5,15 @@
  * parameters in typed arrays, blocks of points so the loop is optimized by calls.
  * Fast path: fractional axial coordinates (q, r) from premultiplied coefficients, shifted so that in-grid values are
  * positive and `| 0` is floor; the nearest centre is one of the four corners of the axial unit cell (q0, r0) (the
- * cell splits into two equilateral triangles), read from a 256 x 256 table over (q - q0, r - r0) built once (squared
- * distance ~ q^2 + q r + r^2 in axial units). Table squares that a bisector passes within 2^-16 of (about 1.5 % of
- * them) send their points to the exact pass; branch-light, this measured 4 times faster than deciding by the
- * bisectors with branches (mispredicted at random).
+ * cell splits into two equilateral triangles), read from a 128 x 128 table over (q - q0, r - r0) built once (squared
+ * distance ~ q^2 + q r + r^2 in axial units). A point in a table square that a bisector passes within 2^-16 of (about
+ * 3 % of them with the 128 x 128 table) is decided by the bisectors themselves: with fq = q - q0, fr = r - r0 the
+ * nearest corner is (0, 0) when 2 fq + fr < 1 and fq + 2 fr < 1, (1, 1) when both exceed 2, else (1, 0) when fq > fr
+ * and (0, 1) otherwise (bisectors of the corners in the metric q^2 + q r + r^2); only a point within 4 x the
+ * near-side band of one of these lines goes to the exact pass (about 1e-5 of the points instead of 1.5 % before,
+ * whose exact pass cost about 50 ns each). The table is 16 KB so that it stays in the first-level cache beside the
+ * counts: branch-light, the table measured 4 times faster than deciding every point by the bisectors with branches
+ * (mispredicted at random), and faster than branch-free arithmetic on the bisectors or the three-floor formula.
  * Away from ties the rule of the contract also gives the nearest centre (it is the A2 lattice decoder of Conway &
  * Sloane 1982, "Fast quantizing and decoding algorithms for lattice quantizers and codes", IEEE Trans. Inf. Theory
  * 28:227-232, from memory). A point within a band of a bisector that decides its cell (where the premultiplied formula
@@ -24,7 +29,7 @@ import { createHexFrame, roundHexInto } from './hex-frame.js';
 const BLOCK = 8192;
 
 /** Side of the table over the axial unit cell (fq, fr) in [0, 1)^2: 2^TABLE_BITS. */
-const TABLE_BITS = 8;
+const TABLE_BITS = 7;
 const TABLE_SIZE = 1 << TABLE_BITS;
 const TABLE_MASK = TABLE_SIZE - 1;
 /** How far (axial units) a table square must stay from every bisector to be decided by the table. */
@@ -79,8 +84,8 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
   const pointCount = points.length >> 1;
   const originX = origin.x;
   const originY = origin.y;
-  // reals: q per dx, q per dy, r per dx, r per dy, u + i0 - 1, v + j0 - 1; integers: i0, j0, nx, ny
-  const reals = new Float64Array(6);
+  // reals: q per dx, q per dy, r per dx, r per dy, u + i0 - 1, v + j0 - 1, bisector band; integers: i0, j0, nx, ny
+  const reals = new Float64Array(7);
   const integers = new Int32Array(4);
   let exactFrame = createHexFrame(origin, 1, { u: 0, v: 0, angle: 0 });
   const deferred = new Int32Array(Math.min(BLOCK, Math.max(1, pointCount)));
@@ -113,6 +118,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
     const ry = reals[3]!;
     const shiftQ = reals[4]!;
     const shiftR = reals[5]!;
+    const band = reals[6]!;
     const nx = integers[2]!;
     const ny = integers[3]!;
     const upperQ = nx + 1;
@@ -131,12 +137,32 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
       const r = dx * rx + dy * ry - shiftR;
       if (q > 1 && q < nx && r > 1 && r < ny) {
         // every corner (q0 or q0 + 1, r0 or r0 + 1) is a grid cell: columns and rows 1..nx, 1..ny
-        // q * 2^8 is exact, so its integer part holds q0 above 8 bits and the table column in the low 8 bits
+        // q * 2^7 is exact, so its integer part holds q0 above 7 bits and the table column in the low 7 bits
         const qScaled = (q * TABLE_SIZE) | 0;
         const rScaled = (r * TABLE_SIZE) | 0;
         const corner = corners[((qScaled & TABLE_MASK) << TABLE_BITS) | (rScaled & TABLE_MASK)]!;
-        if (corner === NEAR_BISECTOR) pending[deferredCount++] = p;
-        else out[((rScaled >> TABLE_BITS) - 1 + (corner >> 1)) * nx + (qScaled >> TABLE_BITS) - 1 + (corner & 1)]!++;
+        if (corner === NEAR_BISECTOR) {
+          // second level: the bisectors of the axial unit cell (header comment); q0, r0 >= 1, so fq and fr are exact
+          const q0 = qScaled >> TABLE_BITS;
+          const r0 = rScaled >> TABLE_BITS;
+          const fq = q - q0;
+          const fr = r - r0;
+          const s1 = 2 * fq + fr;
+          const s2 = fq + 2 * fr;
+          const d = fq - fr;
+          if (
+            Math.abs(s1 - 1) < band ||
+            Math.abs(s2 - 1) < band ||
+            Math.abs(s1 - 2) < band ||
+            Math.abs(s2 - 2) < band ||
+            Math.abs(d) < band
+          ) {
+            pending[deferredCount++] = p;
+          } else if (s1 < 1 && s2 < 1) out[(r0 - 1) * nx + q0 - 1]!++;
+          else if (s1 > 2 && s2 > 2) out[r0 * nx + q0]!++;
+          else if (d > 0) out[(r0 - 1) * nx + q0]!++;
+          else out[r0 * nx + q0 - 1]!++;
+        } else out[((rScaled >> TABLE_BITS) - 1 + (corner >> 1)) * nx + (qScaled >> TABLE_BITS) - 1 + (corner & 1)]!++;
       } else if (q > 0 && q < upperQ && r > 0 && r < upperR) {
         // the grid's outer strip (a region's points never lie there: hexCoverage pads the grid by 2/3)
         pending[deferredCount++] = p;
@@ -176,9 +202,12 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
       integers[1] = grid.j0;
       integers[2] = grid.nx;
       integers[3] = grid.ny;
+      // the fast (q, r) differ from the contract's by less than nearSideBand in each coordinate, so s1 = 2 fq + fr,
+      // s2 and d by less than 3 times that plus their own rounding
+      reals[6] = 4 * nearSideBand(grid);
       out.fill(0, 0, grid.nx * grid.ny);
-      // far from the origin the table's margin would not cover the fast path's rounding; beyond 2^23 columns or rows
-      // q * 2^8 leaves the 32-bit range of `| 0`
+      // far from the origin the table's margin would not cover the fast path's rounding; beyond 2^24 columns or rows
+      // q * 2^7 leaves the 32-bit range of `| 0`
       const reach = Math.max(grid.nx, grid.ny) + 2;
       if (nearSideBand(grid) >= TABLE_MARGIN || reach * TABLE_SIZE >= 2 ** 31) {
         countAllExactly(out);

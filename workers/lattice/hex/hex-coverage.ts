@@ -1,31 +1,24 @@
 /**
  * Exact coverage of every hexagon of one placement: |hexagon ∩ valid region| / s^2.
  *
- * Method (three rhombus lattices): a regular hexagon is the union of three rhombi that meet at its centre, spanned by
- * the spokes (e0, e2), (e2, e4) and (e4, e0) (e_k the centre-to-vertex vector at 30 + 60 k degrees; the "tumbling
- * blocks" dissection, area s^2/3 each). For each of the three spoke pairs, the rhombi of all hexagons are cells of
- * one parallelogram lattice; in that lattice's own coordinates (alpha, beta), P = c(0,0) + alpha g1 + beta g2, its
- * cells are unit squares, so their exact coverage is the square lattice's signed-area accumulation
- * (geometry/coverage.ts unitCellCoverage; an affine map with positive determinant keeps area ratios and ring
- * orientation). Hexagon (i, j) is then (coverage of its three rhombi) / 3, read at
- *   (e0, e2): (i + 2j, j - i),   (e2, e4): (-2i - j, -i - 2j),   (e4, e0): (i - j, 2i + j)
- * (the hexagon lattice vectors E1 = e0 - e2 and E2 = 2 e0 + e2 written in each pair's basis).
+ * Method: ring vertices go to the grid frame in units of the side a around the centre of hexagon (0, 0), and
+ * hex-row-accumulation.ts adds up, row of hexagons by row, the exact area of the region in each hexagon from the
+ * ring edges (winding numbers by the rightward ray, integrated over each hexagon; hexagons wholly left of an edge
+ * take its term through one difference entry, so interior hexagons cost one addition per row and edge crossing).
  * Holes subtract by their orientation; float noise within 1e-12 of 0 or 1 is clamped as for squares.
- * Cost O(cells + edge crossings) for each of the three lattices (each has three cells per hexagon), O(hexagons) to
- * sum. Checked in the tests against Sutherland & Hodgman (1974) clipping of every hexagon.
+ * Cost O(hexagons + Σ_edges (rows spanned + hexagons crossed)), one Float64Array of the grid. It replaced three
+ * rhombus lattices on the square accumulation (nine and more accumulator cells per hexagon), measured 6 to 20 times
+ * slower than the square coverage; checked in the tests against Sutherland & Hodgman (1974) clipping of every
+ * hexagon to 1e-12.
  */
-import { COVERAGE_NOISE, MAX_GRID_CELLS, unitCellCoverage } from '../../geometry/coverage.js';
+import { COVERAGE_NOISE, MAX_GRID_CELLS } from '../../geometry/coverage.js';
 import type { CoverageGrid, Origin, Placement, Region } from '../../types.js';
 import { createHexFrame } from './hex-frame.js';
+import { accumulateHexAreas } from './hex-row-accumulation.js';
 
 const ROOT3 = Math.sqrt(3);
-
-/** The spoke pairs (g1, g2) in units of a, grid frame: (e0, e2), (e2, e4), (e4, e0); rhombus indices in hexCoverage. */
-const RHOMBUS_BASES: readonly { g1: [number, number]; g2: [number, number] }[] = [
-  { g1: [ROOT3 / 2, 0.5], g2: [-ROOT3 / 2, 0.5] },
-  { g1: [-ROOT3 / 2, 0.5], g2: [0, -1] },
-  { g1: [0, -1], g2: [ROOT3 / 2, 0.5] },
-];
+/** Area of a hexagon of side 1 (3 sqrt(3) / 2): the coverage's denominator s^2 in units of a^2. */
+const HEX_AREA = (3 * ROOT3) / 2;
 
 /**
  * Ring vertices relative to the centre of hexagon (0, 0), grid frame, in units of the side a: one flat array of
@@ -43,21 +36,6 @@ function ringsAroundFirstCentre(region: Region, origin: Origin, cellSize: number
       const dy = ring[k + 1]! - origin.y;
       out[k] = (dx * cos + dy * sin) / side - centreX;
       out[k + 1] = (-dx * sin + dy * cos) / side - centreY;
-    }
-    return out;
-  });
-}
-
-/** The same rings in the coordinates (alpha, beta) of basis (g1, g2). */
-function toBasis(rings: Float64Array[], g1: [number, number], g2: [number, number]): Float64Array[] {
-  const det = g1[0] * g2[1] - g1[1] * g2[0];
-  return rings.map((ring) => {
-    const out = new Float64Array(ring.length);
-    for (let k = 0; k < ring.length; k += 2) {
-      const x = ring[k]!;
-      const y = ring[k + 1]!;
-      out[k] = (x * g2[1] - y * g2[0]) / det;
-      out[k + 1] = (g1[0] * y - g1[1] * x) / det;
     }
     return out;
   });
@@ -95,32 +73,10 @@ export function hexCoverage(region: Region, origin: Origin, cellSize: number, pl
       `hexagonal cell size ${cellSize} m gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
     );
   }
-  const rhombi = RHOMBUS_BASES.map((lattice) =>
-    unitCellCoverage(toBasis(rings, lattice.g1, lattice.g2), `hexagonal cell size ${cellSize} m`),
-  );
   const coverage = new Float64Array(nx * ny);
-  // rhombus (alpha, beta) of hexagon (i, j): (i + 2j, j - i), (-2i - j, -i - 2j), (i - j, 2i + j) (header comment);
-  // along a row of hexagons (i + 1) they step by (1, -1), (-2, -1) and (1, 2)
-  const steps: readonly [number, number][] = [[1, -1], [-2, -1], [1, 2]];
-  const starts = (i: number, j: number): [number, number][] => [[i + 2 * j, j - i], [-2 * i - j, -i - 2 * j], [i - j, 2 * i + j]];
-  for (let k = 0; k < 3; k++) {
-    const grid = rhombi[k]!;
-    const { i0: gi0, j0: gj0, nx: gnx, ny: gny, coverage: values } = grid;
-    const [stepAlpha, stepBeta] = steps[k]!;
-    for (let r = 0; r < ny; r++) {
-      let [alpha, beta] = starts(i0, j0 + r)[k]!;
-      alpha -= gi0;
-      beta -= gj0;
-      const offset = r * nx;
-      for (let c = 0; c < nx; c++) {
-        if (alpha >= 0 && alpha < gnx && beta >= 0 && beta < gny) coverage[offset + c] += values[beta * gnx + alpha]!;
-        alpha += stepAlpha;
-        beta += stepBeta;
-      }
-    }
-  }
+  accumulateHexAreas(rings, i0, j0, nx, ny, coverage);
   for (let k = 0; k < coverage.length; k++) {
-    const value = coverage[k]! / 3;
+    const value = coverage[k]! / HEX_AREA;
     coverage[k] = value < COVERAGE_NOISE ? 0 : value > 1 - COVERAGE_NOISE ? 1 : value;
   }
   return { shape: 'hex', i0, j0, nx, ny, coverage };

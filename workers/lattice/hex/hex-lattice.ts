@@ -1,6 +1,6 @@
 /**
  * The hexagonal lattice (issue 16 contract, hex-frame.ts): pointy-top hexagons of area s^2, angle period 60 degrees,
- * exact coverage by three rhombus lattices (hex-coverage.ts), counting by the rounding rule with a fast path
+ * exact coverage by rows of hexagons (hex-coverage.ts, hex-row-accumulation.ts), counting by the rounding rule with a fast path
  * (hex-counter.ts).
  */
 import type { Lattice } from '../lattice.js';

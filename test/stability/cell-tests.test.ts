@@ -1,0 +1,96 @@
+/**
+ * The per-placement tests of the stability surface against general-purpose reference libraries: exact Poisson tails
+ * against scipy.stats.poisson (scipy 1.17.1: poisson.sf(k - 1, lam) for P(X >= k), poisson.cdf(k, lam) for
+ * P(X <= k)), Benjamini-Hochberg against scipy.stats.false_discovery_control(p, method='bh') (adjusted p <= alpha),
+ * and the critical counts against the tails themselves.
+ */
+import { describe, expect, it } from 'vitest';
+import { poissonLowerTail, poissonUpperTail } from '../../workers/stats/poisson-tails.js';
+import { benjaminiHochberg } from '../../workers/stability/benjamini-hochberg.js';
+import { createCellFlagScratch, criticalLower, criticalUpper, flagCells } from '../../workers/stability/cell-flags.js';
+
+// [k, lambda, scipy poisson.sf(k - 1, lam), scipy poisson.cdf(k, lam)]
+const POISSON: [number, number, number, number][] = [
+  [0, 3.0, 1.0, 0.04978706836786395],
+  [1, 0.2, 0.18126924692201815, 0.9824769036935782],
+  [5, 1.5, 0.018575936222140675, 0.9955440192247521],
+  [12, 4.0, 0.0009152291472700608, 0.9997262831771445],
+  [30, 12.5, 1.8774147181836048e-05, 0.9999925748971255],
+  [150, 100.0, 1.8842104660386844e-06, 0.9999987669055809],
+  [2, 9.0, 0.9987659019591332, 0.006232195106377317],
+  [60, 100.0, 0.9999936584965726, 1.0812218170244006e-05],
+  [1000, 1100.0, 0.9989406767460701, 0.001175230568136558],
+];
+
+describe('exact Poisson tails (scipy.stats.poisson)', () => {
+  it.each(POISSON)('k = %d, lambda = %d', (k, lambda, upper, lower) => {
+    expect(Math.abs(poissonUpperTail(k, lambda) - upper) / upper).toBeLessThan(1e-12);
+    expect(Math.abs(poissonLowerTail(k, lambda) - lower) / lower).toBeLessThan(1e-12);
+  });
+});
+
+describe('Benjamini-Hochberg (Benjamini & Hochberg 1995)', () => {
+  it('rejects what scipy.stats.false_discovery_control(p, method="bh") adjusts to <= alpha', () => {
+    // adjusted: [0.032, 0.064, 0.06, 0.032, 0.2667, 0.5714, 0.032, 0.9]
+    const p = Float64Array.from([0.01, 0.04, 0.03, 0.005, 0.2, 0.5, 0.012, 0.9]);
+    const reject = new Uint8Array(8);
+    expect(benjaminiHochberg(p, 8, 0.05, reject)).toBe(3);
+    expect(Array.from(reject)).toEqual([1, 0, 0, 1, 0, 0, 1, 0]);
+    // at 0.07 the adjusted 0.064 and 0.06 pass too
+    expect(benjaminiHochberg(p, 8, 0.07, reject)).toBe(5);
+    expect(Array.from(reject)).toEqual([1, 1, 1, 1, 0, 0, 1, 0]);
+  });
+
+  it('given only the p-values below alpha and the family size, the same rejections as over the whole family', () => {
+    // the scipy example above without its p-values above alpha (0.2, 0.5, 0.9), family size 8
+    const p = Float64Array.from([0.01, 0.04, 0.03, 0.005, 0.012]);
+    const reject = new Uint8Array(5);
+    expect(benjaminiHochberg(p, 5, 0.05, reject, undefined, 8)).toBe(3);
+    expect(Array.from(reject)).toEqual([1, 0, 0, 1, 1]);
+  });
+
+  it('the step-up rejects every p-value when the largest is below alpha', () => {
+    const p = Float64Array.from([0.04, 0.045, 0.049]);
+    const reject = new Uint8Array(3);
+    expect(benjaminiHochberg(p, 3, 0.05, reject)).toBe(3);
+  });
+
+  it('rejects nothing when no p-value is below its threshold', () => {
+    const p = Float64Array.from([0.02, 0.3, 0.4, 0.5]);
+    const reject = new Uint8Array(4);
+    expect(benjaminiHochberg(p, 4, 0.05, reject)).toBe(0); // 0.02 > 0.05 / 4
+    expect(Array.from(reject)).toEqual([0, 0, 0, 0]);
+  });
+});
+
+describe('critical counts and cell flags', () => {
+  it.each([0.3, 2, 7.5, 40, 900])('mean %d: the critical counts are the first counts past alpha', (mean) => {
+    const upper = criticalUpper(mean, 0.05);
+    expect(poissonUpperTail(upper, mean)).toBeLessThanOrEqual(0.05);
+    if (upper > 1) expect(poissonUpperTail(upper - 1, mean)).toBeGreaterThan(0.05);
+    const lower = criticalLower(mean, 0.05);
+    if (lower >= 0) expect(poissonLowerTail(lower, mean)).toBeLessThanOrEqual(0.05);
+    expect(poissonLowerTail(lower + 1, mean)).toBeGreaterThan(0.05);
+  });
+
+  it('flags the cell far above and the cell far below their expected counts, each family by BH', () => {
+    // 10 whole cells, N = 200, E = 20: a count of 45 (P(X >= 45) = 1.06e-6 by scipy poisson.sf(44, 20)) and a count of 3
+    // (P(X <= 3) = 3.2e-6 by scipy poisson.cdf(3, 20)) are below alpha / 10; the rest are near 20
+    const counts = Float64Array.from([45, 3, 20, 19, 21, 18, 22, 17, 16, 19]);
+    const coverage = new Float64Array(10).fill(1);
+    const scratch = createCellFlagScratch();
+    expect(flagCells(counts, coverage, 0.05, scratch)).toEqual({ excess: 1, deficit: 1 });
+    expect(scratch.excess[0]).toBe(0); // the cell holding 45
+    expect(scratch.deficit[0]).toBe(1); // the cell holding 3
+  });
+
+  it('a partial cell is tested against its own expected count', () => {
+    // N = 60 over coverage 3.25: rate 18.46 per whole cell, the quarter cell expects 4.6 and holds 15
+    // (P(X >= 15; 4.615) = 9.7e-5 < 0.05 / 4 by scipy poisson.sf(14, 60 / 3.25 * 0.25))
+    const counts = Float64Array.from([15, 15, 15, 15]);
+    const coverage = Float64Array.from([0.25, 1, 1, 1]);
+    const scratch = createCellFlagScratch();
+    expect(flagCells(counts, coverage, 0.05, scratch).excess).toBe(1);
+    expect(scratch.excess[0]).toBe(0);
+  });
+});
