@@ -29,6 +29,9 @@ async function sweep(points: number[][], extra: string[]) {
 
 const BASELINE = ['--baseline', 'BLOCKS', '--baseline-field', 'residents'];
 
+/** The largest excess share of the stability surface over the sweep's cell sizes. */
+const largestExcess = (summary: SweepSummary) => Math.max(...summary.stability!.map((size) => size.maxExcessShare));
+
 describe('sweep against baseline polygons', () => {
   it('a pattern that follows the population: clustered against area at every size, not against the baseline', async () => {
     const points = populationPoints(800, 11);
@@ -58,6 +61,10 @@ describe('sweep against baseline polygons', () => {
     expect(against.report).toContain('areal weighting');
     expect(area.report).not.toContain('Against area and against the population at risk');
     expect(area.summary.conclusion).toContain('clustering beyond complete spatial randomness');
+    // the stability surface's cell flags follow the same expected counts: the dense blocks are excess cells against
+    // area in almost every placement, but not against the baseline (E_c = N w_c / Σ w)
+    expect(largestExcess(area.summary)).toBeGreaterThan(0.9);
+    expect(largestExcess(against.summary)).toBeLessThan(0.5);
   }, 240_000);
 
   it('one extra cluster on top of the population is found against the baseline', async () => {
@@ -65,5 +72,7 @@ describe('sweep against baseline polygons', () => {
     const against = await sweep(points, BASELINE);
     for (const size of against.summary.sizes) expect(size.monteCarlo!.pMedianClustered).toBeLessThanOrEqual(0.05);
     expect(against.summary.conclusion).toMatch(/finds clustering beyond the population at risk \(baseline: .*blocks\.geojson, field residents\) at alpha 0\.05/);
+    // the extra cluster's cells are excess against the baseline in most placements
+    expect(largestExcess(against.summary)).toBeGreaterThan(0.5);
   }, 240_000);
 });
