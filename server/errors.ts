@@ -41,6 +41,11 @@ export function inputError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_INPUT', message);
 }
 
+/** A population-at-risk baseline or control file that cannot serve (400); the message names file and feature. */
+export function baselineError(message: string): GridshakeError {
+  return new GridshakeError('GS_ERR_BASELINE', message);
+}
+
 /** Bad parameters of a count or a plan: cell sizes, offsets, angles, alpha, placements, sims (400). */
 export function parameterError(message: string): GridshakeError {
   return new GridshakeError('GS_ERR_PARAMETER', message);

@@ -3,8 +3,9 @@
  * The client imports these as types only.
  */
 import type { BBox, Origin, Region, Verdict } from '../workers/types.js';
-import type { EncodedStatistics } from '../workers/stats/statistic-fields.js';
+import type { EncodedStatistics, ExpectationStatistics } from '../workers/stats/statistic-fields.js';
 import type { CellShape } from '../workers/lattice/cell-shape.js';
+import type { Baseline } from '../workers/baseline/baseline.js';
 
 export interface InputWarning {
   code: string;
@@ -14,6 +15,27 @@ export interface InputWarning {
   cliMessage?: string;
   /** record ids or feature numbers concerned, possibly truncated */
   ids?: string[];
+}
+
+/** What a dataset records about its baseline (summary.json, count --json, the report). */
+export interface BaselineInfo {
+  kind: 'polygons' | 'controls';
+  /** the file's name as given */
+  file: string;
+  /** the count property (polygons only) */
+  field?: string;
+  /** polygons: features read; controls: points read */
+  features: number;
+  /** polygons: Σ P_p over the polygons with |p ∩ V| > 0; controls: controls inside V */
+  totalInside: number;
+  /** polygons: Σ P_p over every polygon */
+  total: number;
+  /** polygons: 1-based numbers of the features with |p ∩ V| = 0 (reported and ignored) */
+  outsideFeatures: number[];
+  /** polygons: share of V outside every polygon (weight 0 there); controls: 0 */
+  uncoveredShare: number;
+  /** controls: how many lie outside V (never counted) */
+  controlsOutside?: number;
 }
 
 /** How input coordinates were turned into planar metres. */
@@ -43,6 +65,8 @@ export interface Dataset {
   region: Region;
   origin: Origin;
   warnings: InputWarning[];
+  /** the population at risk (issue 15): the engine's baseline and what is recorded about it; absent: area */
+  baseline?: { engine: Baseline; info: BaselineInfo };
 }
 
 export interface DatasetSummary {
@@ -61,6 +85,8 @@ export interface DatasetSummary {
   projection?: ProjectionInfo;
   /** the same as one line with the full proj4 definition, e.g. "EPSG:32633: +proj=utm +zone=33 ..." */
   projectionUsed?: string;
+  /** the population at risk: file, field and totals (absent: expected counts follow area) */
+  baseline?: BaselineInfo;
   /** cell sides (m) for 1.6, 2 and 5 expected points per cell: side = sqrt(k * validArea / nInside) */
   suggestedCellSizes: { perCell: number; cellSize: number; rule: string }[];
   createdAt?: string;
@@ -89,8 +115,12 @@ export interface Plan {
 }
 
 
-/** One row per (cell size, placement): the placement's parameters and all its statistics except the class table. */
-export interface PlacementRow extends EncodedStatistics {
+/**
+ * One row per (cell size, placement): the placement's parameters and all its statistics except the class table. The
+ * expectation fields (issue 15) are absent in rows stored before baselines existed (area); the area-only comparison
+ * (areaChi2PerDf, areaVerdict) only in rows evaluated against a baseline.
+ */
+export interface PlacementRow extends Omit<EncodedStatistics, keyof ExpectationStatistics>, Partial<ExpectationStatistics> {
   /** index of the (shape, cell size) entry in the summary's sizes: every cell size of the first shape, then the next */
   sizeIndex: number;
   cellSize: number;
@@ -161,6 +191,11 @@ export interface SizeSummary {
   highestVmr: PlacementRow;
   monteCarlo: MonteCarloResult | null;
   conclusion: string;
+  /**
+   * against a baseline (issue 15): the area-only verdicts of the same placements (per-placement chi-square against
+   * area, no Monte Carlo), shown beside the baseline verdicts
+   */
+  areaOnly?: { verdictShares: Record<Verdict, number>; mostCommon: Verdict; chi2PerDfMedian: number };
 }
 
 /** The one test behind the overall conclusion (server/summary/overall-test.ts); null without sims. */
@@ -188,6 +223,9 @@ export interface OverallTest {
 export interface SweepSummary {
   plan: Plan;
   dataset: DatasetSummary;
+  /** against a baseline (issue 15): where expected counts come from, and the baseline's file, field and totals */
+  expectedFrom?: 'baseline' | 'controls';
+  baseline?: BaselineInfo;
   sizes: SizeSummary[];
   /** the overall test across sizes and tails (null when sims = 0) */
   overallTest?: OverallTest | null;
@@ -266,4 +304,9 @@ export interface DatasetGeometry {
   noDataZones: number[][][][];
   bbox: Dataset['region']['bbox'];
   origin: Dataset['origin'];
+  /**
+   * the population-at-risk polygons inside the valid region (p ∩ V, closed rings) with their density P_p / |p ∩ V| per
+   * km², for the map's choropleth (issue 15); absent without baseline polygons
+   */
+  baseline?: { polygons: { rings: number[][][]; density: number }[]; maxDensity: number };
 }

@@ -8,6 +8,12 @@
 export const ERROR_CODES = {
   /** bad input data: unreadable or malformed files, bad coordinates, bad polygons */
   GS_ERR_INPUT: 400,
+  /**
+   * a population-at-risk baseline (polygons with a count field, or control points) that cannot serve: a missing,
+   * negative or non-numeric count, overlapping polygons, another coordinate system than the points, no weight in
+   * the valid region
+   */
+  GS_ERR_BASELINE: 400,
   /** bad parameters of a count or a plan (also the engine's "too few kept cells") */
   GS_ERR_PARAMETER: 400,
   /** a plan whose Monte Carlo test could never reject: 1/(R+1) > alpha */

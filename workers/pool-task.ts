@@ -13,6 +13,9 @@ import { unpackRegion } from './sweep/region-buffer.js';
 import { simulatePatterns } from './sweep/simulate-patterns.js';
 import type { ChunkTask, SimulateTask, SweepTask } from './sweep/sweep-task.js';
 import { TaskCache } from './sweep/task-cache.js';
+import { unpackBaseline } from './baseline/baseline-buffer.js';
+import { createBaselineWeigher, type BaselineWeigher } from './baseline/baseline-weights.js';
+import { createLabellingSampler, createPolygonSampler, type PatternSampler } from './baseline/baseline-sampler.js';
 import { validPixels, type StabilityRaster } from './stability/stability-raster.js';
 
 interface DatasetEntry {
@@ -21,7 +24,8 @@ interface DatasetEntry {
 }
 
 const datasets = new TaskCache<DatasetEntry>();
-const samplers = new TaskCache<CsrSampler>();
+const samplers = new TaskCache<CsrSampler | PatternSampler>();
+const weighers = new TaskCache<BaselineWeigher>();
 // one simulation at a time: its patterns can be large, and a sweep's patterns are not reused by the next
 const simulations = new TaskCache<PatternCounter[]>(1);
 // the valid pixels of a stability raster, per dataset and raster
@@ -47,14 +51,26 @@ function runChunk(task: ChunkTask): Float64Array {
       Array.from({ length: task.sims }, (_, r) => createCellCounter(new Float64Array(buffer, r * length * 8, length), task.origin)),
     );
   }
+  const baseline = task.baseline;
+  const weigher =
+    baseline === undefined ? undefined : weighers.get(baseline.key, () => createBaselineWeigher(unpackBaseline(baseline.buffer), task.origin));
   return evaluateChunk(
-    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha, stability: stabilityOf(task, dataset.region) },
+    { region: dataset.region, origin: task.origin, observed: dataset.observed, simulated, cellSize: task.cellSize, shape: task.shape, minCoverage: task.minCoverage, alpha: task.alpha, baseline: weigher, stability: stabilityOf(task, dataset.region) },
     task.placements,
   );
 }
 
 function runSimulate(task: SimulateTask): number {
-  const sampler = samplers.get(task.regionKey, () => createCsrSampler(unpackRegion(task.region)));
+  const baseline = task.baseline;
+  const sampler =
+    baseline === undefined
+      ? samplers.get(task.regionKey, () => createCsrSampler(unpackRegion(task.region)))
+      : samplers.get(`${baseline.key}:null`, () => {
+          const unpacked = unpackBaseline(baseline.buffer);
+          return unpacked.kind === 'polygons'
+            ? createPolygonSampler(unpacked)
+            : createLabellingSampler(new Float64Array(baseline.points), unpacked.controls);
+        });
   simulatePatterns(sampler, task.pointCount, task.seed, task.first, task.count, new Float64Array(task.simulated));
   return task.count;
 }

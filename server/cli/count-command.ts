@@ -10,6 +10,7 @@ import { fieldRef } from '../messages/field-names.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import { engineErrorOf } from '../../workers/engine-error.js';
+import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
 import { logPValues } from '../summary/log-p-values.js';
 import { DEFAULT_CELL_SHAPE } from '../../workers/lattice/cell-shape.js';
 import { latticeOf } from '../../workers/lattice/registry.js';
@@ -79,18 +80,25 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   };
   let evaluated: ReturnType<typeof evaluatePlacement>;
   try {
-    evaluated = evaluatePlacement({ counter, region: dataset.region, origin: dataset.origin, ...parameters });
+    const baseline = dataset.baseline === undefined ? undefined : createBaselineWeigher(dataset.baseline.engine, dataset.origin);
+    evaluated = evaluatePlacement({ counter, region: dataset.region, origin: dataset.origin, ...parameters, baseline });
   } catch (error) {
     if (engineErrorOf(error)?.code === 'TOO_FEW_KEPT_CELLS') return keptCells();
     throw error;
   }
   if (evaluated.stats.cells < 2) return keptCells();
+  const { expectation } = evaluated;
   const result: CountResult = {
     ...evaluated.stats,
     ...logPValues(evaluated.stats),
     pointsOutside: dataset.outsideIds.length,
     pointsInLeftOutCells: dataset.inside.length - evaluated.stats.points,
     pointsTotal: dataset.ids.length,
+    expectedFrom: expectation.expectedFrom,
+    baselineTotal: expectation.baselineTotal,
+    zeroBaselineCells: expectation.zeroBaselineCells,
+    pointsInZeroBaselineCells: expectation.pointsInZeroBaselineCells,
+    ...(dataset.baseline === undefined ? {} : { baseline: dataset.baseline.info }),
     ...parameters,
     dataset: {
       name: dataset.name,
@@ -113,6 +121,7 @@ export const countCommand: CliCommand = {
   summary: 'the quadrat test for one grid placement and one cell size',
   usage:
     'Usage: gridshake count --points F [--area F] [--no-data F]... [--crs planar|EPSG:n] --cell M\n' +
+    '                       [--baseline F --baseline-field NAME | --controls F]\n' +
     '                       [--shape square|hex] [--angle DEG] [--offset U,V] [--min-coverage T] [--alpha A] [--x COL --y COL] [--json]',
   options: OPTIONS,
   run: runCount,

@@ -1,5 +1,5 @@
 /** The result of `gridshake count`: one placement's statistics plus what was counted and how (the --json object). */
-import type { DatasetSummary, InputWarning, ProjectionInfo } from '../../shared/contracts.js';
+import type { BaselineInfo, DatasetSummary, InputWarning, ProjectionInfo } from '../../shared/contracts.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import type { Placement, PlacementStatistics } from '../../workers/types.js';
 
@@ -14,6 +14,16 @@ export interface CountResult extends PlacementStatistics {
   pointsInLeftOutCells: number;
   /** all points in the data */
   pointsTotal: number;
+  /** what the expected counts are proportional to (issue 15) */
+  expectedFrom: 'area' | 'baseline' | 'controls';
+  /** Σ_kept w: the kept cells' valid area (m²) in area mode, else the baseline weight in the kept cells */
+  baselineTotal: number;
+  /** cells passing the coverage rule with no population at risk (w = 0): left out (0 in area mode) */
+  zeroBaselineCells: number;
+  /** the points in those cells (0 in area mode) */
+  pointsInZeroBaselineCells: number;
+  /** the baseline file, field and totals (absent in area mode) */
+  baseline?: BaselineInfo;
   cellSize: number;
   /** the cells' shape; a hexagon has the area of the square of side cellSize */
   shape: CellShape;

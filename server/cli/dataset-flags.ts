@@ -24,6 +24,13 @@ export const DATASET_OPTIONS: OptionSpecs = {
   x: { type: 'string', value: 'COL', description: 'CSV column of x or longitude' },
   y: { type: 'string', value: 'COL', description: 'CSV column of y or latitude' },
   id: { type: 'string', value: 'COL', description: 'CSV column of record ids; default: id, fid, record, ... or the record number' },
+  baseline: {
+    type: 'string',
+    value: 'FILE',
+    description: 'population at risk: polygons (GeoJSON or GeoPackage) with a count in --baseline-field; expected counts follow it instead of area',
+  },
+  'baseline-field': { type: 'string', value: 'NAME', description: 'the property of the --baseline polygons that holds the counts (residents, households, ...)' },
+  controls: { type: 'string', value: 'FILE', description: 'population at risk as control points (same formats as --points); Monte Carlo by random labelling' },
   'skip-bad-rows': { type: 'boolean', description: 'leave out CSV rows whose coordinates are blank or n/a (listed in a warning)' },
 };
 
@@ -39,10 +46,12 @@ function inputLimits(values: OptionValues): InputLimits {
   return text === undefined ? DEFAULT_INPUT_LIMITS : { ...DEFAULT_INPUT_LIMITS, fileBytes: parseMegabytes(text, 'body-limit') };
 }
 
-/** The dataset named by --points, --area, --no-data, --crs, --x, --y, --id and --skip-bad-rows. */
+/** The dataset named by --points, --area, --no-data, --crs, --x, --y, --id, --skip-bad-rows, --baseline(-field), --controls. */
 export function loadDatasetFromFlags(values: OptionValues): Dataset {
   const pointsPath = requireString(values, 'points');
   const areaPath = optionalString(values, 'area');
+  const baselinePath = optionalString(values, 'baseline');
+  const controlsPath = optionalString(values, 'controls');
   const pointsText = optionalString(values, 'max-points');
   const maxPoints = pointsText === undefined ? DEFAULT_MAX_POINTS : parseWholeNumber(pointsText, 'max-points', 1);
   const limits = inputLimits(values);
@@ -52,6 +61,8 @@ export function loadDatasetFromFlags(values: OptionValues): Dataset {
       points: read(pointsPath),
       area: areaPath === undefined ? undefined : read(areaPath),
       noData: stringList(values, 'no-data').map(read),
+      baseline: baselinePath === undefined ? undefined : read(baselinePath),
+      controls: controlsPath === undefined ? undefined : read(controlsPath),
     },
     {
       crs: optionalString(values, 'crs'),
@@ -59,6 +70,7 @@ export function loadDatasetFromFlags(values: OptionValues): Dataset {
       y: optionalString(values, 'y'),
       id: optionalString(values, 'id'),
       skipBadRows: values['skip-bad-rows'] === true,
+      baselineField: optionalString(values, 'baseline-field'),
       maxPoints,
     },
   );

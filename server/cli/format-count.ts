@@ -1,11 +1,13 @@
 /** Plain-words rendering of a count result for the terminal: verdict, key numbers, rule of thumb, warnings, caution. */
 import type { CountResult } from './count-result.js';
 import { formatP, pPhrase } from '../../shared/format.js';
+import { beyondNull, nullName } from '../summary/null-hypothesis.js';
 
 const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? value.toFixed(digits) : String(value));
 
 export function verdictSentence(result: CountResult): string {
   const test = `two-sided test at alpha = ${result.alpha}`;
+  if (result.baseline !== undefined) return baselineVerdictSentence(result, test);
   if (result.verdict === 'clustered') {
     return `The counts are more clustered than complete spatial randomness would give (${pPhrase(result.pClustered)}, ${test}).`;
   }
@@ -14,6 +16,21 @@ export function verdictSentence(result: CountResult): string {
   }
   return (
     `The counts do not depart from complete spatial randomness (${test}: p for clustering = ` +
+    `${formatP(result.pClustered)}, p for regularity = ${formatP(result.pRegular)}).`
+  );
+}
+
+/** The verdict against a baseline: the sentence names the null (issue 15). */
+function baselineVerdictSentence(result: CountResult, test: string): string {
+  const named = nullName(result.baseline);
+  if (result.verdict === 'clustered') {
+    return `The counts show clustering ${beyondNull(result.baseline)} (${pPhrase(result.pClustered)}, ${test}).`;
+  }
+  if (result.verdict === 'regular') {
+    return `The counts are more even than ${named} would give (${pPhrase(result.pRegular)}, ${test}).`;
+  }
+  return (
+    `The counts do not depart from ${named} (${test}: p for clustering = ` +
     `${formatP(result.pClustered)}, p for regularity = ${formatP(result.pRegular)}).`
   );
 }
@@ -72,20 +89,32 @@ export function formatCount(result: CountResult): string {
     lines.push('');
     lines.push(caveat);
   }
+  if (result.expectedFrom === 'controls') {
+    lines.push('');
+    lines.push(
+      'Read first: the chi-square p below treats the control counts as exact, which overstates significance; the calibrated ' +
+        'test against controls is the Monte Carlo test by random labelling of gridshake sweep --controls FILE --sims 99.',
+    );
+  }
   lines.push('');
   lines.push(verdictSentence(result));
+  if (result.pointsInZeroBaselineCells > 0) {
+    lines.push(`${result.pointsInZeroBaselineCells} points lie in cells with no population at risk (${result.zeroBaselineCells} cells left out).`);
+  }
   lines.push('');
+  const equalArea = result.baseline === undefined ? '' : ' (equal-area)';
   const rows: [string, string][] = [
     ['cells kept', String(result.cells)],
     ['points counted', String(result.points)],
     ['points outside the valid region', String(result.pointsOutside)],
     ['points in left-out cells', String(result.pointsInLeftOutCells)],
+    ['expected counts from', result.baseline === undefined ? 'area' : `${result.expectedFrom} (total in kept cells ${result.baselineTotal.toPrecision(6)})`],
     ['mean per cell', fixed(result.mean)],
     ['variance', fixed(result.variance)],
-    ['variance/mean (VMR)', fixed(result.vmr)],
-    ['chi-square (dispersion)', `${fixed(result.chi2, 4)} on ${result.df} df (chi2/df ${fixed(result.chi2PerDf, 4)})`],
+    [`variance/mean (VMR)${equalArea}`, fixed(result.vmr)],
+    [result.baseline === undefined ? 'chi-square (dispersion)' : 'chi-square (against the baseline)', `${fixed(result.chi2, 4)} on ${result.df} df (chi2/df ${fixed(result.chi2PerDf, 4)})`],
     ['p clustered / p regular', `${formatP(result.pClustered)} / ${formatP(result.pRegular)}`],
-    ['Morisita I / standardized', `${fixed(result.morisita)} / ${fixed(result.morisitaStandardized)}`],
+    [`Morisita I / standardized${equalArea}`, `${fixed(result.morisita)} / ${fixed(result.morisitaStandardized)}`],
     ['Lloyd mean crowding / patchiness', `${fixed(result.meanCrowding)} / ${fixed(result.patchiness)}`],
     ['Green index', result.green.toPrecision(4)],
     ['negative-binomial k', result.negativeBinomialK === null ? 'none (variance <= mean)' : fixed(result.negativeBinomialK, 4)],

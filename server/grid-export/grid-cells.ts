@@ -5,6 +5,7 @@
  */
 import { gridExtent } from '../../workers/geometry/coverage.js';
 import { createCellCounter, describeCellGrid, type CellGrid } from '../../workers/placement/index.js';
+import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
 import type { Placement } from '../../workers/types.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import type { Dataset } from '../../shared/contracts.js';
@@ -84,6 +85,8 @@ export function boundedCellGrid(dataset: Dataset, request: GridRequest, format: 
     placement: request.placement,
     minCoverage: request.minCoverage,
     shape: request.shape,
+    // expected counts follow the dataset's population at risk when it has one (issue 15)
+    baseline: dataset.baseline === undefined ? undefined : createBaselineWeigher(dataset.baseline.engine, dataset.origin),
   });
   if (cells.cellCount > limit) refuse(format, request, cells.cellCount, true);
   return cells;

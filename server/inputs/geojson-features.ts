@@ -19,6 +19,8 @@ export interface LabelledFeature {
   /** the Feature.id, else an id-like property (ID_NAMES, or the one named by `idProperty`), else its 1-based number */
   id: string;
   geometry: GeoJsonGeometry | null;
+  /** the feature's properties (GeoJSON "properties", a GeoPackage row's other columns); absent for a bare geometry */
+  properties?: Record<string, unknown>;
 }
 
 const GEOMETRY_TYPES = ['Point', 'MultiPoint', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon', 'GeometryCollection'];
@@ -62,7 +64,8 @@ function featureOf(value: unknown, fileName: string, index: number, idProperty?:
   const found = featureId(value, idProperty);
   const id = found ?? String(number);
   const label = `${fileName}: feature ${number}${found !== undefined ? ` (id '${id}')` : ''}`;
-  return { label, id, geometry: asGeometry(value.geometry, label) };
+  const properties = isObject(value.properties) ? value.properties : {};
+  return { label, id, geometry: asGeometry(value.geometry, label), properties };
 }
 
 export function readGeoJsonFeatures(fileName: string, text: string, idProperty?: string): LabelledFeature[] {

@@ -4,16 +4,15 @@
  */
 import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
 import type { Dataset, InputWarning } from '../../shared/contracts.js';
-import { inputError, tooLargeError } from '../errors.js';
-import { checkPolygon } from './check-polygon.js';
-import { checkCoordinateSanity, checkPolygonIsLonLat } from './coordinate-sanity.js';
-import { resolveCoordinateSystem, type CoordinateSystem } from './coordinate-system.js';
-import { isSqliteFile, readGeoPackageFeatures } from './geopackage/read-geopackage.js';
+import { baselineError, inputError, tooLargeError } from '../errors.js';
+import { checkCoordinateSanity } from './coordinate-sanity.js';
+import { readPolygonFeatures } from './read-polygon-file.js';
+import { resolveCoordinateSystem, type CoordinateSystem, type Projector } from './coordinate-system.js';
+import { loadBaselinePolygons, loadControls, type LoadedBaseline } from './load-baseline.js';
+import type { Region } from '../../workers/types.js';
 import { defaultStudyArea } from './default-study-area.js';
 import { findDuplicates } from './find-duplicates.js';
-import { polygonsFromFeatures, type RawPolygon } from './geojson-polygons.js';
-import { readGeoJson } from './geojson-features.js';
-import { readText, type InputFile } from './input-file.js';
+import type { InputFile } from './input-file.js';
 import { duplicateWarning, outsideWarning, projectionWarning, skippedRowsWarning } from './input-warnings.js';
 import { projectInputs } from './project-inputs.js';
 import { readPoints } from './read-points.js';
@@ -25,6 +24,10 @@ export interface DatasetInput {
   points: InputFile;
   area?: InputFile;
   noData?: InputFile[];
+  /** population-at-risk polygons (with DatasetOptions.baselineField) — issue 15 */
+  baseline?: InputFile;
+  /** control points, the other kind of baseline */
+  controls?: InputFile;
 }
 
 export interface DatasetOptions {
@@ -36,30 +39,38 @@ export interface DatasetOptions {
   maxPoints?: number;
   /** leave out CSV rows whose coordinates are blank or n/a, with a warning listing their lines */
   skipBadRows?: boolean;
+  /** the property of the baseline polygons that holds the counts */
+  baselineField?: string;
 }
 
-/** Polygons of a GeoJSON or GeoPackage file; a GeoPackage must declare the same system as the points, or none. */
+/** Polygons of a GeoJSON or GeoPackage file (read-polygon-file.ts), every feature's parts in one list. */
 function readPolygons(file: InputFile, system: CoordinateSystem, role: string, pointsFile: string): LabelledRings[] {
-  let polygons: RawPolygon[];
-  if (isSqliteFile(file)) {
-    const layer = readGeoPackageFeatures(file);
-    if (layer.crs !== undefined && system.crs !== 'planar' && layer.crs !== system.crs) {
-      throw inputError(`${file.name}: the layer is in ${layer.crs} but the points are in ${system.crs}; give every file in one coordinate system`);
-    }
-    polygons = polygonsFromFeatures(file.name, layer.features);
-  } else {
-    const { features, declaredCrs } = readGeoJson(file.name, readText(file));
-    if (declaredCrs !== undefined && system.crs !== 'planar' && declaredCrs !== system.crs) {
-      throw inputError(`${file.name}: the GeoJSON "crs" member says ${declaredCrs} but the points are in ${system.crs}; give every file in one coordinate system`);
-    }
-    polygons = polygonsFromFeatures(file.name, features);
+  return readPolygonFeatures(file, system, role, pointsFile).flatMap((feature) => feature.polygons);
+}
+
+/** The baseline polygons or the controls, if given (load-baseline.ts); both at once or a field without polygons is refused. */
+function loadAnyBaseline(
+  input: DatasetInput,
+  options: DatasetOptions,
+  system: CoordinateSystem,
+  projector: Projector,
+  valid: number[][][][],
+  region: Region,
+  pointsFile: string,
+): LoadedBaseline | undefined {
+  if (input.baseline !== undefined && input.controls !== undefined) {
+    throw baselineError(`give either baseline polygons (${input.baseline.name}) or control points (${input.controls.name}), not both`);
   }
-  const geographic = system.geographic;
-  for (const polygon of polygons) checkPolygonIsLonLat(system, polygon, role, pointsFile);
-  return polygons.map((polygon) => ({
-    label: polygon.label,
-    rings: checkPolygon(polygon, geographic),
-  }));
+  if (input.baseline !== undefined) {
+    if (options.baselineField === undefined) {
+      throw baselineError(`${input.baseline.name}: give the baseline field that holds the counts (${twoWays('--baseline-field NAME', 'the "Baseline field" choice')})`);
+    }
+    return loadBaselinePolygons(input.baseline, options.baselineField, system, projector, valid, region, pointsFile);
+  }
+  if (options.baselineField !== undefined) {
+    throw baselineError(`a baseline field (${options.baselineField}) was given without baseline polygons`);
+  }
+  return input.controls === undefined ? undefined : loadControls(input.controls, system, projector, region);
 }
 
 function baseName(fileName: string): string {
@@ -109,6 +120,8 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
     }
     throw inputError(`${input.points.name}: every point lies inside a no-data zone: none is left to count`);
   }
+  const baseline = loadAnyBaseline(input, options, system, projected.projector, geometry.valid, region, input.points.name);
+  if (baseline !== undefined) warnings.push(...baseline.warnings);
   const duplicates = findDuplicates(projected.xy);
   if (duplicates.length > 0) warnings.push(duplicateWarning(duplicates.length, duplicates.map((k) => raw.ids[k])));
   const isInside = new Uint8Array(n);
@@ -130,5 +143,6 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
     region,
     origin: { x: studyRegion.bbox.minX, y: studyRegion.bbox.minY },
     warnings,
+    ...(baseline === undefined ? {} : { baseline: { engine: baseline.baseline, info: baseline.info } }),
   };
 }

@@ -31,7 +31,7 @@ function inputCentre(points: RawPoints, polygons: LabelledRings[]): [number, num
   return [(minX + maxX) / 2, (minY + maxY) / 2];
 }
 
-function projectRings(polygon: LabelledRings, projector: Projector): LabelledRings {
+export function projectRings(polygon: LabelledRings, projector: Projector): LabelledRings {
   const rings = polygon.rings.map((ring) =>
     ring.map(([x, y]) => {
       const [px, py] = projector.forward(x, y);

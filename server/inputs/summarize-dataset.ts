@@ -31,6 +31,7 @@ export function summarizeDataset(dataset: Dataset): DatasetSummary {
     bbox: multiPolygonBBox(dataset.studyArea),
     areaIsDefault: dataset.areaIsDefault,
     warnings: dataset.warnings,
+    ...(dataset.baseline === undefined ? {} : { baseline: dataset.baseline.info }),
     suggestedCellSizes: CELL_SIZE_RULES.map(({ perCell, rule }) => ({
       perCell,
       cellSize: cellSizeForExpected(perCell, validArea, nInside),

@@ -16,6 +16,7 @@ import { simulateTasks } from '../sweeps/sweep-runner.js';
 import { unpackRegion } from '../../workers/sweep/region-buffer.js';
 import { engineErrorOf } from '../../workers/engine-error.js';
 import { unpackDataset } from './queue-dataset.js';
+import { unpackBaseline } from '../../workers/baseline/baseline-buffer.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
 import { RESULT_TTL_SECONDS } from './queue-executor.js';
 import { redisOptions } from './redis-options.js';
@@ -151,6 +152,8 @@ export class QueueWorker {
           inside: Uint32Array.from({ length: packed.pointCount }, (_, k) => k),
           region: unpackRegion(packed.region),
           origin: packed.origin,
+          // the engine's part of the population at risk is all a worker needs (its description stays with the sweep)
+          ...(packed.baseline === null ? {} : { baseline: { engine: unpackBaseline(packed.baseline) } }),
         } as unknown as Dataset;
         const shared: DatasetRef = { key: `queue:${hash}`, hash, pointCount: packed.pointCount };
         await this.executor.share(dataset, shared);

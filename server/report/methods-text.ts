@@ -4,6 +4,7 @@
  */
 import type { SweepSummary } from '../../shared/contracts.js';
 import { OVERALL_TEST_METHOD } from '../summary/overall-test.js';
+import { nullName } from '../summary/null-hypothesis.js';
 import { formatMetres, formatNumber } from '../../shared/format.js';
 
 export interface Reference {
@@ -15,6 +16,8 @@ export const REFERENCES: Record<string, Reference> = {
   besagDiggle: { key: 'Besag and Diggle 1977', text: 'Besag, J. and Diggle, P. J. (1977). Simple Monte Carlo tests for spatial pattern. Applied Statistics 26(3), 327-333.' },
   fisher: { key: 'Fisher, Thornton and Mackenzie 1922', text: 'Fisher, R. A., Thornton, H. G. and Mackenzie, W. A. (1922). The accuracy of the plating method of estimating the density of bacterial populations. Annals of Applied Biology 9, 325-359.' },
   halton: { key: 'Halton 1960', text: 'Halton, J. H. (1960). On the efficiency of certain quasi-random sequences of points in evaluating multi-dimensional integrals. Numerische Mathematik 2, 84-90.' },
+  goodchildLam: { key: 'Goodchild and Lam 1980', text: 'Goodchild, M. F. and Lam, N. S.-N. (1980). Areal interpolation: a variant of the traditional spatial problem. Geo-Processing 1, 297-312.' },
+  diggle: { key: 'Diggle 2003', text: 'Diggle, P. J. (2003). Statistical Analysis of Spatial Point Patterns, 2nd ed. London: Arnold; and Diggle, P. J. (2014). Statistical Analysis of Spatial and Spatio-Temporal Point Patterns, 3rd ed. Boca Raton: CRC Press.' },
   openshaw: { key: 'Openshaw 1984', text: 'Openshaw, S. (1984). The Modifiable Areal Unit Problem. Concepts and Techniques in Modern Geography 38. Norwich: Geo Books.' },
 };
 
@@ -72,8 +75,57 @@ function cellsText(summary: SweepSummary): string {
   );
 }
 
+/** The baseline paragraph (issue 15): what the expected counts follow instead of area, and the null simulated. */
+function baselineText(summary: SweepSummary): string | null {
+  const baseline = summary.baseline ?? summary.dataset.baseline;
+  if (baseline === undefined) return null;
+  const named = nullName(baseline);
+  const common =
+    ' The null hypothesis is therefore the population at risk, not complete spatial randomness: a verdict of clustering ' +
+    `means clustering beyond ${named}. A cell that passes the coverage rule but holds no population at risk (w_c = 0) ` +
+    'is left out, and the points in such cells are reported. VMR, Morisita\'s index and the other aggregation indices ' +
+    'keep their usual equal-area definitions and describe the counts, not the test.';
+  if (baseline.kind === 'polygons') {
+    return (
+      `Expected counts follow a baseline instead of area: ${baseline.features} polygons of ${baseline.file} with the count ` +
+      `${baseline.field ?? ''} (${formatNumber(baseline.totalInside)} inside the valid region). Each polygon's count was spread ` +
+      'evenly over its part inside the valid region (areal weighting, ' + REFERENCES.goodchildLam.key + '): ' +
+      'w_c = sum over polygons p of P_p |c ∩ p ∩ V| / |p ∩ V|, with the areas computed exactly from the polygons, and ' +
+      'E_c = N w_c / (sum of w over the kept cells). Areal weighting assumes the population is spread evenly within each ' +
+      'polygon; where it is not, the expected counts are wrong at scales finer than the polygons.' + common
+    );
+  }
+  return (
+    `Expected counts follow ${baseline.totalInside} control points of ${baseline.file} inside the valid region: w_c is ` +
+    'the number of controls in cell c (located by the same rule as the cases) and E_c = N w_c / (sum of w over the kept ' +
+    'cells). The per-placement chi-square p-values treat the control counts as exact; only the Monte Carlo test by ' +
+    `random labelling (${REFERENCES.diggle.key}) accounts for their own randomness.` + common
+  );
+}
+
+/** How the simulated patterns were drawn: CSR, or the baseline's null. */
+function simulatedPatternsText(summary: SweepSummary): string {
+  const baseline = summary.baseline ?? summary.dataset.baseline;
+  const n = summary.dataset.nInside;
+  if (baseline === undefined) {
+    return `${summary.plan.sims} patterns of complete spatial randomness, each of ${n} points placed uniformly in the valid region,`;
+  }
+  if (baseline.kind === 'polygons') {
+    return (
+      `${summary.plan.sims} patterns drawn under the baseline, each of ${n} points placed in polygon p with probability ` +
+      'proportional to its count P_p (among the polygons with area inside the valid region) and uniformly within its part ' +
+      'inside the valid region,'
+    );
+  }
+  return (
+    `${summary.plan.sims} random labellings (${REFERENCES.diggle.key}): from the pooled cases and controls inside the ` +
+    `valid region, ${n} drawn without replacement were the simulated cases and the rest the simulated controls, scored ` +
+    'against their own controls,'
+  );
+}
+
 function calibrationText(summary: SweepSummary): string {
-  const { plan, dataset } = summary;
+  const { plan } = summary;
   if (plan.sims <= 0) {
     return (
       'No CSR simulations were run, so no test of the sweep as a whole was made: the results are per-placement evidence. ' +
@@ -83,8 +135,7 @@ function calibrationText(summary: SweepSummary): string {
     );
   }
   return (
-    `The p-values were calibrated by Monte Carlo (${REFERENCES.besagDiggle.key}): ${plan.sims} patterns of complete ` +
-    `spatial randomness, each of ${dataset.nInside} points placed uniformly in the valid region, were counted on ` +
+    `The p-values were calibrated by Monte Carlo (${REFERENCES.besagDiggle.key}): ${simulatedPatternsText(summary)} were counted on ` +
     'the same placements as the data. The placement-robust p-value for clustering is (1 + number of simulated ' +
     'medians of chi-square / df at or above the observed median) / (R + 1), with R the number of simulations, and ' +
     'likewise at or below for regularity; the same test on the maximum across placements answers the worst case ' +
@@ -96,8 +147,9 @@ function calibrationText(summary: SweepSummary): string {
 
 /** The methods paragraphs and the references they cite, in order of first use. */
 export function methodsText(summary: SweepSummary): { paragraphs: string[]; references: string[] } {
-  const paragraphs = [variedText(summary), cellsText(summary), calibrationText(summary)];
-  const cited = [REFERENCES.halton, REFERENCES.openshaw, REFERENCES.fisher, REFERENCES.besagDiggle].filter((reference) =>
+  const baseline = baselineText(summary);
+  const paragraphs = [variedText(summary), cellsText(summary), ...(baseline === null ? [] : [baseline]), calibrationText(summary)];
+  const cited = [REFERENCES.halton, REFERENCES.openshaw, REFERENCES.fisher, REFERENCES.goodchildLam, REFERENCES.diggle, REFERENCES.besagDiggle].filter((reference) =>
     paragraphs.some((paragraph) => paragraph.includes(reference.key)),
   );
   return { paragraphs, references: cited.map((reference) => reference.text) };

@@ -14,7 +14,7 @@ import { chartLibrarySource } from './chart-library.js';
 import { escapeHtml } from './html-escape.js';
 import { htmlTable } from './html-table.js';
 import { methodsText } from './methods-text.js';
-import { datasetSection, monteCarloSection, planSection, sizeTable, versionsSection } from './report-sections.js';
+import { baselineComparisonSection, datasetSection, monteCarloSection, planSection, sizeTable, versionsSection } from './report-sections.js';
 import { REPORT_CHART_SIZE, reportChartScript } from './report-script.js';
 import { REPORT_CSS } from './report-styles.js';
 import { reportMapSvg, type ReportMap } from './report-map.js';
@@ -73,6 +73,7 @@ ${datasetSection(summary)}
 ${map ? `<section><h2>Map</h2>${reportMapSvg(map)}</section>` : ''}
 ${planSection(summary)}
 <section><h2>Results across cell sizes</h2>${sizeTable(summary)}${overview.map(figure).join('\n')}</section>
+${baselineComparisonSection(summary)}
 ${monteCarloSection(summary)}
 ${stabilitySection(summary, map)}
 ${perSize.map((entry) => sizeSection(summary, rows, entry.sizeIndex, entry.bundles)).join('\n')}

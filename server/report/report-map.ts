@@ -6,6 +6,7 @@
  * cells (a readable map); with none, the map says so and draws no grid.
  */
 import { describeCellGrid, createCellCounter, cellAt } from '../../workers/placement/index.js';
+import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
 import { gridExtent } from '../../workers/geometry/coverage.js';
 import type { Dataset, SweepSummary } from '../../shared/contracts.js';
 import { formatMetres } from '../../shared/format.js';
@@ -65,6 +66,7 @@ export function reportMap(dataset: Dataset, summary: SweepSummary): ReportMap {
       placement: reference,
       minCoverage: summary.plan.minCoverage,
       shape: chosen.shape,
+      baseline: dataset.baseline === undefined ? undefined : createBaselineWeigher(dataset.baseline.engine, dataset.origin),
     });
     const cells: { corners: [number, number][]; kept: boolean }[] = [];
     for (let k = 0; k < described.grid.coverage.length; k++) {

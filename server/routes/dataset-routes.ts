@@ -37,6 +37,10 @@ const UPLOAD_BODY = {
     points: FILE_PART,
     area: FILE_PART,
     noData: { anyOf: [FILE_PART, { type: 'array', maxItems: MAX_NO_DATA_FILES, items: FILE_PART }] },
+    /** population at risk (issue 15): polygons with a count in baselineField, or control points */
+    baseline: FILE_PART,
+    baselineField: fieldPart({ type: 'string', minLength: 1, maxLength: 200 }),
+    controls: FILE_PART,
     crs: fieldPart({ type: 'string', maxLength: 40 }),
     name: fieldPart({ type: 'string', maxLength: 200 }),
     x: fieldPart({ type: 'string', maxLength: 100 }),
@@ -55,6 +59,22 @@ const GEOMETRY_RESPONSE = {
     pointInside: { type: 'array', items: { type: 'integer' } },
     totalPoints: { type: 'integer' },
     stride: { type: 'integer' },
+    baseline: {
+      type: 'object',
+      properties: {
+        polygons: {
+          type: 'array',
+          items: {
+            type: 'object',
+            properties: {
+              rings: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } },
+              density: { type: 'number' },
+            },
+          },
+        },
+        maxDensity: { type: 'number' },
+      },
+    },
     studyArea: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     noDataZones: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     bbox: BBOX_SCHEMA,
@@ -68,6 +88,9 @@ interface UploadBody {
   points: SavedPart;
   area?: SavedPart;
   noData?: SavedPart | SavedPart[];
+  baseline?: SavedPart;
+  baselineField?: MultipartValue<string>;
+  controls?: SavedPart;
   crs?: MultipartValue<string>;
   name?: MultipartValue<string>;
   x?: MultipartValue<string>;
@@ -175,6 +198,8 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
         points: uploaded(body.points),
         area: body.area === undefined ? undefined : uploaded(body.area),
         noData: noDataParts.map(uploaded),
+        ...(body.baseline === undefined ? {} : { baseline: uploaded(body.baseline) }),
+        ...(body.controls === undefined ? {} : { controls: uploaded(body.controls) }),
       };
       const summary = await datasets.createFromUpload(input, {
         crs: fieldValue(body.crs),
@@ -183,6 +208,7 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
         y: fieldValue(body.y),
         id: fieldValue(body.id),
         skipBadRows: ['true', 'on'].includes(fieldValue(body.skipBadRows) ?? ''),
+        baselineField: fieldValue(body.baselineField),
       });
       return reply.code(201).send(summary);
     },

@@ -7,6 +7,22 @@ import type { Dataset, DatasetGeometry } from '../../shared/contracts.js';
 
 export const DEFAULT_DRAWN_POINTS = 5000;
 
+/** The baseline pieces as closed GeoJSON-style rings with their density per km². Cost O(vertices). */
+function baselineLayer(dataset: Dataset): DatasetGeometry['baseline'] {
+  const engine = dataset.baseline?.engine;
+  if (engine === undefined || engine.kind !== 'polygons') return undefined;
+  const polygons = engine.pieces.map((piece, p) => ({
+    rings: piece.rings.map((ring) => {
+      const closed: number[][] = [];
+      for (let k = 0; k < ring.length; k += 2) closed.push([ring[k]!, ring[k + 1]!]);
+      if (closed.length > 0) closed.push([...closed[0]!]);
+      return closed;
+    }),
+    density: (engine.counts[p]! / piece.area) * 1e6,
+  }));
+  return { polygons, maxDensity: Math.max(0, ...polygons.map((polygon) => polygon.density)) };
+}
+
 export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DRAWN_POINTS): DatasetGeometry {
   const totalPoints = dataset.xy.length / 2;
   const stride = Math.max(1, Math.ceil(totalPoints / Math.max(1, maxPoints)));
@@ -27,5 +43,6 @@ export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DR
     noDataZones: dataset.noDataZones,
     bbox: dataset.region.bbox,
     origin: dataset.origin,
+    ...(dataset.baseline?.engine.kind === 'polygons' ? { baseline: baselineLayer(dataset) } : {}),
   };
 }

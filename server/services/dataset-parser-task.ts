@@ -29,6 +29,8 @@ export interface ParseTask {
   points: UploadedFile;
   area?: UploadedFile;
   noData: UploadedFile[];
+  baseline?: UploadedFile;
+  controls?: UploadedFile;
   options: DatasetOptions;
   /** the data folder's database file, or null for an in-memory store (the dataset is returned instead) */
   databasePath: string | null;
@@ -58,7 +60,13 @@ function read(file: UploadedFile): InputFile {
 export default function parseUpload(task: ParseTask): ParseOutcome {
   try {
     const dataset = loadDataset(
-      { points: read(task.points), area: task.area === undefined ? undefined : read(task.area), noData: task.noData.map(read) },
+      {
+        points: read(task.points),
+        area: task.area === undefined ? undefined : read(task.area),
+        noData: task.noData.map(read),
+        baseline: task.baseline === undefined ? undefined : read(task.baseline),
+        controls: task.controls === undefined ? undefined : read(task.controls),
+      },
       task.options,
     );
     const summary = summarizeDataset(dataset);

@@ -29,6 +29,9 @@ export interface UploadedDataset {
   points: UploadedFile;
   area?: UploadedFile;
   noData: UploadedFile[];
+  /** population at risk: polygons (with options.baselineField) or control points */
+  baseline?: UploadedFile;
+  controls?: UploadedFile;
 }
 
 export class DatasetParser {

@@ -4,7 +4,9 @@
  */
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
-import type { Dataset, DatasetSummary } from '../../shared/contracts.js';
+import { deserialize, serialize } from 'node:v8';
+import type { BaselineInfo, Dataset, DatasetSummary } from '../../shared/contracts.js';
+import type { Baseline } from '../../workers/baseline/baseline.js';
 import {
   bufferToFloat64,
   bufferToUint32,
@@ -26,13 +28,16 @@ interface DatasetRow {
   ids_json: string;
   region_rings: Buffer;
   sample_id: string | null;
+  baseline: Buffer | null;
 }
 
 /** A dataset summary as stored: with its id, creation time and, for a demo scenario, the sample's folder name. */
 export type StoredDatasetSummary = DatasetSummary & { id: string; createdAt: string; sample: string | null };
 
-type DatasetMeta = Omit<Dataset, 'xy' | 'ids' | 'inside' | 'region'> & {
+type DatasetMeta = Omit<Dataset, 'xy' | 'ids' | 'inside' | 'region' | 'baseline'> & {
   region: Omit<Dataset['region'], 'rings'>;
+  /** what is recorded about the baseline (its engine data is the baseline BLOB) */
+  baselineInfo?: BaselineInfo;
 };
 
 export class DatasetStore {
@@ -43,13 +48,17 @@ export class DatasetStore {
     const id = randomUUID();
     const createdAt = new Date().toISOString();
     const stored: StoredDatasetSummary = { ...summary, id, createdAt, sample: sampleId };
-    const { xy, ids, inside, region, ...plain } = dataset;
-    const meta: DatasetMeta = { ...plain, region: { area: region.area, bbox: region.bbox } };
+    const { xy, ids, inside, region, baseline, ...plain } = dataset;
+    const meta: DatasetMeta = {
+      ...plain,
+      region: { area: region.area, bbox: region.bbox },
+      ...(baseline === undefined ? {} : { baselineInfo: baseline.info }),
+    };
     const write = this.db.transaction(() => {
       this.db
         .prepare(
           `INSERT INTO datasets (id, name, created_at, meta_json, summary_json, xy, inside, ids_json, region_rings,
-             sample_id) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+             sample_id, baseline) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
         )
         .run(
           id,
@@ -62,6 +71,7 @@ export class DatasetStore {
           JSON.stringify(ids),
           encodeRings(region.rings),
           sampleId,
+          baseline === undefined ? null : serialize(baseline.engine),
         );
     });
     write();
@@ -91,9 +101,14 @@ export class DatasetStore {
   load(id: string): Dataset | undefined {
     const row = this.db.prepare('SELECT * FROM datasets WHERE id = ?').get(id) as DatasetRow | undefined;
     if (row === undefined) return undefined;
-    const meta = fromStoredJson<DatasetMeta>(row.meta_json);
+    const { baselineInfo, ...meta } = fromStoredJson<DatasetMeta>(row.meta_json);
+    const baseline =
+      row.baseline === null || row.baseline === undefined || baselineInfo === undefined
+        ? {}
+        : { baseline: { engine: deserialize(row.baseline) as Baseline, info: baselineInfo } };
     return {
       ...meta,
+      ...baseline,
       xy: bufferToFloat64(row.xy),
       inside: bufferToUint32(row.inside),
       ids: JSON.parse(row.ids_json) as string[],

@@ -54,4 +54,7 @@ export const MIGRATIONS: readonly string[] = [
     PRIMARY KEY (sweep_id, name)
   );
   `,
+  // 4: the population at risk of a dataset (issue 15), the engine's baseline v8-serialised (typed arrays kept exact);
+  // NULL when expected counts follow area
+  `ALTER TABLE datasets ADD COLUMN baseline BLOB;`,
 ];

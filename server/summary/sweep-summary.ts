@@ -1,5 +1,5 @@
 import type { DatasetSummary, Plan, SizeSummary, SweepSummary } from '../../shared/contracts.js';
-import { overallConclusion } from './conclusion.js';
+import { overallConclusion, sizeConclusion } from './conclusion.js';
 import { overallMonteCarloTest } from './overall-test.js';
 import { sweepWarnings } from './sweep-warnings.js';
 
@@ -23,12 +23,16 @@ export function buildSweepSummary(input: SweepSummaryInput): SweepSummary {
         input.plan.alpha,
       )
     : null;
+  const baseline = input.dataset.baseline;
+  // against a baseline every sentence names the null (issue 15)
+  const sizes = baseline === undefined ? input.sizes : input.sizes.map((size) => ({ ...size, conclusion: sizeConclusion(size, baseline) }));
   return {
     plan: input.plan,
     dataset: input.dataset,
-    sizes: input.sizes,
+    ...(baseline === undefined ? {} : { expectedFrom: baseline.kind === 'polygons' ? 'baseline' : 'controls', baseline }),
+    sizes,
     overallTest,
-    conclusion: overallConclusion(input.sizes, input.plan.alpha, overallTest),
+    conclusion: overallConclusion(sizes, input.plan.alpha, overallTest, baseline),
     warnings: sweepWarnings(input.dataset, input.sizes),
     versions: input.versions,
     timings: {

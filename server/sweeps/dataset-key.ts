@@ -27,6 +27,21 @@ export function datasetContentHash(dataset: Dataset): string {
       digest.update(bytes(new Float64Array([ring.length])));
       digest.update(bytes(ring));
     }
+    // the baseline changes every expected count: another baseline is another shared dataset
+    const baseline = dataset.baseline?.engine;
+    if (baseline !== undefined) {
+      digest.update(baseline.kind);
+      if (baseline.kind === 'controls') digest.update(bytes(baseline.controls));
+      else {
+        digest.update(bytes(baseline.counts));
+        for (const piece of baseline.pieces) {
+          for (const ring of piece.rings) {
+            digest.update(bytes(new Float64Array([ring.length])));
+            digest.update(bytes(ring));
+          }
+        }
+      }
+    }
     hash = digest.digest('hex');
     memo.set(dataset, hash);
   }

@@ -78,6 +78,7 @@ export class LocalExecutor implements SweepExecutor {
         first: work.first,
         count: work.count,
         simulated: this.simulationBuffer(work.simulation, shared.pointCount),
+        ...(shared.baseline === null ? {} : { baseline: { key: shared.key, buffer: shared.baseline, points: shared.points } }),
       } satisfies SimulateTask;
     } else {
       task = {
@@ -94,6 +95,7 @@ export class LocalExecutor implements SweepExecutor {
         minCoverage: work.minCoverage,
         alpha: work.alpha,
         placements: work.placements,
+        ...(shared.baseline === null ? {} : { baseline: { key: shared.key, buffer: shared.baseline } }),
         ...(work.stability === undefined ? {} : { stability: work.stability }),
       } satisfies ChunkTask;
     }

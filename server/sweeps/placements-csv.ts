@@ -7,7 +7,7 @@
  * the columns.
  */
 import type { PlacementRow, SweepSummary } from '../../shared/contracts.js';
-import { type Rounding, STATISTIC_FIELDS, STATISTIC_NAMES } from '../../workers/stats/statistic-fields.js';
+import { type Rounding, type StatisticField, STATISTIC_FIELDS, STATISTIC_NAMES } from '../../workers/stats/statistic-fields.js';
 
 /** Column of placements.csv: its name (with unit), the PlacementRow field and how its numbers are written. */
 export interface PlacementCsvColumn {
@@ -18,7 +18,8 @@ export interface PlacementCsvColumn {
 
 /**
  * Column order and names of placements.csv: the placement's parameters, then every statistic field in the order
- * and with the names and roundings of STATISTIC_FIELDS (workers/stats/statistic-fields.ts).
+ * and with the names and roundings of STATISTIC_FIELDS (workers/stats/statistic-fields.ts), leaving out the fields
+ * without a column (csv null: the area-only comparison against a baseline, in the JSON files only).
  */
 export const PLACEMENT_CSV_COLUMNS: readonly PlacementCsvColumn[] = [
   { name: 'size_index', field: 'sizeIndex', rounding: 'integer' },
@@ -29,7 +30,10 @@ export const PLACEMENT_CSV_COLUMNS: readonly PlacementCsvColumn[] = [
   { name: 'offset_u_cells', field: 'u', rounding: { decimals: 6 } },
   { name: 'offset_v_cells', field: 'v', rounding: { decimals: 6 } },
   { name: 'angle_deg', field: 'angle', rounding: { decimals: 4 } },
-  ...STATISTIC_NAMES.map((field) => ({ name: STATISTIC_FIELDS[field].csv, field, rounding: STATISTIC_FIELDS[field].rounding })),
+  ...STATISTIC_NAMES.flatMap((field) => {
+    const { csv, rounding } = STATISTIC_FIELDS[field] as StatisticField;
+    return csv === null ? [] : [{ name: csv, field, rounding }];
+  }),
 ];
 
 /** The PlacementRow fields in CSV column order. */

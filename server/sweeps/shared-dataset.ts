@@ -6,6 +6,7 @@ import { insideCoordinates } from '../inputs/inside-coordinates.js';
 import type { Dataset } from '../../shared/contracts.js';
 import { mortonCodes, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
+import { packBaseline } from '../../workers/baseline/baseline-buffer.js';
 import { collectGarbage, COLLECT_FROM_POINTS } from './collect-garbage.js';
 import type { Origin } from '../../workers/types.js';
 
@@ -15,6 +16,8 @@ export interface SharedDataset {
   pointCount: number;
   region: SharedArrayBuffer;
   origin: Origin;
+  /** the packed baseline (workers/baseline/baseline-buffer.ts), null when expected counts follow area */
+  baseline: SharedArrayBuffer | null;
 }
 
 /**
@@ -42,6 +45,7 @@ export function shareDataset(dataset: Dataset, key: string): SharedDataset {
     pointCount: dataset.inside.length,
     region: packRegion(dataset.region),
     origin: { x: dataset.origin.x, y: dataset.origin.y },
+    baseline: dataset.baseline === undefined ? null : packBaseline(dataset.baseline.engine),
   };
   const points = isShareableAsIs(dataset) ? (dataset.xy.buffer as SharedArrayBuffer) : sortedCopy(dataset);
   // the Morton codes and the sorted temporaries are garbage now; an idle main thread would keep them

@@ -10,7 +10,7 @@ import { summarizeSize } from '../summary/size-summary.js';
 import { decodeStatistics, STATISTICS_FIELDS } from '../../workers/sweep/statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from '../../workers/sweep/sweep-task.js';
 import { stabilityRaster, validPixels, type StabilityRaster } from '../../workers/stability/stability-raster.js';
-import type { Region } from '../../workers/types.js';
+import type { Region, Verdict } from '../../workers/types.js';
 import { StabilityAccumulator, type StabilitySurface } from '../stability/stability-accumulator.js';
 
 export class SizeResults {
@@ -60,7 +60,9 @@ export class SizeResults {
     const total = this.placements.length / 3;
     for (let j = 0; j < count; j++) {
       const index = first + j;
-      const stats = decodeStatistics(result, j * STATISTICS_FIELDS);
+      const { areaChi2PerDf, areaVerdict, ...decoded } = decodeStatistics(result, j * STATISTICS_FIELDS);
+      // the area-only comparison exists only against a baseline
+      const stats = areaVerdict === null ? decoded : { ...decoded, areaChi2PerDf, areaVerdict };
       this.rows[index] = {
         sizeIndex: this.sizeIndex,
         cellSize: this.cellSize,
@@ -93,6 +95,21 @@ export class SizeResults {
             sims: this.sims,
           })
         : null;
-    return summarizeSize(this.rows, monteCarlo);
+    const summary = summarizeSize(this.rows, monteCarlo);
+    const areaOnly = areaOnlySummary(this.rows);
+    return areaOnly === undefined ? summary : { ...summary, areaOnly };
   }
+}
+
+/** The area-only verdict shares, most common verdict and median chi2/df of rows evaluated against a baseline. */
+function areaOnlySummary(rows: readonly PlacementRow[]): SizeSummary['areaOnly'] {
+  const verdicts = rows.map((row) => row.areaVerdict).filter((verdict): verdict is Verdict => verdict !== null && verdict !== undefined);
+  if (verdicts.length === 0 || verdicts.length !== rows.length) return undefined;
+  const shares: Record<Verdict, number> = { clustered: 0, regular: 0, csr: 0 };
+  for (const verdict of verdicts) shares[verdict] += 1 / verdicts.length;
+  const mostCommon = (['clustered', 'csr', 'regular'] as Verdict[]).reduce((best, v) => (shares[v] > shares[best] ? v : best), 'clustered');
+  const values = rows.map((row) => row.areaChi2PerDf ?? Number.NaN).filter(Number.isFinite).sort((a, b) => a - b);
+  const middle = values.length / 2;
+  const chi2PerDfMedian = values.length === 0 ? Number.NaN : values.length % 2 === 1 ? values[Math.floor(middle)]! : (values[middle - 1]! + values[middle]!) / 2;
+  return { verdictShares: shares, mostCommon, chi2PerDfMedian };
 }

@@ -14,6 +14,8 @@ export interface GeoPackageLayer {
   /** EPSG code of the layer, or undefined for the standard's "undefined Cartesian" system (srs_id -1) */
   epsg?: number;
   geometries: ({ type: string; coordinates: unknown } | null)[];
+  /** extra attribute columns: one record per geometry (column names from the first record) */
+  properties?: Record<string, number | string | null>[];
 }
 
 function pointWkb(x: number, y: number): Buffer {
@@ -62,9 +64,13 @@ export function writeGeoPackage(layers: GeoPackageLayer[]): Buffer {
     }
     db.prepare("INSERT INTO gpkg_contents (table_name, data_type, identifier, srs_id) VALUES (?, 'features', ?, ?)").run(layer.table, layer.table, srsId);
     db.prepare('INSERT INTO gpkg_geometry_columns VALUES (?, ?, ?, ?, 0, 0)').run(layer.table, 'geom', layer.geometryType, srsId);
-    db.exec(`CREATE TABLE "${layer.table}" (fid INTEGER PRIMARY KEY AUTOINCREMENT, geom BLOB, name TEXT)`);
-    const insert = db.prepare(`INSERT INTO "${layer.table}" (geom, name) VALUES (?, ?)`);
-    layer.geometries.forEach((geometry, k) => insert.run(geometry === null ? null : geoPackageBlob(geometry, srsId), `record ${k + 1}`));
+    const columns = Object.keys(layer.properties?.[0] ?? {});
+    const extra = columns.map((name) => `, "${name}"`).join('');
+    db.exec(`CREATE TABLE "${layer.table}" (fid INTEGER PRIMARY KEY AUTOINCREMENT, geom BLOB, name TEXT${extra})`);
+    const insert = db.prepare(`INSERT INTO "${layer.table}" (geom, name${extra}) VALUES (?, ?${columns.map(() => ', ?').join('')})`);
+    layer.geometries.forEach((geometry, k) =>
+      insert.run(geometry === null ? null : geoPackageBlob(geometry, srsId), `record ${k + 1}`, ...columns.map((name) => layer.properties?.[k]?.[name] ?? null)),
+    );
   }
   const bytes = db.serialize();
   db.close();

@@ -74,6 +74,32 @@ describe('GridshakeStore', () => {
     db.close();
   });
 
+  it('upgrades a database written before the stability files (3) and the baseline column (4), keeping its datasets', () => {
+    const folder = tempFolder();
+    const { dataset, summary } = squareDataset();
+    const first = GridshakeStore.open(folder);
+    const stored = first.datasets.insert(dataset, summary);
+    first.close();
+    // make it a schema-2 database: what a store written before both migrations holds
+    const old = new Database(join(folder, 'gridshake.sqlite'));
+    old.exec('DROP TABLE stability_files; ALTER TABLE datasets DROP COLUMN baseline;');
+    old.pragma('user_version = 2');
+    old.close();
+    const again = GridshakeStore.open(folder);
+    const loaded = again.datasets.load(stored.id as string) as Dataset;
+    expect(Array.from(loaded.xy)).toEqual(Array.from(dataset.xy));
+    expect(loaded.baseline).toBeUndefined();
+    expect(again.datasets.summary(stored.id as string)).toEqual(stored);
+    again.close();
+    const db = new Database(join(folder, 'gridshake.sqlite'));
+    expect(db.pragma('user_version', { simple: true })).toBe(4);
+    expect(MIGRATIONS.length).toBe(4);
+    const columns = (db.prepare('PRAGMA table_info(datasets)').all() as { name: string }[]).map((column) => column.name);
+    expect(columns).toContain('baseline');
+    expect(db.prepare("SELECT name FROM sqlite_master WHERE type = 'table' AND name = 'stability_files'").get()).toBeDefined();
+    db.close();
+  });
+
   it('refuses a database written by a newer schema with GS_ERR_STORAGE', () => {
     const folder = tempFolder();
     GridshakeStore.open(folder).close();

@@ -102,7 +102,7 @@ describe('conclusions', () => {
       canReject: true, rejects: true, direction: 'clustered', strongestCellSize: 100 };
     expect(overallConclusion([stable, unstable], 0.05, overall)).toBe(
       'The overall Monte Carlo test across all 2 cell sizes and both tails finds a departure from CSR at alpha 0.05 ' +
-        '(p = 0.01, R = 99): clustering, most marked at 100 m cells. ' +
+        '(p = 0.01, R = 99): clustering beyond complete spatial randomness, most marked at 100 m cells. ' +
         'The verdict depends on where the grid falls at 1 of 2 cell sizes (agreement below 90 %).',
     );
     expect(overallConclusion([stable], 0.05, { ...overall, p: 0.3, rejects: false, direction: 'csr' })).toMatch(

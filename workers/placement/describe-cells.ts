@@ -33,28 +33,37 @@ export interface CellGrid {
   isKept: Uint8Array;
   keptPoints: number;
   keptCoverage: number;
+  /** with a baseline (issue 15): every grid cell's weight w_c; kept cells then also need w_c > 0 and E_c ∝ w_c */
+  weights?: Float64Array;
+  keptWeight?: number;
   /** number of cells with coverage > 0 (the ones described) */
   cellCount: number;
 }
 
 export function describeCellGrid(input: DescribeCellsInput): CellGrid {
-  const { counter, region, origin, cellSize, placement, minCoverage, shape } = input;
+  const { counter, region, origin, cellSize, placement, minCoverage, shape, baseline } = input;
   const lattice = latticeOf(shape);
   const grid = lattice.coverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage);
   const counts = new Int32Array(grid.nx * grid.ny);
   counter.count(grid, cellSize, placement, counts);
   const isKept = new Uint8Array(grid.nx * grid.ny);
+  const weights = baseline?.weights(grid, cellSize, placement);
   let keptPoints = 0;
   let keptCoverage = 0;
+  let keptWeight = 0;
   for (let k = 0; k < kept.index.length; k++) {
-    isKept[kept.index[k]!] = 1;
-    keptPoints += counts[kept.index[k]!]!;
+    const cell = kept.index[k]!;
+    if (weights !== undefined && !(weights[cell]! > 0)) continue;
+    isKept[cell] = 1;
+    keptPoints += counts[cell]!;
     keptCoverage += kept.coverage[k]!;
+    if (weights !== undefined) keptWeight += weights[cell]!;
   }
   let cellCount = 0;
   for (let k = 0; k < grid.coverage.length; k++) if (grid.coverage[k]! > 0) cellCount++;
-  return { grid, frame: lattice.frame(origin, cellSize, placement), counts, isKept, keptPoints, keptCoverage, cellCount };
+  const described: CellGrid = { grid, frame: lattice.frame(origin, cellSize, placement), counts, isKept, keptPoints, keptCoverage, cellCount };
+  return weights === undefined ? described : { ...described, weights, keptWeight };
 }
 
 /** Cell k (storage index) of a described grid, or null when its coverage is 0. */
@@ -70,7 +79,11 @@ export function cellAt(cells: CellGrid, k: number): CellDescription | null {
     j,
     count: cells.counts[k]!,
     coverage,
-    expected: kept && cells.keptCoverage > 0 ? (cells.keptPoints * coverage) / cells.keptCoverage : null,
+    expected: !kept
+      ? null
+      : cells.weights !== undefined
+        ? (cells.keptPoints * cells.weights[k]!) / cells.keptWeight!
+        : cells.keptCoverage > 0 ? (cells.keptPoints * coverage) / cells.keptCoverage : null,
     kept,
     corners: cells.frame.cellPolygon(i, j),
   };

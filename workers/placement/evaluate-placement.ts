@@ -4,12 +4,16 @@
  * Cost O(cells + edge crossings + n) per call.
  */
 import { EngineError } from '../engine-error.js';
-import { placementStatistics } from '../stats/index.js';
-import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region } from '../types.js';
+import { dispersionChiSquare, dispersionVerdict, placementStatistics } from '../stats/index.js';
+import type { CoverageGrid, KeptCells, Origin, Placement, PlacementStatistics, Region, Verdict } from '../types.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from './cell-counter.js';
 import { selectCells } from './select-cells.js';
+import type { ExpectedFrom } from '../baseline/baseline.js';
+import type { BaselineWeigher } from '../baseline/baseline-weights.js';
+import { keepBaselineCells } from '../baseline/keep-baseline-cells.js';
+import { baselineStatistics } from '../baseline/baseline-statistics.js';
 
 export interface EvaluatePlacementInput {
   counter: Pick<CellCounter, 'count'>;
@@ -23,6 +27,27 @@ export interface EvaluatePlacementInput {
   shape?: CellShape;
   /** Optional reusable count buffer (length >= nx * ny); a new one is made when absent or too short. */
   scratch?: Int32Array;
+  /** Expected counts proportional to this baseline instead of to area (workers/baseline); absent means area. */
+  baseline?: BaselineWeigher;
+}
+
+/**
+ * What the expected counts of a placement are proportional to (issue 15): in area mode 'area', the kept cells'
+ * valid area Σ a_c · s^2 (m^2), 0, 0; with a baseline Σ_kept w_c and the cells (and their points) that pass the
+ * coverage rule but have w_c = 0. `weights` are the kept cells' weights in kept order (the coverages in area mode).
+ */
+export interface Expectation {
+  expectedFrom: ExpectedFrom;
+  baselineTotal: number;
+  zeroBaselineCells: number;
+  pointsInZeroBaselineCells: number;
+  weights: Float64Array;
+  /** with a baseline: the weights of every grid cell, and the cells the coverage rule alone keeps */
+  gridWeights?: Float64Array;
+  coverageKept?: KeptCells;
+  /** with a baseline: the area-only test of the same placement (coverage-kept cells, E ∝ area) for comparison */
+  areaChi2PerDf?: number;
+  areaVerdict?: Verdict;
 }
 
 export interface EvaluatedPlacement {
@@ -31,6 +56,7 @@ export interface EvaluatedPlacement {
   kept: KeptCells;
   /** Per-grid-cell counts of this placement (length >= nx * ny, storage order of the grid). */
   counts: Int32Array;
+  expectation: Expectation;
 }
 
 /** Counts of the kept cells, in kept order, gathered from per-grid-cell counts. Cost O(kept cells). */
@@ -50,19 +76,56 @@ function describePlacement(cellSize: number, placement: Placement, shape: CellSh
  * (the message says at least 2 are needed and how to get them).
  */
 export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlacement {
-  const { counter, region, origin, cellSize, placement, minCoverage, alpha, shape } = input;
+  const { counter, region, origin, cellSize, placement, minCoverage, alpha, shape, baseline } = input;
   const grid = latticeOf(shape).coverage(region, origin, cellSize, placement);
-  const kept = selectCells(grid, minCoverage);
+  const coverageKept = selectCells(grid, minCoverage);
+  const cellCount = grid.nx * grid.ny;
+  const counts = input.scratch !== undefined && input.scratch.length >= cellCount ? input.scratch : new Int32Array(cellCount);
+  let kept = coverageKept;
+  let expectation: Expectation;
+  if (baseline === undefined) {
+    let area = 0;
+    for (const a of kept.coverage) area += a;
+    expectation = {
+      expectedFrom: 'area',
+      baselineTotal: area * cellSize * cellSize,
+      zeroBaselineCells: 0,
+      pointsInZeroBaselineCells: 0,
+      weights: kept.coverage,
+    };
+  } else {
+    counter.count(grid, cellSize, placement, counts);
+    const gridWeights = baseline.weights(grid, cellSize, placement);
+    const narrowed = keepBaselineCells(coverageKept, gridWeights, counts);
+    kept = narrowed.kept;
+    expectation = {
+      expectedFrom: baseline.expectedFrom,
+      baselineTotal: narrowed.baselineTotal,
+      zeroBaselineCells: narrowed.zeroBaselineCells,
+      pointsInZeroBaselineCells: narrowed.pointsInZeroBaselineCells,
+      weights: narrowed.weights,
+      gridWeights,
+      coverageKept,
+    };
+  }
   if (kept.index.length < 2) {
+    const withWeight = baseline === undefined ? '' : ' and a positive baseline weight';
     throw new EngineError(
       'TOO_FEW_KEPT_CELLS',
-      `${describePlacement(cellSize, placement, shape)} keep ${kept.index.length} cell(s) with coverage >= ${minCoverage}; ` +
+      `${describePlacement(cellSize, placement, shape)} keep ${kept.index.length} cell(s) with coverage >= ${minCoverage}${withWeight}; ` +
         'at least 2 are needed: use smaller cells or a lower minCoverage',
     );
   }
-  const cellCount = grid.nx * grid.ny;
-  const counts = input.scratch !== undefined && input.scratch.length >= cellCount ? input.scratch : new Int32Array(cellCount);
-  counter.count(grid, cellSize, placement, counts);
-  const stats = placementStatistics(keptCounts(counts, kept), kept.coverage, alpha);
-  return { stats, grid, kept, counts };
+  if (baseline === undefined) counter.count(grid, cellSize, placement, counts);
+  if (expectation.coverageKept !== undefined && expectation.coverageKept.index.length >= 2) {
+    const areaTest = dispersionChiSquare(keptCounts(counts, expectation.coverageKept), expectation.coverageKept.coverage);
+    expectation.areaChi2PerDf = areaTest.chi2 / areaTest.df;
+    expectation.areaVerdict = dispersionVerdict(areaTest.chi2, areaTest.df, alpha).verdict;
+  }
+  const observed = keptCounts(counts, kept);
+  const stats =
+    baseline === undefined
+      ? placementStatistics(observed, kept.coverage, alpha)
+      : baselineStatistics(observed, kept.coverage, expectation.weights, alpha);
+  return { stats, grid, kept, counts, expectation };
 }

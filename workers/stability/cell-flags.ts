@@ -1,6 +1,7 @@
 /**
  * Excess and deficit cells of one placement: each kept cell c is tested one-sided against its expected count
- * E_c = N a_c / sum(a) (N points in the kept cells, a_c the coverage; shared/design.md), with exact Poisson tails
+ * E_c = N a_c / sum(a) (N points in the kept cells, a_c the coverage, or the weight w_c against baseline polygons,
+ * issue 15, workers/sweep/evaluate-chunk.ts; shared/design.md), with exact Poisson tails
  *   excess p-value  p+_c = P(X >= O_c),  deficit p-value  p-_c = P(X <= O_c),  X ~ Poisson(E_c),
  * and the multiplicity across the placement's m kept cells controlled by Benjamini-Hochberg at alpha, separately for
  * the excess family and the deficit family (workers/stability/benjamini-hochberg.ts).

@@ -6,9 +6,31 @@
  * one, or a kind that does not match the field's type.
  */
 import type { PlacementStatistics, Verdict } from '../types.js';
+import type { ExpectedFrom } from '../baseline/baseline.js';
+
+/**
+ * What a placement's expected counts follow (issue 15, workers/placement Expectation): 'area', 'baseline' or
+ * 'controls'; Σ_kept w (the kept cells' valid area in m^2 in area mode); the cells passing the coverage rule with
+ * w = 0 and their points; against a baseline the same placement's area-only chi2/df and verdict (NaN / null in area
+ * mode).
+ */
+export interface ExpectationStatistics {
+  expectedFrom: ExpectedFrom;
+  baselineTotal: number;
+  zeroBaselineCells: number;
+  pointsInZeroBaselineCells: number;
+  areaChi2PerDf: number;
+  areaVerdict: Verdict | null;
+}
+
+/** The expectation as the engine hands it over (the area-only comparison absent in area mode). */
+export type ExpectationInput = Omit<ExpectationStatistics, 'areaChi2PerDf' | 'areaVerdict'> & {
+  areaChi2PerDf?: number;
+  areaVerdict?: Verdict;
+};
 
 /** The statistics of a placement row without its placement parameters (shared/contracts.ts PlacementRow). */
-export interface EncodedStatistics extends Omit<PlacementStatistics, 'poissonFit'> {
+export interface EncodedStatistics extends Omit<PlacementStatistics, 'poissonFit'>, ExpectationStatistics {
   poissonChi2: number | null;
   poissonDf: number | null;
   poissonP: number | null;
@@ -19,16 +41,30 @@ export type Rounding = 'integer' | 'text' | { significant: number } | { decimals
 
 /**
  * How a field travels as one float64: 'number' as is; 'nullable' with null as NaN; 'boolean' as 0 / 1;
- * 'verdict' as its index in VERDICT_CODES.
+ * 'verdict' as its index in VERDICT_CODES; 'optionalVerdict' likewise with null (or absent) as -1;
+ * 'expectedFrom' as its index in EXPECTED_FROM_CODES.
  */
-export type FieldKind = 'number' | 'nullable' | 'boolean' | 'verdict';
+export type FieldKind = 'number' | 'nullable' | 'boolean' | 'verdict' | 'optionalVerdict' | 'expectedFrom';
 
-type KindOf<T> = [T] extends [boolean] ? 'boolean' : [T] extends [Verdict] ? 'verdict' : [T] extends [number] ? 'number' : 'nullable';
+type KindOf<T> = [T] extends [boolean]
+  ? 'boolean'
+  : [T] extends [Verdict]
+    ? 'verdict'
+    : [T] extends [ExpectedFrom]
+      ? 'expectedFrom'
+      : [T] extends [Verdict | null]
+        ? 'optionalVerdict'
+        : [T] extends [number]
+          ? 'number'
+          : 'nullable';
 
-/** One statistic field: its codec kind, its placements.csv column (name with unit) and the column's rounding. */
+/**
+ * One statistic field: its codec kind, its placements.csv column (name with unit; null: not a column, the field is
+ * in placements.json and summary.json only) and the column's rounding.
+ */
 export interface StatisticField<K extends FieldKind = FieldKind> {
   kind: K;
-  csv: string;
+  csv: string | null;
   rounding: Rounding;
 }
 
@@ -36,6 +72,9 @@ type StatisticFieldTable = { [F in keyof EncodedStatistics]: StatisticField<Kind
 
 /** Verdict codes of the codec: 0 csr, 1 clustered, 2 regular. */
 export const VERDICT_CODES: readonly Verdict[] = ['csr', 'clustered', 'regular'];
+
+/** expectedFrom codes of the codec: 0 area, 1 baseline, 2 controls. */
+export const EXPECTED_FROM_CODES: readonly ExpectedFrom[] = ['area', 'baseline', 'controls'];
 
 const SIG6 = { significant: 6 };
 // p-values: four significant digits keep small tails readable (1.234e-9) without false precision
@@ -66,6 +105,15 @@ export const STATISTIC_FIELDS = {
   poissonChi2: { kind: 'nullable', csv: 'poisson_fit_chi2', rounding: SIG6 },
   poissonDf: { kind: 'nullable', csv: 'poisson_fit_df', rounding: 'integer' },
   poissonP: { kind: 'nullable', csv: 'poisson_fit_p', rounding: SIG4 },
+  // issue 15: what the expected counts follow ('area', 'baseline', 'controls'), the kept cells' total weight (m² of
+  // valid area in area mode) and the cells (and points) passing the coverage rule with no population at risk
+  expectedFrom: { kind: 'expectedFrom', csv: 'expected_from', rounding: 'text' },
+  baselineTotal: { kind: 'number', csv: 'baseline_total', rounding: SIG6 },
+  zeroBaselineCells: { kind: 'number', csv: 'zero_baseline_cells', rounding: 'integer' },
+  pointsInZeroBaselineCells: { kind: 'number', csv: 'points_in_zero_baseline_cells', rounding: 'integer' },
+  // against a baseline, the area-only test of the same placement (report's side-by-side verdicts; not CSV columns)
+  areaChi2PerDf: { kind: 'number', csv: null, rounding: SIG6 },
+  areaVerdict: { kind: 'optionalVerdict', csv: null, rounding: 'text' },
 } as const satisfies StatisticFieldTable;
 
 export type StatisticName = keyof EncodedStatistics;
@@ -78,11 +126,30 @@ export const POISSON_FIT_PARTS = { poissonChi2: 'chi2', poissonDf: 'df', poisson
   Record<StatisticName, keyof NonNullable<PlacementStatistics['poissonFit']>>
 >;
 
-/** The statistics flattened for the codec and the rows: the Poisson fit as three nullable fields. Cost O(1). */
-export function flattenStatistics(stats: PlacementStatistics): EncodedStatistics {
+/** The fields that come from the placement's expectation (the codec's second argument), not from its statistics. */
+export const EXPECTATION_FIELDS: ReadonlySet<StatisticName> = new Set<keyof ExpectationStatistics>([
+  'expectedFrom',
+  'baselineTotal',
+  'zeroBaselineCells',
+  'pointsInZeroBaselineCells',
+  'areaChi2PerDf',
+  'areaVerdict',
+]);
+
+/**
+ * The statistics and expectation flattened for the codec and the rows: the Poisson fit as three nullable fields, the
+ * area-only comparison NaN / null when absent (area mode). Cost O(1).
+ */
+export function flattenStatistics(stats: PlacementStatistics, expectation: ExpectationInput): EncodedStatistics {
   const { poissonFit, ...rest } = stats;
   return {
     ...rest,
+    expectedFrom: expectation.expectedFrom,
+    baselineTotal: expectation.baselineTotal,
+    zeroBaselineCells: expectation.zeroBaselineCells,
+    pointsInZeroBaselineCells: expectation.pointsInZeroBaselineCells,
+    areaChi2PerDf: expectation.areaChi2PerDf ?? Number.NaN,
+    areaVerdict: expectation.areaVerdict ?? null,
     poissonChi2: poissonFit ? poissonFit[POISSON_FIT_PARTS.poissonChi2] : null,
     poissonDf: poissonFit ? poissonFit[POISSON_FIT_PARTS.poissonDf] : null,
     poissonP: poissonFit ? poissonFit[POISSON_FIT_PARTS.poissonP] : null,

@@ -1,12 +1,14 @@
 /**
  * The pure work of one chunk task: for each placement of the chunk, the coverage of its cells (computed once),
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
- * CSR pattern at the same kept cells.
+ * pattern (CSR, or the baseline's null: workers/baseline) at the same kept cells with the same expected weights.
  */
 import { evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
+import type { BaselineWeigher } from '../baseline/baseline-weights.js';
+import { poolCounts, relabelledChiSquare } from '../baseline/relabelled-chi-square.js';
 import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
 import { StabilityChunk } from '../stability/stability-chunk.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
@@ -26,6 +28,8 @@ export interface ChunkContext {
   shape?: CellShape;
   minCoverage: number;
   alpha: number;
+  /** expected counts proportional to this baseline (workers/baseline) instead of area; absent means area */
+  baseline?: BaselineWeigher;
   /** the stability surface's raster and its valid pixels (workers/stability); absent: no surface */
   stability?: { raster: StabilityRaster; pixels: Uint32Array };
 }
@@ -46,9 +50,17 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
     const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
-    encodeStatistics(evaluated.stats, result, j * STATISTICS_FIELDS);
+    encodeStatistics(evaluated.stats, evaluated.expectation, result, j * STATISTICS_FIELDS);
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
+    // controls: each simulated labelling has its own controls (the rest of the pool), so its own weights
+    const { expectation } = evaluated;
+    const relabel = expectation.expectedFrom === 'controls' && expectation.coverageKept !== undefined && expectation.gridWeights !== undefined;
+    const pool = relabel ? poolCounts(evaluated.counts, expectation.gridWeights!, expectation.coverageKept!) : null;
+    // the stability flags' expected counts: E_c = N w_c / Σ w against baseline polygons (the simulations follow the
+    // same weights); by area otherwise. Under random labelling each labelling would have its own weights, so the
+    // flags there stay by area: one statistic of the cases alone, which relabelling calibrates exactly.
+    const flagWeights = expectation.expectedFrom === 'baseline' ? expectation.weights : evaluated.kept.coverage;
     if (stability !== null) {
       stability.beginPlacement(
         pixelCellLocator(context.shape, context.origin, context.cellSize, placement, evaluated.grid),
@@ -56,15 +68,15 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
         evaluated.kept,
         squarePixelFrame(context.shape, context.origin, context.cellSize, placement),
       );
-      stability.addObserved(keptCounts(scratch, evaluated.kept, kept), evaluated.kept.coverage);
+      stability.addObserved(keptCounts(scratch, evaluated.kept, kept), flagWeights);
     }
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
       const counts = keptCounts(scratch, evaluated.kept, kept);
-      const { chi2, df } = dispersionChiSquare(counts, evaluated.kept.coverage);
+      const { chi2, df } = pool !== null ? relabelledChiSquare(scratch, pool, expectation.coverageKept!) : dispersionChiSquare(counts, expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
-      stability?.addSimulated(r, counts, evaluated.kept.coverage);
+      stability?.addSimulated(r, counts, flagWeights);
     }
   }
   if (stability === null) return result;

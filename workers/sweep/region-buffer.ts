@@ -26,7 +26,11 @@ export function packRegion(region: Region): SharedArrayBuffer {
 
 /** Reads a packed region; its rings are views on the buffer. */
 export function unpackRegion(buffer: SharedArrayBuffer): Region {
-  const data = new Float64Array(buffer);
+  return unpackRegionData(new Float64Array(buffer));
+}
+
+/** Reads a region packed as by packRegion from a Float64Array view (rings are views on it). */
+export function unpackRegionData(data: Float64Array): Region {
   const ringCount = data[0];
   const base = HEADER + ringCount + 1;
   const rings: Float64Array[] = [];

@@ -5,6 +5,7 @@
  */
 import { mortonSort } from '../placement/index.js';
 import { createRandom, deriveSeed, type CsrSampler } from '../random/index.js';
+import type { PatternSampler } from '../baseline/baseline-sampler.js';
 
 /** Patterns from this many points are Morton-sorted; smaller count arrays stay in cache anyway. */
 export const MORTON_FROM_POINTS = 65536;
@@ -15,7 +16,7 @@ export const MORTON_FROM_POINTS = 65536;
  * Cost O(count n) (sampling plus, for large patterns, the radix Morton sort).
  * Reference: J. Besag and P. J. Diggle (1977), Applied Statistics 26:327-333 (CSR patterns given n).
  */
-export function simulatePatterns(sampler: CsrSampler, pointCount: number, seed: number, first: number, count: number, out: Float64Array): void {
+export function simulatePatterns(sampler: CsrSampler | PatternSampler, pointCount: number, seed: number, first: number, count: number, out: Float64Array): void {
   const length = pointCount * 2;
   for (let r = first; r < first + count; r++) {
     const xy = sampler.sample(pointCount, createRandom(deriveSeed(seed, r)));

@@ -20,6 +20,11 @@ export interface SimulateTask {
   count: number;
   /** sims x pointCount x 2 float64 values, pattern r at r * pointCount * 2 */
   simulated: SharedArrayBuffer;
+  /**
+   * the baseline (workers/baseline/baseline-buffer.ts) whose null the patterns follow instead of CSR, with the key
+   * workers cache its sampler under and the observed inside points (random labelling pools them with the controls)
+   */
+  baseline?: { key: string; buffer: SharedArrayBuffer; points: SharedArrayBuffer };
 }
 
 /** Evaluates a chunk of placements of one cell size on the observed pattern and on every simulated pattern. */
@@ -41,6 +46,8 @@ export interface ChunkTask {
   alpha: number;
   /** u, v, angle of each placement of the chunk */
   placements: Float64Array;
+  /** expected counts proportional to this baseline (workers/baseline/baseline-buffer.ts) instead of area */
+  baseline?: { key: string; buffer: SharedArrayBuffer };
   /** the stability surface's raster (workers/stability); absent: no surface is computed */
   stability?: StabilityRaster;
 }

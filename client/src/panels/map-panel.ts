@@ -11,6 +11,7 @@ import { CAUTIONS } from '../../../shared/charts/cautions.js';
 import { formatMetres, formatNumber } from '../../../shared/format.js';
 import { downloadName, fileSlug } from '../../../shared/messages/download-names.js';
 import { cellLines } from '../map/cell-readout.js';
+import { BASELINE_LAYER_ID, baselineLayerEntry } from '../map/baseline-layer.js';
 import { GridshakeMap } from '../map/gridshake-map.js';
 import { layerList } from '../map/layer-list.js';
 import { legendElement } from '../map/map-legend.js';
@@ -109,10 +110,14 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
   store.subscribe((state, changed) => {
     if (changed.has('geometry')) {
       map.showDataset(state.geometry, state.dataset);
+      // the population at risk (issue 15): a choropleth under the grid and the points, in the layer list and legend
+      const baseline = baselineLayerEntry(state.geometry);
+      if (baseline) map.setOptionalLayer(baseline);
+      else map.removeOptionalLayer(BASELINE_LAYER_ID);
       target.dataset.gridCells = '0';
       const geometry = state.geometry;
       caption.textContent = geometry && state.dataset
-        ? `${state.dataset.name}: study area, no-data zones (hatched) and ${geometry.points.length / 2} of ${geometry.totalPoints} points${geometry.stride > 1 ? ` (every ${geometry.stride}th drawn)` : ''}.`
+        ? `${state.dataset.name}: study area, ${geometry.baseline ? 'population at risk (density per km²), ' : ''}no-data zones (hatched) and ${geometry.points.length / 2} of ${geometry.totalPoints} points${geometry.stride > 1 ? ` (every ${geometry.stride}th drawn)` : ''}.`
         : 'No dataset yet.';
       refreshLegend();
     }

@@ -1,6 +1,7 @@
 /** Upload of points, an optional study area and no-data zones, with the coordinate system choice. */
 import { api, ApiError, type StoredDataset } from '../api/api-client.js';
 import { el, field, message } from '../ui/dom.js';
+import { numericProperties } from './numeric-properties.js';
 
 export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLElement {
   const points = el('input', { type: 'file', name: 'points', required: true, accept: '.csv,.txt,.geojson,.json,.gpkg' });
@@ -22,6 +23,37 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
   const x = el('input', { type: 'text', name: 'x', maxlength: 100, placeholder: 'found by name' });
   const y = el('input', { type: 'text', name: 'y', maxlength: 100, placeholder: 'found by name' });
   const skipBadRows = el('input', { type: 'checkbox', name: 'skipBadRows', id: 'upload-skip-bad-rows' });
+  // population at risk (optional): polygons with a count field, or control points
+  const riskKind = el(
+    'select',
+    { name: 'baselineKind' },
+    el('option', { value: '' }, 'none: expected counts follow area (complete spatial randomness)'),
+    el('option', { value: 'polygons' }, 'polygons with a count (residents, households, visits)'),
+    el('option', { value: 'controls' }, 'control points'),
+  );
+  const riskFile = el('input', { type: 'file', name: 'baseline', accept: '.geojson,.json,.gpkg,.csv,.txt', disabled: true });
+  const riskField = el('select', { name: 'baselineField', disabled: true }, el('option', { value: '' }, 'choose the polygons first'));
+  const riskFieldTyped = el('input', { type: 'text', name: 'baselineFieldName', maxlength: 200, placeholder: 'GeoPackage: type the column name', disabled: true });
+  const refreshRiskField = async (): Promise<void> => {
+    const file = riskFile.files?.[0];
+    const polygons = riskKind.value === 'polygons';
+    riskFieldTyped.disabled = !polygons || file === undefined || !file.name.toLowerCase().endsWith('.gpkg');
+    if (!polygons || file === undefined || !riskFieldTyped.disabled) {
+      riskField.replaceChildren(el('option', { value: '' }, polygons && file !== undefined ? 'type the column name' : 'choose the polygons first'));
+      riskField.disabled = true;
+      return;
+    }
+    const names = numericProperties(await file.text());
+    riskField.replaceChildren(
+      ...(names.length === 0 ? [el('option', { value: '' }, 'no numeric property in every feature')] : names.map((n) => el('option', { value: n }, n))),
+    );
+    riskField.disabled = names.length === 0;
+  };
+  riskKind.addEventListener('change', () => {
+    riskFile.disabled = riskKind.value === '';
+    void refreshRiskField();
+  });
+  riskFile.addEventListener('change', () => void refreshRiskField());
   const feedback = el('div', { 'aria-live': 'polite' });
   const submit = el('button', { type: 'submit', class: 'button' }, 'Upload and check');
   const form = el(
@@ -30,6 +62,15 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
     field('Points (CSV, GeoJSON or GeoPackage)', points),
     field('Study area (optional)', area, 'Without it the bounding box of the points is used, with a warning.'),
     field('No-data zones (optional, several files allowed)', noData, 'Water, closed land: places where points cannot occur.'),
+    el(
+      'fieldset',
+      { class: 'population-at-risk' },
+      el('legend', {}, 'Population at risk (optional)'),
+      field('Expected counts follow', riskKind, 'Crime and disease records follow where people are: test clustering beyond them, not beyond area.'),
+      field('Population file (polygons: GeoJSON or GeoPackage; controls: as the points)', riskFile),
+      field('Count field', riskField, 'The numeric property holding each polygon\'s population at risk.'),
+      field('Count column (GeoPackage)', riskFieldTyped),
+    ),
     field('Coordinate system', crs),
     field('EPSG code', epsg),
     field('Dataset name', name),
@@ -59,6 +100,12 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
     if (crsValue) body.append('crs', crsValue);
     for (const [key, input] of [['name', name], ['x', x], ['y', y]] as const) if (input.value.trim()) body.append(key, input.value.trim());
     if (skipBadRows.checked) body.append('skipBadRows', 'true');
+    const riskUpload = riskFile.files?.[0];
+    if (riskKind.value !== '' && riskUpload !== undefined) {
+      body.append(riskKind.value === 'controls' ? 'controls' : 'baseline', riskUpload, riskUpload.name);
+      const chosen = riskFieldTyped.disabled ? riskField.value : riskFieldTyped.value.trim();
+      if (riskKind.value === 'polygons' && chosen !== '') body.append('baselineField', chosen);
+    }
     submit.disabled = true;
     feedback.replaceChildren(message('info', 'Reading and checking the files...'));
     try {

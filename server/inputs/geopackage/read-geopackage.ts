@@ -70,22 +70,31 @@ function featureLayer(db: Database.Database, fileName: string): LayerRow {
   return layers[0];
 }
 
+/** The alias of the row id in the feature query (a name no GeoPackage column is expected to have). */
+const FID_COLUMN = '__gridshake_fid__';
+
 const quoteIdentifier = (name: string): string => `"${name.replace(/"/g, '""')}"`;
 
 export function readGeoPackageFeatures(file: InputFile): GeoPackageFeatures {
   const db = openDatabase(file);
   try {
     const layer = featureLayer(db, file.name);
-    const rows = db
-      .prepare(`SELECT rowid AS fid, ${quoteIdentifier(layer.column_name)} AS geom FROM ${quoteIdentifier(layer.table_name)} ORDER BY rowid`)
-      .raw()
-      .all() as [number, Uint8Array | null][];
-    const features = rows.map(([fid, blob]): LabelledFeature => {
+    const statement = db.prepare(
+      `SELECT rowid AS ${quoteIdentifier(FID_COLUMN)}, * FROM ${quoteIdentifier(layer.table_name)} ORDER BY rowid`,
+    );
+    const rows = statement.all() as Record<string, unknown>[];
+    const features = rows.map((row): LabelledFeature => {
+      const fid = Number(row[FID_COLUMN]);
+      const blob = row[layer.column_name] as Uint8Array | null;
+      const properties: Record<string, unknown> = {};
+      for (const [name, value] of Object.entries(row)) {
+        if (name !== FID_COLUMN && name !== layer.column_name) properties[name] = value;
+      }
       const label = `${file.name}: layer '${layer.table_name}', feature ${fid}`;
-      if (blob === null) return { label, id: String(fid), geometry: null };
+      if (blob === null || blob === undefined) return { label, id: String(fid), geometry: null, properties };
       if (!(blob instanceof Uint8Array)) throw inputError(`${label}: the geometry column does not hold a BLOB`);
       try {
-        return { label, id: String(fid), geometry: decodeGeoPackageGeometry(blob) };
+        return { label, id: String(fid), geometry: decodeGeoPackageGeometry(blob), properties };
       } catch (error) {
         throw inputError(`${label}: ${(error as Error).message}`);
       }
