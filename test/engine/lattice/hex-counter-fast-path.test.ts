@@ -5,7 +5,7 @@
  * sent to a wrong cell cannot hide behind another sent the other way. Points: uniform, on hexagon sides and corners
  * (and one float step off), on the unit cell's bisectors 2 fq + fr = 1, fq + 2 fr = 1, fq = fr, 2 fq + fr = 2,
  * fq + 2 fr = 2, on the corners of the corner table's squares, and exact ties at angle 0 (the contract's own
- * property test, hex-properties.test.ts, checks the rule itself against a transcription of the issue text).
+ * property test, hex-properties.test.ts, checks the rule itself against a direct implementation of the written rounding rule).
  */
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
