@@ -23,7 +23,7 @@ import { startServe, type ServeProcess } from '../stress/serve-process.js';
 
 // GRIDSHAKE_SOAK_KILLS shortens the loop while developing; CI runs the full count
 const KILLS = Number(process.env.GRIDSHAKE_SOAK_KILLS ?? 100);
-const MAX_SECONDS = 1200;
+const MAX_SECONDS = 900;
 const KINDS = ['upload', 'sweep', 'delete', 'export', 'cancel-rerun'] as const;
 type Kind = (typeof KINDS)[number];
 
