@@ -18,5 +18,5 @@ export const QUEUE_OPTION: Record<'queue', OptionSpec> = {
 export function queueFromOptions(values: OptionValues, env: Record<string, string | undefined> = process.env): QueueConnection | null {
   const text = optionalString(values, 'queue') ?? env[QUEUE_ENV];
   if (text === undefined || text === '') return null;
-  return parseQueueUrl(text);
+  return parseQueueUrl(text, env);
 }
