@@ -6,6 +6,13 @@
 import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
 import type { StabilitySurface } from '../stability/stability-accumulator.js';
 
+/**
+ * Where a sweep's tasks run on a server: its own local pool, or the Redis queue of `serve --queue` (the request's
+ * `executor` field; the queue by default on a server started with one). Numbers are the same either way.
+ */
+export const EXECUTOR_CHOICES = ['local', 'queue'] as const;
+export type ExecutorChoice = (typeof EXECUTOR_CHOICES)[number];
+
 /** Progress as the pool reports it: at least placements done and total. */
 export interface RunnerProgress {
   done: number;
@@ -21,6 +28,8 @@ export interface SweepRunOptions {
   datasetId?: string;
   /** also compute the stability surfaces (server/stability) */
   stability?: boolean;
+  /** where the tasks run, for a runner with a choice (routed-runner.ts); others ignore it */
+  executor?: ExecutorChoice;
 }
 
 export interface SweepRunner {
@@ -28,4 +37,6 @@ export interface SweepRunner {
   destroy(): Promise<void>;
   /** worker threads, for /api/health */
   readonly threads?: number;
+  /** the executors a sweep may choose, the default first; absent: the local pool only */
+  readonly executors?: readonly ExecutorChoice[];
 }
