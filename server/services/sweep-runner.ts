@@ -3,15 +3,13 @@
  * on an executor: the local pool or the Redis queue):
  * run one sweep with cancellation and progress, and shut down.
  */
-import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
+import type { Dataset, ExecutorChoice, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
 import type { StabilitySurface } from '../stability/stability-accumulator.js';
 
-/**
- * Where a sweep's tasks run on a server: its own local pool, or the Redis queue of `serve --queue` (the request's
- * `executor` field; the queue by default on a server started with one). Numbers are the same either way.
- */
-export const EXECUTOR_CHOICES = ['local', 'queue'] as const;
-export type ExecutorChoice = (typeof EXECUTOR_CHOICES)[number];
+export type { ExecutorChoice };
+
+/** Every ExecutorChoice, for the request schema (the type in shared/contracts.ts says what each means). */
+export const EXECUTOR_CHOICES = ['local', 'queue'] as const satisfies readonly ExecutorChoice[];
 
 /** Progress as the pool reports it: at least placements done and total. */
 export interface RunnerProgress {
