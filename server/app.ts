@@ -26,6 +26,7 @@ import { DatasetService } from './services/dataset-service.js';
 import { DEFAULT_CLIENT_DIR, PACKAGE_VERSION } from './services/project-paths.js';
 import { SweepExports } from './services/sweep-exports.js';
 import { SweepQueue } from './services/sweep-queue.js';
+import { RoutedSweepRunner } from './services/routed-runner.js';
 import type { SweepRunner } from './services/sweep-runner.js';
 import { SweepService } from './services/sweep-service.js';
 import { GridshakeStore } from './store/store.js';
@@ -90,12 +91,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const interruptedAtStart = store.sweeps.markInterrupted();
   const uploads = new UploadFolder(dataDir);
   uploads.clearLeftovers();
-  const runner =
+  const localPool = (): SweepPool => new SweepPool({ threads: options.threads, budget: workBudget });
+  const runner: SweepRunner =
     options.runner ??
     (options.queue
-      ? // loaded only when asked for: the local pool does not load BullMQ
-        (await import('./queue/queue-runner.js')).queueSweepRunner(options.queue, dataDir, workBudget)
-      : new SweepPool({ threads: options.threads, budget: workBudget }));
+      ? // loaded only when asked for: the local pool does not load BullMQ; it stays available per sweep (executor "local")
+        new RoutedSweepRunner((await import('./queue/queue-runner.js')).queueSweepRunner(options.queue, dataDir, workBudget), localPool)
+      : localPool());
   const parser = new DatasetParser(store);
 
   const app = Fastify({
@@ -113,7 +115,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   });
   const queue = new SweepQueue(store, runner, app.log);
   const datasets = new DatasetService(store, queue, maxPoints, parser);
-  const sweeps = new SweepService(store, queue, workBudget);
+  const sweeps = new SweepService(store, queue, workBudget, runner.executors);
   app.decorate('gridshake', { store, queue, datasets, sweeps, runner, interruptedAtStart });
 
   const policy = createHostPolicy(options.host ?? '127.0.0.1', () => {

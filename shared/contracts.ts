@@ -94,6 +94,12 @@ export interface DatasetSummary {
 
 export type PlacementDesign = 'halton' | 'lattice';
 
+/**
+ * Where a server runs a sweep's tasks (`executor` of POST /api/sweeps, beside the plan: it changes no number):
+ * its own worker pool, or the Redis queue of `serve --queue` (the default on such a server).
+ */
+export type ExecutorChoice = 'local' | 'queue';
+
 /** A sweep's parameters; JSON uses these names, the CLI the kebab-case ones. */
 export interface Plan {
   /** cell sides in metres; exactly one of cells / perCell is given */

@@ -4,13 +4,13 @@
  */
 import type { OptionSpec, OptionValues } from './args.js';
 import { optionalString } from './args.js';
-import { parseQueueUrl, QUEUE_ENV, type QueueConnection } from '../queue/queue-url.js';
+import { parseQueueUrl, QUEUE_CA_ENV, QUEUE_ENV, type QueueConnection } from '../queue/queue-url.js';
 
 export const QUEUE_OPTION: Record<'queue', OptionSpec> = {
   queue: {
     type: 'string',
     value: 'URL',
-    description: `send the tasks to the Redis queue redis://[:password@]host:port[/db] (rediss:// for TLS); default $${QUEUE_ENV}, else the local pool`,
+    description: `send the tasks to the Redis queue redis://[:password@]host:port[/db] (rediss:// for TLS; $${QUEUE_CA_ENV} names a private CA's PEM file); default $${QUEUE_ENV}, else the local pool`,
   },
 };
 
@@ -18,5 +18,5 @@ export const QUEUE_OPTION: Record<'queue', OptionSpec> = {
 export function queueFromOptions(values: OptionValues, env: Record<string, string | undefined> = process.env): QueueConnection | null {
   const text = optionalString(values, 'queue') ?? env[QUEUE_ENV];
   if (text === undefined || text === '') return null;
-  return parseQueueUrl(text);
+  return parseQueueUrl(text, env);
 }

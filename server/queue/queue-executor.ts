@@ -27,7 +27,7 @@ import { queueUnreachableError } from '../errors.js';
 import { sweepCancelledError } from '../sweeps/sweep-errors.js';
 import { packDataset } from './queue-dataset.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
-import { redisOptions } from './redis-options.js';
+import { certificateAdvice, redisOptions } from './redis-options.js';
 import { decodeResult, encodePlacements, TASK_FORMAT, type QueueTaskData } from './task-codec.js';
 import type { QueueConnection } from './queue-url.js';
 
@@ -98,6 +98,8 @@ export class QueueExecutor implements SweepExecutor {
   private nextJob = 0;
   private notReadySince: number | null = null;
   private lastError = 'no answer';
+  /** what to do about Redis's TLS certificate when the last connection failed its check, else null */
+  private certificateError: string | null = null;
   private closed = false;
 
   constructor(options: QueueExecutorOptions) {
@@ -111,6 +113,10 @@ export class QueueExecutor implements SweepExecutor {
     this.redis = new Redis({ ...redisOptions(options.connection, undefined, 1000), lazyConnect: true });
     this.redis.on('error', (error: Error) => {
       this.lastError = error.message;
+      this.certificateError = certificateAdvice(error);
+    });
+    this.redis.on('ready', () => {
+      this.certificateError = null;
     });
     this.watchdog = setInterval(() => this.checkConnection(), 250);
     this.watchdog.unref();
@@ -317,7 +323,10 @@ export class QueueExecutor implements SweepExecutor {
     task.reject(task.cancelled ? sweepCancelledError() : new Error(reason));
   }
 
-  /** Rejects `promise` when Redis has not answered for lostAfterMs while it waits. */
+  /**
+   * Rejects `promise` when Redis has not answered for lostAfterMs while it waits, or at once (next watchdog tick)
+   * when Redis's TLS certificate failed its check: retrying cannot help there.
+   */
   private guarded<T>(promise: Promise<T>): Promise<T> {
     return new Promise<T>((resolve, reject) => {
       const waiter: Waiter = { started: Date.now(), reject };
@@ -334,14 +343,20 @@ export class QueueExecutor implements SweepExecutor {
     }
     const now = Date.now();
     this.notReadySince ??= now;
+    const advice = this.certificateError;
     for (const waiter of [...this.waiters]) {
       const waited = now - Math.max(this.notReadySince, waiter.started);
-      if (waited < this.lostAfterMs) continue;
+      if (advice === null && waited < this.lostAfterMs) continue;
       this.waiters.delete(waiter);
-      waiter.reject(this.lostError());
+      waiter.reject(advice === null ? this.lostError() : this.untrustedError(advice));
     }
     // the tasks in flight are abandoned: their ids are forgotten, and Redis (when back) drops finished ones itself
-    if (this.waiters.size === 0 && this.pending.size > 0 && now - this.notReadySince >= this.lostAfterMs) this.pending.clear();
+    const givenUp = advice !== null || now - this.notReadySince >= this.lostAfterMs;
+    if (this.waiters.size === 0 && this.pending.size > 0 && givenUp) this.pending.clear();
+  }
+
+  private untrustedError(advice: string): Error {
+    return queueUnreachableError(`the Redis queue at ${this.display} cannot be used: ${advice}; the sweep was stopped`);
   }
 
   private lostError(): Error {

@@ -1,7 +1,11 @@
 /**
  * The --queue URL: `redis://[:password@]host:port[/db]` or `rediss://…` (TLS), as Redis clients spell it. Parsed
- * into connection options; the password never appears in messages (displayQueueUrl).
+ * into connection options; the password never appears in messages (redact, `display`). For rediss:// the
+ * environment variable GRIDSHAKE_QUEUE_CA may name a PEM file of the certificate authority that signed Redis's
+ * certificate (a private one); it is trusted besides the system's authorities, and read here so that a missing or
+ * wrong file is refused before anything connects.
  */
+import { readFileSync } from 'node:fs';
 import { parameterError } from '../errors.js';
 
 export interface QueueConnection {
@@ -11,6 +15,8 @@ export interface QueueConnection {
   password?: string;
   db: number;
   tls: boolean;
+  /** for rediss://: the PEM text of GRIDSHAKE_QUEUE_CA, trusted besides the system's authorities */
+  ca?: string;
   /** the URL without its password, for messages and logs */
   display: string;
 }
@@ -18,13 +24,16 @@ export interface QueueConnection {
 /** Environment variable that sends sweeps to the queue when --queue is not given. */
 export const QUEUE_ENV = 'GRIDSHAKE_QUEUE';
 
+/** Environment variable naming a PEM file of the certificate authority to trust for rediss:// URLs. */
+export const QUEUE_CA_ENV = 'GRIDSHAKE_QUEUE_CA';
+
 const FORM = 'redis://[:password@]host:port[/db] or rediss://… for TLS';
 
 /**
- * Parses a queue URL.
- * @throws GridshakeError GS_ERR_PARAMETER naming the expected form
+ * Parses a queue URL (with GRIDSHAKE_QUEUE_CA from `env` for rediss://).
+ * @throws GridshakeError GS_ERR_PARAMETER naming the expected form, or the CA file that cannot serve
  */
-export function parseQueueUrl(text: string): QueueConnection {
+export function parseQueueUrl(text: string, env: Record<string, string | undefined> = process.env): QueueConnection {
   let url: URL;
   try {
     url = new URL(text);
@@ -41,7 +50,9 @@ export function parseQueueUrl(text: string): QueueConnection {
   if (!Number.isInteger(db) || db < 0 || db > 15) throw parameterError(`--queue database must be a number from 0 to 15 (${FORM}), got /${dbText}`);
   const tls = url.protocol === 'rediss:';
   const host = url.hostname.replace(/^\[(.*)\]$/, '$1');
+  const caFile = env[QUEUE_CA_ENV];
   return {
+    ...(tls && caFile !== undefined && caFile !== '' ? { ca: readCertificateAuthority(caFile) } : {}),
     host,
     port,
     username: url.username === '' ? undefined : decodeURIComponent(url.username),
@@ -50,6 +61,21 @@ export function parseQueueUrl(text: string): QueueConnection {
     tls,
     display: `${url.protocol}//${url.hostname}:${port}/${db}`,
   };
+}
+
+/** The PEM text of a certificate authority file, refused with a message naming the file when it cannot serve. */
+function readCertificateAuthority(file: string): string {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    const reason = error instanceof Error && 'code' in error ? String(error.code) : 'unreadable';
+    throw parameterError(`${QUEUE_CA_ENV} names ${file}, which cannot be read (${reason}); give the PEM file of the certificate authority that signed Redis's certificate`);
+  }
+  if (!text.includes('-----BEGIN CERTIFICATE-----')) {
+    throw parameterError(`${QUEUE_CA_ENV} names ${file}, which holds no PEM certificate (-----BEGIN CERTIFICATE-----); give the certificate authority's certificate, not its key`);
+  }
+  return text;
 }
 
 /** The URL with any password replaced by ***. */

@@ -19,7 +19,7 @@ import { unpackDataset } from './queue-dataset.js';
 import { unpackBaseline } from '../../workers/baseline/baseline-buffer.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
 import { RESULT_TTL_SECONDS } from './queue-executor.js';
-import { redisOptions } from './redis-options.js';
+import { certificateAdvice, redisOptions } from './redis-options.js';
 import { decodeTask, encodeResult } from './task-codec.js';
 import type { QueueConnection } from './queue-url.js';
 
@@ -64,7 +64,7 @@ export class QueueWorker {
       }),
     );
     this.redis.on('error', (error: Error) => {
-      this.lastError = error.message;
+      this.lastError = certificateAdvice(error) ?? error.message;
     });
     this.redis.on('ready', () => {
       log(`connected to ${connection.display}; taking sweep tasks on ${this.executor.threads} threads`);

@@ -6,6 +6,7 @@
 import type { FastifyInstance } from 'fastify';
 import type { SweepService } from '../services/sweep-service.js';
 import { SWEEP_PAGE_DEFAULT, SWEEP_PAGE_MAX } from '../limits.js';
+import { EXECUTOR_CHOICES, type ExecutorChoice } from '../services/sweep-runner.js';
 import { errorResponses } from './error-handler.js';
 import { ID_PARAMS, PLAN_SCHEMA, SWEEP_ESTIMATE_SCHEMA } from './schemas/common-schemas.js';
 
@@ -13,7 +14,7 @@ const START_BODY = {
   type: 'object',
   required: ['datasetId', 'plan'],
   additionalProperties: false,
-  properties: { datasetId: ID_PARAMS.properties.id, plan: PLAN_SCHEMA },
+  properties: { datasetId: ID_PARAMS.properties.id, plan: PLAN_SCHEMA, executor: { type: 'string', enum: EXECUTOR_CHOICES } },
 } as const;
 
 const STARTED_RESPONSE = {
@@ -29,10 +30,10 @@ const STARTED_RESPONSE = {
 } as const;
 
 export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService): void {
-  app.post<{ Body: { datasetId: string; plan: unknown } }>(
+  app.post<{ Body: { datasetId: string; plan: unknown; executor?: ExecutorChoice } }>(
     '/api/sweeps',
     { schema: { body: START_BODY, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 429) } } },
-    async (request, reply) => reply.code(202).send(sweeps.start(request.body.datasetId, request.body.plan)),
+    async (request, reply) => reply.code(202).send(sweeps.start(request.body.datasetId, request.body.plan, null, request.body.executor)),
   );
 
   app.get<{ Querystring: { datasetId?: string; limit: number; offset: number } }>(

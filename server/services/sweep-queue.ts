@@ -11,7 +11,7 @@ import type { GridshakeStore } from '../store/store.js';
 import { writeRowsInChunks } from '../store/placement-store.js';
 import { trustStoredPlan } from '../sweeps/plan.js';
 import { ProgressClock } from './progress-clock.js';
-import type { SweepRunner } from './sweep-runner.js';
+import type { ExecutorChoice, SweepRunner } from './sweep-runner.js';
 import { storeStabilityFiles } from '../stability/stored-stability.js';
 
 /** How often the progress of a running sweep is written to the store (ms). */
@@ -30,6 +30,8 @@ export interface QueueLogger {
 
 export class SweepQueue extends EventEmitter {
   private readonly pending: string[] = [];
+  /** the executor each waiting or running sweep asked for (absent: the runner's default) */
+  private readonly executors = new Map<string, ExecutorChoice>();
   private active: ActiveSweep | null = null;
   private running: Promise<void> | null = null;
   private closed = false;
@@ -43,8 +45,9 @@ export class SweepQueue extends EventEmitter {
     this.setMaxListeners(0);
   }
 
-  enqueue(id: string): void {
+  enqueue(id: string, executor?: ExecutorChoice): void {
     if (this.closed) return;
+    if (executor !== undefined) this.executors.set(id, executor);
     this.pending.push(id);
     this.pump();
   }
@@ -68,6 +71,7 @@ export class SweepQueue extends EventEmitter {
     const waiting = this.pending.indexOf(id);
     if (waiting >= 0) {
       this.pending.splice(waiting, 1);
+      this.executors.delete(id);
       this.store.sweeps.finish(id, 'cancelled', {});
       this.emit('finished', id, 'cancelled');
       return true;
@@ -101,6 +105,7 @@ export class SweepQueue extends EventEmitter {
     this.running = this.runOne(id)
       .catch((error: unknown) => this.log.error({ err: error, sweepId: id }, 'sweep queue failure'))
       .finally(() => {
+        this.executors.delete(id);
         this.active = null;
         this.running = null;
         this.pump();
@@ -131,6 +136,7 @@ export class SweepQueue extends EventEmitter {
         signal: active.controller.signal,
         datasetId: record.datasetId,
         stability: true,
+        executor: this.executors.get(id),
         onProgress: (reported) => {
           const progress = active.clock.update(reported);
           if (Date.now() - lastSaved >= SAVE_PROGRESS_EVERY_MS) {

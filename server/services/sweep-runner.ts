@@ -3,8 +3,13 @@
  * on an executor: the local pool or the Redis queue):
  * run one sweep with cancellation and progress, and shut down.
  */
-import type { Dataset, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
+import type { Dataset, ExecutorChoice, PlacementRow, Plan, SweepSummary } from '../../shared/contracts.js';
 import type { StabilitySurface } from '../stability/stability-accumulator.js';
+
+export type { ExecutorChoice };
+
+/** Every ExecutorChoice, for the request schema (the type in shared/contracts.ts says what each means). */
+export const EXECUTOR_CHOICES = ['local', 'queue'] as const satisfies readonly ExecutorChoice[];
 
 /** Progress as the pool reports it: at least placements done and total. */
 export interface RunnerProgress {
@@ -21,6 +26,8 @@ export interface SweepRunOptions {
   datasetId?: string;
   /** also compute the stability surfaces (server/stability) */
   stability?: boolean;
+  /** where the tasks run, for a runner with a choice (routed-runner.ts); others ignore it */
+  executor?: ExecutorChoice;
 }
 
 export interface SweepRunner {
@@ -28,4 +35,6 @@ export interface SweepRunner {
   destroy(): Promise<void>;
   /** worker threads, for /api/health */
   readonly threads?: number;
+  /** the executors a sweep may choose, the default first; absent: the local pool only */
+  readonly executors?: readonly ExecutorChoice[];
 }

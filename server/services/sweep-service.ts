@@ -4,7 +4,7 @@
  * anything is stored or queued; at most MAX_QUEUED_SWEEPS may wait (429 GS_ERR_QUEUE_FULL).
  */
 import type { Plan, SweepProgress, SweepStatus } from '../../shared/contracts.js';
-import { conflictError, notFoundError, queueFullError } from '../errors.js';
+import { conflictError, notFoundError, parameterError, queueFullError } from '../errors.js';
 import { MAX_QUEUED_SWEEPS } from '../limits.js';
 import type { GridshakeStore } from '../store/store.js';
 import type { SweepRecord } from '../store/sweep-store.js';
@@ -12,6 +12,7 @@ import { FINISHED_STATUSES } from '../store/sweep-store.js';
 import { normalizePlan, resolveCellSizes } from '../sweeps/plan.js';
 import { assertWithinBudget, estimateSweep } from '../sweeps/sweep-budget.js';
 import type { SweepQueue } from './sweep-queue.js';
+import type { ExecutorChoice } from './sweep-runner.js';
 
 /** A sweep as the API shows it. */
 export interface SweepView extends Omit<SweepRecord, 'summary'> {
@@ -27,10 +28,21 @@ export class SweepService {
     private readonly store: GridshakeStore,
     private readonly queue: SweepQueue,
     private readonly workBudget: number,
+    /** the executors a sweep may ask for (the runner's), the default first */
+    private readonly executors: readonly ExecutorChoice[] = ['local'],
   ) {}
 
-  /** Validate and queue a sweep of a dataset; GS_ERR_PARAMETER / GS_ERR_BUDGET (400) or 404 before queuing. */
-  start(datasetId: string, planInput: unknown, rerunOf: string | null = null): SweepView {
+  /**
+   * Validate and queue a sweep of a dataset; GS_ERR_PARAMETER / GS_ERR_BUDGET (400) or 404 before queuing.
+   * `executor`: where its tasks run (the default when absent); one this server does not have is GS_ERR_PARAMETER.
+   */
+  start(datasetId: string, planInput: unknown, rerunOf: string | null = null, executor?: ExecutorChoice): SweepView {
+    if (executor !== undefined && !this.executors.includes(executor)) {
+      throw parameterError(
+        `executor "${executor}" is not available: this server sends no sweeps to a Redis queue (start it with --queue URL ` +
+          'or GRIDSHAKE_QUEUE); leave executor out to run on its own worker pool',
+      );
+    }
     const dataset = this.store.datasets.summary(datasetId);
     if (dataset === undefined) throw notFoundError(`no dataset with id ${datasetId}`);
     const plan: Plan = normalizePlan(planInput);
@@ -45,7 +57,7 @@ export class SweepService {
       );
     }
     const record = this.store.sweeps.create({ datasetId, plan, estimate, rerunOf });
-    this.queue.enqueue(record.id);
+    this.queue.enqueue(record.id, executor ?? this.executors[0]);
     return this.view(record, false);
   }
 

@@ -4,8 +4,11 @@
  *  - throughput of one sweep with 1, 2 and 3 worker processes, against the local pool with 1 and 2 threads;
  *  - overhead per task: many tiny tasks (60 points) through one worker vs the local pool with one thread;
  *  - bytes per task and per result, and Redis commands per task (INFO stats: total_commands_processed).
+ * Every row carries the 1-minute load average at its end: figures taken on a busy machine say so beside them.
+ * On a 2-core machine at most two processes compute at once, so 3 worker processes cannot beat 2 there.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
+import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { parseQueueUrl } from '../../server/queue/queue-url.js';
 import { QueueExecutor } from '../../server/queue/queue-executor.js';
@@ -42,6 +45,11 @@ async function commandsProcessed(port: number): Promise<number> {
   return Number(/total_commands_processed:(\d+)/.exec(info)?.[1] ?? Number.NaN);
 }
 
+/** The 1-minute load average, to print beside a figure. */
+function load(): string {
+  return loadavg()[0].toFixed(2);
+}
+
 async function seconds(fn: () => Promise<unknown>): Promise<number> {
   const start = process.hrtime.bigint();
   await fn();
@@ -61,7 +69,7 @@ export async function runQueueBench(): Promise<void> {
       const pool = new SweepPool({ threads });
       await pool.runSweep(dataset, { ...plan, placements: 8 });
       const wall = await seconds(() => pool.runSweep(dataset, plan));
-      rows.push([`local pool, ${threads} thread(s)`, wall, tasks / wall, (wall * 1e9) / work]);
+      rows.push([`local pool, ${threads} thread(s)`, wall, tasks / wall, (wall * 1e9) / work, load()]);
       await pool.destroy();
     }
     let perTaskCommands = Number.NaN;
@@ -74,15 +82,16 @@ export async function runQueueBench(): Promise<void> {
         const wall = await seconds(() => runner.runSweep(dataset, plan));
         const commands = (await commandsProcessed(redis.port)) - before;
         if (count === 1) perTaskCommands = commands / tasks;
-        rows.push([`queue, ${count} worker process(es) x 1 thread`, wall, tasks / wall, (wall * 1e9) / work]);
+        rows.push([`queue, ${count} worker process(es) x 1 thread`, wall, tasks / wall, (wall * 1e9) / work, load()]);
       } finally {
         await runner.destroy();
         await Promise.all(workers.map((child) => stopProcess(child)));
       }
     }
     printTable(
-      `Q1. Redis queue vs local pool: ${n} points x ${plan.placements} placements x 1 size x (1 + ${plan.sims} sims), ${tasks} tasks`,
-      ['executor', 'seconds', 'tasks/s', 'ns/point-placement'],
+      `Q1. Redis queue vs local pool: ${n} points x ${plan.placements} placements x 1 size x (1 + ${plan.sims} sims), ${tasks} tasks; ` +
+        `${availableParallelism()} cores (more busy processes than cores only share them)`,
+      ['executor', 'seconds', 'tasks/s', 'ns/point-placement', 'load avg 1 min'],
       rows,
     );
 
@@ -93,14 +102,17 @@ export async function runQueueBench(): Promise<void> {
     const pool = new SweepPool({ threads: 1 });
     await pool.runSweep(tiny, { ...tinyPlan, placements: 64 });
     const localWall = await seconds(() => pool.runSweep(tiny, tinyPlan));
+    const localLoad = load();
     await pool.destroy();
     const [worker] = await startWorkers(redis.url, 1);
     const runner = new ExecutorSweepRunner(new QueueExecutor({ connection: parseQueueUrl(redis.url), prefix: 'bench-tiny' }));
     let queueWall = Number.NaN;
+    let queueLoad = '';
     try {
       await runner.runSweep(tiny, { ...tinyPlan, placements: 64 });
       queueWall = await seconds(() => runner.runSweep(tiny, tinyPlan));
     } finally {
+      queueLoad = load();
       await runner.destroy();
       await stopProcess(worker);
     }
@@ -110,8 +122,8 @@ export async function runQueueBench(): Promise<void> {
       `Q2. Per task: ${tinyTasks} tiny tasks (60 points, 64 placements each), one worker process vs the local pool with one thread`,
       ['measure', 'value'],
       [
-        ['local pool, ms per task', (localWall * 1000) / tinyTasks],
-        ['queue, ms per task', (queueWall * 1000) / tinyTasks],
+        [`local pool, ms per task (load avg ${localLoad})`, (localWall * 1000) / tinyTasks],
+        [`queue, ms per task (load avg ${queueLoad})`, (queueWall * 1000) / tinyTasks],
         ['queue overhead, ms per task', ((queueWall - localWall) * 1000) / tinyTasks],
         [`task data, bytes (${perChunk} placements)`, taskBytes],
         [`result, bytes (${perChunk} placements, ${plan.sims} sims)`, chunkResultLength(perChunk, plan.sims) * 8],

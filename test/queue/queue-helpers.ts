@@ -48,9 +48,10 @@ export async function startWorker(url: string, threads = 1, env: Record<string, 
   return { child, output: () => text, stop: (signal = 'SIGTERM') => stopProcess(child, signal) };
 }
 
-export function queueRunner(url: string, prefix: string, options: { lostAfterMs?: number; notices?: string[] } = {}): ExecutorSweepRunner {
+/** A queue runner on `url`; `env` stands in for the environment (e.g. GRIDSHAKE_QUEUE_CA). */
+export function queueRunner(url: string, prefix: string, options: { lostAfterMs?: number; notices?: string[]; env?: Record<string, string> } = {}): ExecutorSweepRunner {
   const executor = new QueueExecutor({
-    connection: parseQueueUrl(url),
+    connection: parseQueueUrl(url, options.env ?? {}),
     prefix,
     lostAfterMs: options.lostAfterMs,
     onNotice: (message) => options.notices?.push(message),
