@@ -16,6 +16,8 @@ import { GridshakeMap } from '../map/gridshake-map.js';
 import { layerList } from '../map/layer-list.js';
 import { legendElement } from '../map/map-legend.js';
 import { clear, el, message } from '../ui/dom.js';
+import { stabilityLines } from '../map/stability-readout.js';
+import { stabilityLayers } from './stability-layers.js';
 
 /** The privacy caution, shown again beside the map (fine maps and surfaces can single out households). */
 const PRIVACY = CAUTIONS.find((caution) => caution.startsWith('Protect the privacy')) ?? CAUTIONS[CAUTIONS.length - 1];
@@ -35,6 +37,9 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     pointer,
     el('p', { class: 'map-privacy', id: 'map-privacy' }, el('strong', {}, 'Privacy: '), PRIVACY, ' This holds for this map, its PNG and any surface drawn on it.'),
   );
+  const stability = stabilityLayers(map, store, (text) => {
+    caption.textContent = text;
+  });
   const refreshLayers = layerList(map, layersBox);
   const refreshLegend = () => clear(legend, ...map.legend().map(legendElement));
   map.onLayersChange(() => {
@@ -50,13 +55,15 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     if (!placement) return null;
     return store.state.rows.find((row) => row.sizeIndex === placement.sizeIndex && row.placementIndex === placement.placementIndex)?.verdict ?? null;
   };
-  const showCell = (cell: GridFeature | null) => {
-    if (!cell) {
-      cellInfo.removeAttribute('data-cell');
-      return;
-    }
-    cellInfo.dataset.cell = `${cell.properties.i},${cell.properties.j}`;
-    clear(cellInfo, el('dl', { class: 'cell-lines' }, ...cellLines(cell, placementVerdict()).flatMap((line) => [el('dt', {}, line.name), el('dd', { 'data-field': line.name }, line.value)])));
+  const showCell = (cell: GridFeature | null, at: number[] | null = null) => {
+    const lines = [
+      ...(cell ? cellLines(cell, placementVerdict()) : []),
+      ...(at ? stabilityLines(null, stability.surface(), stability.areaAt(at[0], at[1]), at[0], at[1]) : []),
+    ];
+    if (cell) cellInfo.dataset.cell = `${cell.properties.i},${cell.properties.j}`;
+    else cellInfo.removeAttribute('data-cell');
+    if (lines.length === 0) return;
+    clear(cellInfo, el('dl', { class: 'cell-lines' }, ...lines.flatMap((line) => [el('dt', {}, line.name), el('dd', { 'data-field': line.name }, line.value)])));
   };
   const showPointer = (coordinate: number[]) => {
     const toLonLat = map.projection()?.toLonLat;
@@ -69,14 +76,14 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
   map.map.on('pointermove', (event) => {
     if (event.dragging) return;
     showPointer(event.coordinate);
-    showCell(map.cellAt(event.coordinate));
+    showCell(map.cellAt(event.coordinate), event.coordinate);
   });
-  map.map.on('singleclick', (event) => showCell(map.cellAt(event.coordinate)));
+  map.map.on('singleclick', (event) => showCell(map.cellAt(event.coordinate), event.coordinate));
   target.addEventListener('keydown', (event) => {
     if (event.key !== 'Enter') return;
     const centre = map.map.getView().getCenter() ?? null;
     if (centre) showPointer(centre);
-    showCell(map.cellAt(centre));
+    showCell(map.cellAt(centre), centre);
   });
 
   exportButton.addEventListener('click', async () => {
