@@ -6,7 +6,9 @@ import { fromArrayBuffer } from 'geotiff';
 import type { Browser, Page } from 'playwright-core';
 import { ARTIFACTS, launchBrowser, watchForeignRequests } from './browser.js';
 import { finishedSweep, insideRings, openSweep, settle, upload, viewMapping, type StoredDataset, type SweepRecord } from './map-helpers.js';
-import { startPageServer, type PageServer } from './page-server.js';
+import { getJson, startPageServer, type PageServer } from './page-server.js';
+
+interface GridFile { features: { properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean }; geometry: { coordinates: number[][][] } }[] }
 
 // The stability surface and the placement-stable areas on the page's map (issue 17): for data in planar metres, an
 // EPSG code and longitude/latitude, the drawn excess share agrees pixel by pixel with stability-<side>m.tif read by
@@ -180,6 +182,27 @@ describe('the stability surface and areas on the map', () => {
     expect((await viewMapping(page)).resolution / dragged.resolution).toBeCloseTo(0.5, 2);
     await page.click('#map .ol-zoom-extent button');
     await settle(page);
+
+    // the grid of the reference placement: the cell with the most points (the planted cluster) is an excess cell by
+    // the engine's per-cell test, a cell whose count is near its expected count is neither
+    const size = sweep.summary!.sizes[0];
+    await page.click('#pick-reference');
+    await page.waitForFunction(() => Number(document.getElementById('map')!.dataset.gridCells) > 0);
+    await settle(page);
+    const grid = await getJson<GridFile>(server, `/api/sweeps/${sweep.id}/grid.geojson?size=${size.sizeIndex}&placement=${size.reference.placementIndex}&coordinates=planar`);
+    const kept = grid.features.filter((feature) => feature.properties.kept && feature.properties.coverage === 1);
+    const busiest = kept.reduce((best, feature) => (feature.properties.count > best.properties.count ? feature : best));
+    const ordinary = kept.reduce((best, feature) => (Math.abs(feature.properties.count - feature.properties.expected) < Math.abs(best.properties.count - best.properties.expected) ? feature : best));
+    const mapping = await viewMapping(page);
+    for (const [feature, verdict] of [[busiest, /^excess cell \(one-sided Poisson test, Benjamini-Hochberg at alpha 0.05/], [ordinary, /^neither/]] as const) {
+      const ring = feature.geometry.coordinates[0].slice(0, -1);
+      const cx = ring.reduce((sum, [x]) => sum + x, 0) / ring.length;
+      const cy = ring.reduce((sum, [, y]) => sum + y, 0) / ring.length;
+      await page.mouse.move(box.x + (cx - mapping.x0) / mapping.resolution, box.y + (mapping.y0 - cy) / mapping.resolution);
+      await expect.poll(() => page.getAttribute('#map-cell-info', 'data-cell')).toBe(`${feature.properties.i},${feature.properties.j}`);
+      expect(await page.innerText('#map-cell-info dd[data-field="stability verdict of the cell"]')).toMatch(verdict);
+      expect(await page.innerText('#map-cell-info dd[data-field="count"]')).toBe(String(feature.properties.count));
+    }
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('#map-export')]);
     const bytes = readFileSync((await download.path())!);

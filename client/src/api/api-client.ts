@@ -42,14 +42,15 @@ export interface SweepRecord {
 
 export interface GridFeature {
   type: 'Feature';
-  properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean };
+  /** expected: NaN (the page's frame) or null (GeoJSON) for a left-out cell; stability: the kept cell's flag in this placement */
+  properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean; stability?: 'excess' | 'deficit' | 'neither' };
   geometry: { type: 'Polygon'; coordinates: number[][][] };
 }
 
 export interface GridCollection {
   type: 'FeatureCollection';
   features: GridFeature[];
-  gridshake?: { cellSize: number; u: number; v: number; angle: number; sizeIndex: number; placementIndex: number };
+  gridshake?: { cellSize: number; u: number; v: number; angle: number; sizeIndex: number; placementIndex: number; alpha?: number };
 }
 
 async function failure(response: Response, path: string): Promise<ApiError> {
@@ -95,8 +96,6 @@ export const api = {
   deleteSweep: (id: string) => request<void>(`/api/sweeps/${id}`, { method: 'DELETE' }),
   cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
-  grid: (id: string, size: number, placement: number) =>
-    request<GridCollection>(`/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}&coordinates=planar`),
   /** the placement's grid as typed arrays and lattice parameters (the page builds the polygons) */
   gridFrame: (id: string, size: number, placement: number) => frame<GridFrameMeta>(`/api/sweeps/${id}/grid-frame?size=${size}&placement=${placement}`),
   /** the stability surface of one cell size: the bands of stability-<side>m.tif as float32 */

@@ -1,8 +1,8 @@
 /**
  * The map aside: the dataset and the chosen placement's grid on the map (client/src/map/), its caption, legend,
  * layer switches, the cell under the pointer (or under the view's centre, by keyboard: Enter), the PNG export of the
- * view and the privacy caution. Also the `pick` action the charts call: fetch
- * GET /api/sweeps/:id/grid.geojson?size=K&placement=J and show it.
+ * view and the privacy caution. Also the `pick` action the charts call: fetch the placement's compact grid
+ * (GET /api/sweeps/:id/grid-frame?size=K&placement=J, client/src/map/grid-from-frame.ts) and show it.
  */
 import { verdictWords } from '../../../shared/verdict-words.js';
 import { api, type GridFeature } from '../api/api-client.js';
@@ -17,6 +17,7 @@ import { layerList } from '../map/layer-list.js';
 import { legendElement } from '../map/map-legend.js';
 import { clear, el, message } from '../ui/dom.js';
 import { stabilityLines } from '../map/stability-readout.js';
+import { gridFromFrame } from '../map/grid-from-frame.js';
 import { stabilityLayers } from './stability-layers.js';
 
 /** The privacy caution, shown again beside the map (fine maps and surfaces can single out households). */
@@ -55,10 +56,14 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     if (!placement) return null;
     return store.state.rows.find((row) => row.sizeIndex === placement.sizeIndex && row.placementIndex === placement.placementIndex)?.verdict ?? null;
   };
+  const cellFlag = (cell: GridFeature | null) => {
+    const alpha = store.state.placement?.grid.gridshake?.alpha;
+    return cell?.properties.stability !== undefined && alpha !== undefined ? { flag: cell.properties.stability, alpha } : null;
+  };
   const showCell = (cell: GridFeature | null, at: number[] | null = null) => {
     const lines = [
       ...(cell ? cellLines(cell, placementVerdict()) : []),
-      ...(at ? stabilityLines(null, stability.surface(), stability.areaAt(at[0], at[1]), at[0], at[1]) : []),
+      ...(at ? stabilityLines(cellFlag(cell), stability.surface(), stability.areaAt(at[0], at[1]), at[0], at[1]) : []),
     ];
     if (cell) cellInfo.dataset.cell = `${cell.properties.i},${cell.properties.j}`;
     else cellInfo.removeAttribute('data-cell');
@@ -155,7 +160,7 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     if (!sweepId) return;
     caption.textContent = `Loading the grid of placement ${placementIndex}...`;
     try {
-      const grid = await api.grid(sweepId, sizeIndex, placementIndex);
+      const grid = gridFromFrame(await api.gridFrame(sweepId, sizeIndex, placementIndex));
       store.update({ placement: { sizeIndex, placementIndex, grid } });
     } catch (error) {
       caption.textContent = `Could not load the grid: ${error instanceof Error ? error.message : String(error)}`;
