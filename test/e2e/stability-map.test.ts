@@ -95,6 +95,9 @@ describe('the stability surface and areas on the map', () => {
       expect(await page.isChecked('#layer-toggle-surface-excess')).toBe(false);
       expect(await page.isChecked('#layer-toggle-stable-areas')).toBe(true);
       expect(await page.innerText('.map-layer-group legend')).toContain('200 m');
+      // the privacy caution covers the surface, beside the map and in the page's cautions
+      expect(await page.innerText('#map-privacy')).toContain('A fine stability surface can single out households');
+      expect(await page.innerText('#cautions-list')).toContain('A fine stability surface can single out households');
       await page.check('#layer-toggle-surface-excess');
       await settle(page);
       const legend = await page.innerText('#map-legend');

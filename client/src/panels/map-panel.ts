@@ -7,7 +7,7 @@
 import { verdictWords } from '../../../shared/verdict-words.js';
 import { api, type GridFeature } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { CAUTIONS } from '../../../shared/charts/cautions.js';
+import { CAUTIONS, SURFACE_PRIVACY } from '../../../shared/charts/cautions.js';
 import { formatMetres, formatNumber } from '../../../shared/format.js';
 import { downloadName, fileSlug } from '../../../shared/messages/download-names.js';
 import { cellLines } from '../map/cell-readout.js';
@@ -36,7 +36,7 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     el('div', { class: 'map-actions' }, exportButton, exportStatus),
     cellInfo,
     pointer,
-    el('p', { class: 'map-privacy', id: 'map-privacy' }, el('strong', {}, 'Privacy: '), PRIVACY, ' This holds for this map, its PNG and any surface drawn on it.'),
+    el('p', { class: 'map-privacy', id: 'map-privacy' }, el('strong', {}, 'Privacy: '), PRIVACY, ' This holds for this map, its PNG and any surface drawn on it. ', SURFACE_PRIVACY),
   );
   const stability = stabilityLayers(map, store, (text) => {
     caption.textContent = text;
@@ -104,7 +104,7 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     exportButton.disabled = true;
     exportStatus.textContent = 'Drawing the view...';
     try {
-      const blob = await map.exportPng({ title: caption.textContent ?? dataset.name, note: `Privacy: ${PRIVACY}` });
+      const blob = await map.exportPng({ title: caption.textContent ?? dataset.name, note: `Privacy: ${PRIVACY} ${SURFACE_PRIVACY}` });
       const url = URL.createObjectURL(blob);
       const link = el('a', { href: url, download: name });
       document.body.append(link);
