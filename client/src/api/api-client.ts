@@ -18,6 +18,8 @@ export interface HealthInfo {
   version: string;
   poolSize: number;
   workBudget?: number;
+  /** the analyst's own XYZ tile server (serve --basemap), when configured */
+  basemap?: string;
 }
 
 export interface StoredDataset extends DatasetSummary {

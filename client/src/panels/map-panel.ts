@@ -12,6 +12,7 @@ import { formatMetres, formatNumber } from '../../../shared/format.js';
 import { downloadName, fileSlug } from '../../../shared/messages/download-names.js';
 import { cellLines } from '../map/cell-readout.js';
 import { BASELINE_LAYER_ID, baselineLayerEntry } from '../map/baseline-layer.js';
+import { BASEMAP_LAYER_ID, basemapLayerEntry } from '../map/basemap-layer.js';
 import { GridshakeMap } from '../map/gridshake-map.js';
 import { layerList } from '../map/layer-list.js';
 import { legendElement } from '../map/map-legend.js';
@@ -153,6 +154,16 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
       }
       refreshLegend();
     }
+  });
+
+  // the user's own tile server, when the server was started with --basemap and the coordinate system is known
+  // (after the dataset is on the map: its projection decides)
+  store.subscribe((state, changed) => {
+    if (!changed.has('geometry') && !changed.has('health')) return;
+    const template = state.health?.basemap;
+    if (template && state.geometry && map.projection()?.toLonLat) {
+      if (!map.layers().some((entry) => entry.id === BASEMAP_LAYER_ID)) map.setOptionalLayer(basemapLayerEntry(template));
+    } else map.removeOptionalLayer(BASEMAP_LAYER_ID);
   });
 
   return async (sizeIndex, placementIndex) => {
