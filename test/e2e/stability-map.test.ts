@@ -207,29 +207,42 @@ describe('the stability surface and areas on the map', () => {
       expect(await page.innerText('#map-cell-info dd[data-field="count"]')).toBe(String(feature.properties.count));
     }
 
-    const [download] = await Promise.all([page.waitForEvent('download'), page.click('#map-export')]);
-    const bytes = readFileSync((await download.path())!);
-    expect([...bytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
     const mapHeight = await page.$eval('#map', (element) => element.clientHeight);
-    // the band below the map: the surface's ramp (white to vermillion, #D55E00) is drawn in it (its legend)
-    const band = await page.evaluate(async ({ base64, mapHeight: height }) => {
-      const element = new Image();
-      element.src = `data:image/png;base64,${base64}`;
-      await element.decode();
-      const canvas = document.createElement('canvas');
-      canvas.width = element.width;
-      canvas.height = element.height;
-      const context = canvas.getContext('2d')!;
-      context.drawImage(element, 0, 0);
-      const ratio = window.devicePixelRatio || 1;
-      const top = Math.round(height * ratio);
-      const { data } = context.getImageData(0, top, canvas.width, canvas.height - top);
-      // the ramp's middle, halfway from white to #D55E00: about (234, 175, 128); nothing else in the band has it
-      let middle = 0;
-      for (let offset = 0; offset < data.length; offset += 4) if (Math.abs(data[offset] - 234) <= 8 && Math.abs(data[offset + 1] - 175) <= 10 && Math.abs(data[offset + 2] - 128) <= 12) middle += 1;
-      return { middle };
-    }, { base64: bytes.toString('base64'), mapHeight });
-    expect(band.middle).toBeGreaterThan(4);
+    /** Exports the view; returns the PNG and the number of pixels in its band below the map on the white-to-vermillion ramp. */
+    const exportView = async () => {
+      const [download] = await Promise.all([page.waitForEvent('download'), page.click('#map-export')]);
+      const bytes = readFileSync((await download.path())!);
+      expect([...bytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
+      const rampPixels = await page.evaluate(async ({ base64, height }) => {
+        const element = new Image();
+        element.src = `data:image/png;base64,${base64}`;
+        await element.decode();
+        const canvas = document.createElement('canvas');
+        canvas.width = element.width;
+        canvas.height = element.height;
+        const context = canvas.getContext('2d')!;
+        context.drawImage(element, 0, 0);
+        const top = Math.round(height * (window.devicePixelRatio || 1));
+        const { data } = context.getImageData(0, top, canvas.width, canvas.height - top);
+        // white + t (#D55E00 - white), t in [0.2, 0.8], every channel within 4
+        let count = 0;
+        for (let offset = 0; offset < data.length; offset += 4) {
+          const t = (255 - data[offset + 1]) / (255 - 94);
+          if (t < 0.2 || t > 0.8) continue;
+          if (Math.abs(data[offset] - (255 - t * 42)) <= 4 && Math.abs(data[offset + 2] - (255 - t * 255)) <= 4) count += 1;
+        }
+        return count;
+      }, { base64: bytes.toString('base64'), height: mapHeight });
+      return { download, rampPixels };
+    };
+    // the band below the map carries the surface's ramp (white to vermillion, #D55E00) while the surface is on
+    const withSurface = await exportView();
+    await page.uncheck('#layer-toggle-surface-excess');
+    const without = await exportView();
+    await page.check('#layer-toggle-surface-excess');
+    console.log(`ramp pixels in the PNG band: ${withSurface.rampPixels} with the surface on, ${without.rampPixels} off`);
+    expect(withSurface.rampPixels - without.rampPixels).toBeGreaterThan(150);
+    const download = withSurface.download;
     await download.saveAs(join(ARTIFACTS, 'map-export-surface.png'));
   });
 
