@@ -63,10 +63,10 @@ function paint(surface: StabilitySurfaceData, kind: SurfaceKind): HTMLCanvasElem
 class SurfaceLayer {
   readonly layer: Layer;
   private readonly canvas = document.createElement('canvas');
-  private readonly image: HTMLCanvasElement;
+  /** painted at the first frame drawn (a layer never switched on costs nothing) */
+  private image: HTMLCanvasElement | null = null;
 
-  constructor(private readonly surface: StabilitySurfaceData, kind: SurfaceKind) {
-    this.image = paint(surface, kind);
+  constructor(private readonly surface: StabilitySurfaceData, private readonly kind: SurfaceKind) {
     this.layer = new Layer({ render: (frameState) => this.render(frameState), zIndex: SURFACE_Z_INDEX });
     this.layer.set('title', SURFACE_LAYER_IDS[kind]);
     this.canvas.dataset.layer = SURFACE_LAYER_IDS[kind];
@@ -80,6 +80,7 @@ class SurfaceLayer {
     // raster pixel (col, row) -> map (x0 + col side, y0 - row side) -> device pixels
     context.setTransform(a * side, b * side, -c * side, -d * side, a * x0 + c * y0 + e, b * x0 + d * y0 + f);
     context.imageSmoothingEnabled = false;
+    this.image ??= paint(this.surface, this.kind);
     context.drawImage(this.image, 0, 0);
     context.setTransform(1, 0, 0, 1, 0, 0);
     return this.canvas;
