@@ -11,6 +11,8 @@ import fastifyMultipart from '@fastify/multipart';
 import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import type { AddressInfo } from 'node:net';
 import { registerClientStatic } from './routes/client-static.js';
+import type { Basemap } from './security/basemap-url.js';
+import { pagePolicy } from './security/content-security-policy.js';
 import { registerDatasetRoutes, MAX_NO_DATA_FILES, uploadFileHandler } from './routes/dataset-routes.js';
 import { ERROR_SCHEMA, installErrorHandling } from './routes/error-handler.js';
 import { registerHealthRoutes } from './routes/health-routes.js';
@@ -61,6 +63,8 @@ export interface AppOptions {
   queue?: QueueConnection | null;
   /** a sweep runner to use instead of a new SweepPool (it is destroyed with the app) */
   runner?: SweepRunner;
+  /** the analyst's own XYZ tile server for the page's optional basemap (serve --basemap); absent: none, nothing fetched */
+  basemap?: Basemap;
   logger?: FastifyServerOptions['logger'];
 }
 
@@ -145,12 +149,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     poolSize: runner.threads ?? 1,
     datasets: store.datasets.count(),
     workBudget,
+    ...(options.basemap === undefined ? {} : { basemap: options.basemap.template }),
   }));
   registerDatasetRoutes(app, datasets, bodyLimit, uploads);
   registerSweepRoutes(app, sweeps);
   registerSweepEventsRoute(app, sweeps, queue);
   registerSweepExportRoutes(app, new SweepExports(store, datasets, sweeps));
-  await registerClientStatic(app, options.clientDir ?? DEFAULT_CLIENT_DIR);
+  await registerClientStatic(app, options.clientDir ?? DEFAULT_CLIENT_DIR, pagePolicy(options.basemap?.origin));
 
   // before the server stops accepting: stop the queue, so that open event streams get their `end` event
   app.addHook('preClose', async () => {

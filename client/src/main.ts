@@ -2,7 +2,7 @@
 import 'ol/ol.css';
 import { api } from './api/api-client.js';
 import { Store } from './app-state.js';
-import { CAUTIONS } from '../../shared/charts/cautions.js';
+import { CAUTIONS, SURFACE_PRIVACY } from '../../shared/charts/cautions.js';
 import { initDataPanel } from './panels/data-panel.js';
 import { initMapPanel } from './panels/map-panel.js';
 import { initPlanPanel } from './panels/plan-panel.js';
@@ -18,7 +18,7 @@ function byId<T extends HTMLElement>(id: string): T {
 }
 
 const store = new Store();
-byId('cautions-list').replaceChildren(...CAUTIONS.map((caution) => el('li', {}, caution)));
+byId('cautions-list').replaceChildren(...CAUTIONS.map((caution) => el('li', {}, caution.startsWith('Protect the privacy') ? `${caution} ${SURFACE_PRIVACY}` : caution)));
 const pick = initMapPanel(byId('map'), byId('map-caption'), byId('map-legend'), byId('map-tools'), store);
 initDataPanel(byId('data-panel'), store);
 initPlanPanel(byId('plan-panel'), store);

@@ -1,5 +1,5 @@
 /**
- * `gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR]`: the local server with the page.
+ * `gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR] [--basemap URL]`: the local server with the page.
  * Binds to loopback unless --host says otherwise (then warns), prints the URL, loads the demo scenarios into an
  * empty store, and shuts down cleanly on SIGINT / SIGTERM (running sweeps are marked interrupted).
  */
@@ -14,6 +14,7 @@ import { checkThreadCount } from '../sweeps/thread-count.js';
 import { optionalString, parseChecked, parseWholeNumber, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
+import { parseBasemapUrl } from '../security/basemap-url.js';
 
 export const DEFAULT_PORT = 5178;
 export const DEFAULT_HOST = '127.0.0.1';
@@ -28,6 +29,7 @@ const OPTIONS: OptionSpecs = {
   'body-limit': { type: 'string', value: 'MB', description: `largest upload in MB; default ${DEFAULT_BODY_LIMIT / 1048576}` },
   'max-points': { type: 'string', value: 'N', description: `most points in one dataset; default ${DEFAULT_MAX_POINTS}` },
   threads: { type: 'string', value: 'N', description: `worker threads; default one per core, at most ${MAX_THREADS_PER_CORE} per core` },
+  basemap: { type: 'string', value: 'URL', description: 'your own XYZ tile server for an optional map background, e.g. http://127.0.0.1:8080/{z}/{x}/{y}.png; default none (the page fetches nothing outside this server)' },
   'no-demo': { type: 'boolean', description: 'do not load the demo scenarios into an empty database' },
   ...QUEUE_OPTION,
 };
@@ -73,13 +75,15 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   const threadsText = optionalString(values, 'threads');
   const threads = threadsText === undefined ? undefined : checkThreadCount(parseWholeNumber(threadsText, 'threads', 1));
   const queue = queueFromOptions(values);
+  const basemapText = optionalString(values, 'basemap');
+  const basemap = basemapText === undefined ? undefined : parseBasemapUrl(basemapText);
 
   const warning = bindWarning(host);
   if (warning !== null) io.stderr(warning);
   const unlock = lockDataFolder(dataDir);
   let app: Awaited<ReturnType<typeof buildApp>>;
   try {
-    app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, queue, logger: { level: 'error' } });
+    app = await buildApp({ dataDir, host, bodyLimit, maxPoints, threads, queue, basemap, logger: { level: 'error' } });
   } catch (error) {
     unlock();
     throw error;
@@ -114,7 +118,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
 export const serveCommand: CliCommand = {
   name: 'serve',
   summary: 'start the local server; open the address it prints in a browser',
-  usage: 'Usage: gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR] [--queue URL]',
+  usage: 'Usage: gridshake serve [--host 127.0.0.1] [--port 5178] [--data DIR] [--queue URL] [--basemap URL]',
   options: OPTIONS,
   run,
 };

@@ -32,10 +32,10 @@ export function isRealEntryUnder(realRoot: string, pathName: string): boolean {
   }
 }
 
-export async function registerClientStatic(app: FastifyInstance, clientDir: string): Promise<void> {
+export async function registerClientStatic(app: FastifyInstance, clientDir: string, pagePolicy: string = PAGE_POLICY): Promise<void> {
   if (!existsSync(join(clientDir, 'index.html'))) {
     app.get('/', async (_request, reply) =>
-      reply.type('text/html; charset=utf-8').header('content-security-policy', PAGE_POLICY).send(NOT_BUILT_PAGE),
+      reply.type('text/html; charset=utf-8').header('content-security-policy', pagePolicy).send(NOT_BUILT_PAGE),
     );
     return;
   }
@@ -50,7 +50,7 @@ export async function registerClientStatic(app: FastifyInstance, clientDir: stri
     maxAge: 0,
     allowedPath: (pathName) => isRealEntryUnder(realRoot, pathName),
     setHeaders: (reply) => {
-      reply.header('content-security-policy', PAGE_POLICY);
+      reply.header('content-security-policy', pagePolicy);
     },
   });
 }

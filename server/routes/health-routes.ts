@@ -10,6 +10,8 @@ export interface HealthInfo {
   datasets?: number;
   /** work budget of one sweep in point-placements, for the page's live cost estimate */
   workBudget?: number;
+  /** the analyst's own XYZ tile server (serve --basemap), when configured */
+  basemap?: string;
 }
 
 export function registerHealthRoutes(app: FastifyInstance, health: () => HealthInfo): void {
@@ -28,6 +30,7 @@ export function registerHealthRoutes(app: FastifyInstance, health: () => HealthI
               poolSize: { type: 'integer' },
               datasets: { type: 'integer' },
               workBudget: { type: 'number' },
+              basemap: { type: 'string' },
             },
           },
           ...errorResponses(),

@@ -1,6 +1,7 @@
 /**
  * Sweep exports: placements.csv, placements.json, grid.geojson?size=K&placement=J[&coordinates=planar],
- * grid.gpkg?size=K&placement=J, report.html (add ?download=1 for an attachment). Only done sweeps have them (409 otherwise). The report runs its inline chart script under a
+ * grid.gpkg?size=K&placement=J, grid-frame?size=K&placement=J and stability-surface?size=K (the page's typed frames),
+ * report.html (add ?download=1 for an attachment). Only done sweeps have them (409 otherwise). The report runs its inline chart script under a
  * content security policy that allows no network access at all.
  */
 import type { FastifyInstance } from 'fastify';
@@ -81,6 +82,37 @@ export function registerSweepExportRoutes(app: FastifyInstance, exportsOf: Sweep
         .type('application/geopackage+sqlite3')
         .header('content-disposition', attachment(`grid-${request.params.id.slice(0, 8)}-size${size}-placement${placement}.gpkg`))
         .send(stream);
+    },
+  );
+
+  // the page's compact grid and stability surface (typed frames, shared/binary/page-frames.ts)
+  app.get<{ Params: { id: string }; Querystring: { size: number; placement: number } }>(
+    '/api/sweeps/:id/grid-frame',
+    {
+      schema: {
+        params: ID_PARAMS,
+        querystring: { type: 'object', required: ['size', 'placement'], additionalProperties: false, properties: GRID_QUERY_PROPERTIES },
+        response: errorResponses(400, 404, 409, 422),
+      },
+    },
+    async (request, reply) => {
+      const { size, placement } = request.query;
+      return reply.type('application/octet-stream').send(Buffer.from(exportsOf.gridFrame(request.params.id, size, placement).buffer));
+    },
+  );
+
+  app.get<{ Params: { id: string }; Querystring: { size: number } }>(
+    '/api/sweeps/:id/stability-surface',
+    {
+      schema: {
+        params: ID_PARAMS,
+        querystring: { type: 'object', required: ['size'], additionalProperties: false, properties: { size: GRID_QUERY_PROPERTIES.size } },
+        response: errorResponses(400, 404, 409),
+      },
+    },
+    async (request, reply) => {
+      const frame = await exportsOf.stabilitySurface(request.params.id, request.query.size);
+      return reply.type('application/octet-stream').send(Buffer.from(frame.buffer, frame.byteOffset, frame.byteLength));
     },
   );
 

@@ -13,16 +13,24 @@ function policy(directives: string[]): string {
   return [...directives, ...SHARED_DIRECTIVES].join('; ');
 }
 
-/** The analyst's page and every static file served with it. */
-export const PAGE_POLICY = policy([
-  "default-src 'self'",
-  "script-src 'self'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self' data:",
-  "connect-src 'self'",
-  "worker-src 'self' blob:",
-]);
+/**
+ * The analyst's page and every static file served with it. With a basemap configured (serve --basemap,
+ * basemap-url.ts), images may also come from that one origin (the tiles); nothing else changes.
+ */
+export function pagePolicy(basemapOrigin?: string): string {
+  return policy([
+    "default-src 'self'",
+    "script-src 'self'",
+    "style-src 'self' 'unsafe-inline'",
+    `img-src 'self' data: blob:${basemapOrigin === undefined ? '' : ` ${basemapOrigin}`}`,
+    "font-src 'self' data:",
+    "connect-src 'self'",
+    "worker-src 'self' blob:",
+  ]);
+}
+
+/** The page's policy without a basemap (the default: nothing is loaded from another origin). */
+export const PAGE_POLICY = pagePolicy();
 
 /** The downloadable sweep report (self-contained: inline scripts and styles, nothing fetched). */
 export const REPORT_POLICY = policy([

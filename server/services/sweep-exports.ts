@@ -23,6 +23,8 @@ import { placementsToCsv } from '../sweeps/placements-csv.js';
 import { downloadName } from '../../shared/messages/download-names.js';
 import type { DatasetService } from './dataset-service.js';
 import { areasGeoJson } from '../stability/areas-geojson.js';
+import { stabilitySurfaceFrame } from '../stability/surface-frame.js';
+import { gridTypedFrame } from '../grid-export/grid-typed-frame.js';
 import type { SweepService } from './sweep-service.js';
 
 export class SweepExports {
@@ -79,6 +81,33 @@ export class SweepExports {
     }
     const dataset = this.datasets.load(record.datasetId);
     return { type: 'application/geo+json; charset=utf-8', body: `${JSON.stringify(areasGeoJson(entry, dataset.projection, dataset.name))}\n` };
+  }
+
+  /**
+   * The stability surface of cell size `sizeIndex` for the page, as a typed frame read from the stored GeoTIFF
+   * (server/stability/surface-frame.ts). 404 when the sweep or the size has no surface.
+   */
+  async stabilitySurface(id: string, sizeIndex: number): Promise<Uint8Array> {
+    const record = this.finished(id);
+    const entries = record.summary!.stability ?? [];
+    const entry = entries.find((candidate) => candidate.sizeIndex === sizeIndex);
+    if (entry === undefined) {
+      throw notFoundError(
+        entries.length === 0
+          ? `sweep ${id} has no stability surface (it ran before surfaces were computed)`
+          : `sweep ${id} has no stability surface for size=${sizeIndex}; it has sizes ${entries.map((candidate) => candidate.sizeIndex).join(', ')}`,
+      );
+    }
+    const bytes = this.store.stability.read(id, entry.files.tif);
+    if (bytes === undefined) throw notFoundError(`sweep ${id} has no stored ${entry.files.tif}`);
+    return stabilitySurfaceFrame(bytes, entry);
+  }
+
+  /** Placement `placementIndex` at size `sizeIndex` as the page's compact grid (server/grid-export/grid-typed-frame.ts). */
+  gridFrame(id: string, sizeIndex: number, placementIndex: number): Uint8Array {
+    const { dataset, request, cells } = this.boundedGrid(id, sizeIndex, placementIndex, 'geojson');
+    const record = this.finished(id);
+    return gridTypedFrame({ origin: dataset.origin, request, cells, alpha: record.plan.alpha, flagsByWeight: record.summary!.expectedFrom === 'baseline' });
   }
 
   report(id: string): string {

@@ -388,6 +388,10 @@ describe('the map in Chromium', () => {
     console.log(`map load check: ${100_000} points, ${cells} cells; dataset shown in ${datasetMs} ms, grid fetched and drawn in ${gridMs} ms; frame times ${frames.map((ms) => ms.toFixed(0)).join(', ')} ms (worst ${worst.toFixed(0)} ms)`);
     expect(cells).toBeGreaterThan(90_000);
     expect(frames.every((ms) => Number.isFinite(ms) && ms > 0)).toBe(true);
+    // the compact grid (grid-frame, the page builds the polygons): aimed at well under 2 s; bounded generously here
+    // because the machine is shared (the 30 MB GeoJSON took 5 to 11 s), frames stay under a second
+    expect(gridMs).toBeLessThan(5000);
+    expect(worst).toBeLessThan(1000);
     // drawn: shading over most of the view
     expect((await canvasShares(page, '#map')).colour).toBeGreaterThan(0.3);
   }, 180_000);

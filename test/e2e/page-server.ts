@@ -7,10 +7,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import type { FastifyInstance } from 'fastify';
-import { buildApp } from '../../server/app.js';
+import { buildApp, type AppOptions } from '../../server/app.js';
 import { loadDemoScenarios } from '../../server/services/demo-loader.js';
 import { DEFAULT_CLIENT_DIR, SAMPLES_DIR } from '../../server/services/project-paths.js';
-import type { QueueConnection } from '../../server/queue/queue-url.js';
 
 export interface PageServer {
   app: FastifyInstance;
@@ -18,13 +17,13 @@ export interface PageServer {
   close: () => Promise<void>;
 }
 
-/** `queue`: the server sends sweeps to this Redis queue, as `serve --queue` does (test/queue/queue-page.test.ts). */
-export async function startPageServer(options: { queue?: QueueConnection } = {}): Promise<PageServer> {
+/** `options` go to buildApp: `queue` sends sweeps to a Redis queue as `serve --queue` does (test/queue/queue-page.test.ts). */
+export async function startPageServer(options: Partial<AppOptions> = {}): Promise<PageServer> {
   if (!existsSync(join(DEFAULT_CLIENT_DIR, 'index.html'))) {
     throw new Error(`the page is not built (${DEFAULT_CLIENT_DIR}/index.html is missing): run npm run build first`);
   }
   const dataDir = mkdtempSync(join(tmpdir(), 'gridshake-e2e-'));
-  const app = await buildApp({ dataDir, host: '127.0.0.1', threads: 2, queue: options.queue ?? null });
+  const app = await buildApp({ dataDir, host: '127.0.0.1', threads: 2, ...options });
   await loadDemoScenarios(app.gridshake, SAMPLES_DIR, { sweeps: false });
   await app.listen({ host: '127.0.0.1', port: 0 });
   const { port } = app.server.address() as AddressInfo;

@@ -32,6 +32,16 @@ describe('gridshake serve options', () => {
     const unknown = capture();
     expect(await runCli(['serve', '--colour', 'red'], unknown.io)).toBe(2);
   });
+
+  it('takes --basemap only as an http(s) XYZ template, refusing others in one line (exit 1) before starting', async () => {
+    const help = capture();
+    expect(await runCli(['serve', '--help'], help.io)).toBe(0);
+    expect(help.out()).toContain('--basemap');
+    const bad = capture();
+    expect(await runCli(['serve', '--basemap', 'http://127.0.0.1:8080/tiles.png'], bad.io)).toBe(1);
+    expect(bad.err()).toContain('--basemap "http://127.0.0.1:8080/tiles.png" has no {z}');
+    expect(bad.err().trim().split('\n')).toHaveLength(1);
+  });
 });
 
 describe('Host and Origin policy', () => {

@@ -3,6 +3,8 @@
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
+import { decodeTypedFrame, type TypedFrame } from '../../../shared/binary/typed-frame.js';
+import type { GridFrameMeta, SurfaceFrameMeta } from '../../../shared/binary/page-frames.js';
 import type { DatasetGeometry, DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
@@ -16,6 +18,8 @@ export interface HealthInfo {
   version: string;
   poolSize: number;
   workBudget?: number;
+  /** the analyst's own XYZ tile server (serve --basemap), when configured */
+  basemap?: string;
 }
 
 export interface StoredDataset extends DatasetSummary {
@@ -40,29 +44,39 @@ export interface SweepRecord {
 
 export interface GridFeature {
   type: 'Feature';
-  properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean };
+  /** expected: NaN (the page's frame) or null (GeoJSON) for a left-out cell; stability: the kept cell's flag in this placement */
+  properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean; stability?: 'excess' | 'deficit' | 'neither' };
   geometry: { type: 'Polygon'; coordinates: number[][][] };
 }
 
 export interface GridCollection {
   type: 'FeatureCollection';
   features: GridFeature[];
-  gridshake?: { cellSize: number; u: number; v: number; angle: number; sizeIndex: number; placementIndex: number };
+  gridshake?: { cellSize: number; u: number; v: number; angle: number; sizeIndex: number; placementIndex: number; alpha?: number };
+}
+
+async function failure(response: Response, path: string): Promise<ApiError> {
+  let body: { code?: ErrorCode; message?: string } = {};
+  try {
+    body = (await response.json()) as { code?: ErrorCode; message?: string };
+  } catch {
+    body = { message: response.statusText };
+  }
+  return new ApiError(body.code ?? UNCODED_RESPONSE, response.status, body.message ?? `HTTP ${response.status} from ${path}`);
 }
 
 async function request<T>(path: string, init?: RequestInit): Promise<T> {
   const response = await fetch(path, { ...init, headers: { accept: 'application/json', ...(init?.headers ?? {}) } });
-  if (!response.ok) {
-    let body: { code?: ErrorCode; message?: string } = {};
-    try {
-      body = (await response.json()) as { code?: ErrorCode; message?: string };
-    } catch {
-      body = { message: response.statusText };
-    }
-    throw new ApiError(body.code ?? UNCODED_RESPONSE, response.status, body.message ?? `HTTP ${response.status} from ${path}`);
-  }
+  if (!response.ok) throw await failure(response, path);
   if (response.status === 204) return undefined as T;
   return (await response.json()) as T;
+}
+
+/** A typed frame (shared/binary/typed-frame.ts) from the server. */
+async function frame<Meta>(path: string): Promise<TypedFrame<Meta>> {
+  const response = await fetch(path, { headers: { accept: 'application/octet-stream' } });
+  if (!response.ok) throw await failure(response, path);
+  return decodeTypedFrame<Meta>(await response.arrayBuffer());
 }
 
 function jsonBody(value: unknown): RequestInit {
@@ -84,8 +98,13 @@ export const api = {
   deleteSweep: (id: string) => request<void>(`/api/sweeps/${id}`, { method: 'DELETE' }),
   cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
-  grid: (id: string, size: number, placement: number) =>
-    request<GridCollection>(`/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}&coordinates=planar`),
+  /** the placement's grid as typed arrays and lattice parameters (the page builds the polygons) */
+  gridFrame: (id: string, size: number, placement: number) => frame<GridFrameMeta>(`/api/sweeps/${id}/grid-frame?size=${size}&placement=${placement}`),
+  /** the stability surface of one cell size: the bands of stability-<side>m.tif as float32 */
+  stabilitySurface: async (id: string, size: number) => {
+    const { meta, arrays } = await frame<SurfaceFrameMeta>(`/api/sweeps/${id}/stability-surface?size=${size}`);
+    return { meta, excess: arrays.excess as Float32Array, deficit: arrays.deficit as Float32Array };
+  },
 };
 
 /** URLs for the downloads (same origin, so the browser saves them directly). */

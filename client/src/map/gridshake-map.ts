@@ -37,6 +37,8 @@ export interface MapLayerEntry {
   layer: BaseLayer;
   /** legend entries shown while the layer is on */
   legend: () => LegendItem[];
+  /** the heading of the switches' group when not the main list (the stability layers of the chosen cell size) */
+  group?: string;
 }
 
 type Listener = () => void;

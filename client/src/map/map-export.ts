@@ -5,7 +5,7 @@
  */
 import type OlMap from 'ol/Map.js';
 import { NEUTRAL } from '../../../shared/charts/palette.js';
-import { drawLegend, type LegendItem } from './map-legend.js';
+import { drawLegend, wrapText, type LegendItem } from './map-legend.js';
 import { drawScaleBar, scaleBar } from './scale-bar.js';
 
 export interface ExportText {
@@ -25,21 +25,6 @@ function canvasMatrix(canvas: HTMLCanvasElement): [number, number, number, numbe
   return [width / canvas.width, 0, 0, height / canvas.height, 0, 0];
 }
 
-/** Wraps `text` into lines no wider than `width` (CSS pixels) with the context's font. */
-function wrap(context: CanvasRenderingContext2D, text: string, width: number): string[] {
-  const lines: string[] = [];
-  let line = '';
-  for (const word of text.split(/\s+/)) {
-    const candidate = line === '' ? word : `${line} ${word}`;
-    if (line !== '' && context.measureText(candidate).width > width) {
-      lines.push(line);
-      line = word;
-    } else line = candidate;
-  }
-  if (line !== '') lines.push(line);
-  return lines;
-}
-
 export function composeMapImage(map: OlMap, metresPerPixel: number, legend: readonly LegendItem[], text: ExportText): HTMLCanvasElement {
   const [width, height] = map.getSize() ?? [0, 0];
   const ratio = window.devicePixelRatio || 1;
@@ -48,9 +33,9 @@ export function composeMapImage(map: OlMap, metresPerPixel: number, legend: read
   scratch.font = '12px sans-serif';
   const legendHeight = drawLegend(scratch, legend, 10, 0, width - 20);
   scratch.font = '11px sans-serif';
-  const noteLines = wrap(scratch, text.note, width - 20);
+  const noteLines = wrapText(scratch, text.note, width - 20);
   scratch.font = 'bold 13px sans-serif';
-  const titleLines = wrap(scratch, text.title, width - 20);
+  const titleLines = wrapText(scratch, text.title, width - 20);
   const band = 10 + titleLines.length * 17 + 6 + legendHeight + 4 + noteLines.length * 14 + 8;
 
   const output = document.createElement('canvas');

@@ -9,7 +9,10 @@ export type LegendItem =
   | { kind: 'fill'; colour: string; outline?: string; label: string }
   | { kind: 'hatch'; colour: string; label: string }
   | { kind: 'point'; colour: string; hollow?: boolean; label: string }
-  | { kind: 'ramp'; low: string; high: string; label: string };
+  /** a line of text saying what a layer's colours mean (wrapped to the width) */
+  | { kind: 'note'; label: string }
+  /** a colour ramp: the viridis-like sequential ramp, or a linear ramp between two '#rrggbb' colours */
+  | { kind: 'ramp'; low: string; high: string; label: string; colours?: readonly [string, string] };
 
 function hatchCss(colour: string): string {
   return `repeating-linear-gradient(45deg, ${colour} 0 2px, #fff 2px 6px)`;
@@ -17,9 +20,10 @@ function hatchCss(colour: string): string {
 
 /** One legend entry as HTML (the swatch is decoration: the text says what it is). */
 export function legendElement(item: LegendItem): HTMLElement {
+  if (item.kind === 'note') return el('span', { class: 'legend-note' }, item.label);
   if (item.kind === 'ramp') {
     const ramp = el('span', { class: 'ramp', 'aria-hidden': 'true' });
-    ramp.style.background = sequentialGradientCss();
+    ramp.style.background = item.colours ? `linear-gradient(to right, ${item.colours[0]}, ${item.colours[1]})` : sequentialGradientCss();
     return el('span', { class: 'legend-item' }, `${item.label} ${item.low}`, ramp, item.high);
   }
   const box = el('span', { class: item.kind === 'point' ? 'swatch swatch-point' : 'swatch', 'aria-hidden': 'true' });
@@ -28,6 +32,29 @@ export function legendElement(item: LegendItem): HTMLElement {
   else box.style.background = item.colour;
   if (item.kind === 'fill' && item.outline) box.style.border = `1px solid ${item.outline}`;
   return el('span', { class: 'legend-item' }, box, item.label);
+}
+
+/** `text` in lines no wider than `width` with the context's font. */
+export function wrapText(context: CanvasRenderingContext2D, text: string, width: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    const candidate = line === '' ? word : `${line} ${word}`;
+    if (line !== '' && context.measureText(candidate).width > width) {
+      lines.push(line);
+      line = word;
+    } else line = candidate;
+  }
+  if (line !== '') lines.push(line);
+  return lines;
+}
+
+/** '#rrggbb' a mixed with b in RGB, t in [0, 1]. */
+function mixHex(a: string, b: string, t: number): string {
+  const from = Number.parseInt(a.slice(1), 16);
+  const to = Number.parseInt(b.slice(1), 16);
+  const channel = (shift: number) => Math.round(((from >> shift) & 255) + (((to >> shift) & 255) - ((from >> shift) & 255)) * t);
+  return `rgb(${channel(16)}, ${channel(8)}, ${channel(0)})`;
 }
 
 const SWATCH = 14;
@@ -41,6 +68,16 @@ export function drawLegend(context: CanvasRenderingContext2D, items: readonly Le
   let y = top;
   const lineHeight = SWATCH + 8;
   for (const item of items) {
+    if (item.kind === 'note') {
+      if (x > left) y += lineHeight;
+      context.fillStyle = NEUTRAL.ink;
+      for (const line of wrapText(context, item.label, width)) {
+        context.fillText(line, left, y + SWATCH / 2);
+        y += 16;
+      }
+      x = left;
+      continue;
+    }
     const labelWidth = item.kind === 'ramp'
       ? context.measureText(`${item.label} ${item.low}`).width + 6 + 80 + 6 + context.measureText(item.high).width
       : SWATCH + 6 + context.measureText(item.label).width;
@@ -55,7 +92,7 @@ export function drawLegend(context: CanvasRenderingContext2D, items: readonly Le
       context.fillText(head, x, middle);
       const rampLeft = x + context.measureText(head).width + 6;
       for (let k = 0; k < 80; k += 1) {
-        context.fillStyle = sequentialColour(k / 79);
+        context.fillStyle = item.colours ? mixHex(item.colours[0], item.colours[1], k / 79) : sequentialColour(k / 79);
         context.fillRect(rampLeft + k, y + 2, 1, SWATCH - 4);
       }
       context.fillStyle = NEUTRAL.ink;

@@ -1,21 +1,25 @@
 /**
  * The map aside: the dataset and the chosen placement's grid on the map (client/src/map/), its caption, legend,
  * layer switches, the cell under the pointer (or under the view's centre, by keyboard: Enter), the PNG export of the
- * view and the privacy caution. Also the `pick` action the charts call: fetch
- * GET /api/sweeps/:id/grid.geojson?size=K&placement=J and show it.
+ * view and the privacy caution. Also the `pick` action the charts call: fetch the placement's compact grid
+ * (GET /api/sweeps/:id/grid-frame?size=K&placement=J, client/src/map/grid-from-frame.ts) and show it.
  */
 import { verdictWords } from '../../../shared/verdict-words.js';
 import { api, type GridFeature } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
-import { CAUTIONS } from '../../../shared/charts/cautions.js';
+import { CAUTIONS, SURFACE_PRIVACY } from '../../../shared/charts/cautions.js';
 import { formatMetres, formatNumber } from '../../../shared/format.js';
 import { downloadName, fileSlug } from '../../../shared/messages/download-names.js';
 import { cellLines } from '../map/cell-readout.js';
 import { BASELINE_LAYER_ID, baselineLayerEntry } from '../map/baseline-layer.js';
+import { BASEMAP_LAYER_ID, basemapLayerEntry } from '../map/basemap-layer.js';
 import { GridshakeMap } from '../map/gridshake-map.js';
 import { layerList } from '../map/layer-list.js';
 import { legendElement } from '../map/map-legend.js';
 import { clear, el, message } from '../ui/dom.js';
+import { stabilityLines } from '../map/stability-readout.js';
+import { gridFromFrame } from '../map/grid-from-frame.js';
+import { stabilityLayers } from './stability-layers.js';
 
 /** The privacy caution, shown again beside the map (fine maps and surfaces can single out households). */
 const PRIVACY = CAUTIONS.find((caution) => caution.startsWith('Protect the privacy')) ?? CAUTIONS[CAUTIONS.length - 1];
@@ -33,8 +37,11 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     el('div', { class: 'map-actions' }, exportButton, exportStatus),
     cellInfo,
     pointer,
-    el('p', { class: 'map-privacy', id: 'map-privacy' }, el('strong', {}, 'Privacy: '), PRIVACY, ' This holds for this map, its PNG and any surface drawn on it.'),
+    el('p', { class: 'map-privacy', id: 'map-privacy' }, el('strong', {}, 'Privacy: '), PRIVACY, ' This holds for this map, its PNG and any surface drawn on it. ', SURFACE_PRIVACY),
   );
+  const stability = stabilityLayers(map, store, (text) => {
+    caption.textContent = text;
+  });
   const refreshLayers = layerList(map, layersBox);
   const refreshLegend = () => clear(legend, ...map.legend().map(legendElement));
   map.onLayersChange(() => {
@@ -50,13 +57,19 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     if (!placement) return null;
     return store.state.rows.find((row) => row.sizeIndex === placement.sizeIndex && row.placementIndex === placement.placementIndex)?.verdict ?? null;
   };
-  const showCell = (cell: GridFeature | null) => {
-    if (!cell) {
-      cellInfo.removeAttribute('data-cell');
-      return;
-    }
-    cellInfo.dataset.cell = `${cell.properties.i},${cell.properties.j}`;
-    clear(cellInfo, el('dl', { class: 'cell-lines' }, ...cellLines(cell, placementVerdict()).flatMap((line) => [el('dt', {}, line.name), el('dd', { 'data-field': line.name }, line.value)])));
+  const cellFlag = (cell: GridFeature | null) => {
+    const alpha = store.state.placement?.grid.gridshake?.alpha;
+    return cell?.properties.stability !== undefined && alpha !== undefined ? { flag: cell.properties.stability, alpha } : null;
+  };
+  const showCell = (cell: GridFeature | null, at: number[] | null = null) => {
+    const lines = [
+      ...(cell ? cellLines(cell, placementVerdict()) : []),
+      ...(at ? stabilityLines(cellFlag(cell), stability.surface(), stability.areaAt(at[0], at[1]), at[0], at[1]) : []),
+    ];
+    if (cell) cellInfo.dataset.cell = `${cell.properties.i},${cell.properties.j}`;
+    else cellInfo.removeAttribute('data-cell');
+    if (lines.length === 0) return;
+    clear(cellInfo, el('dl', { class: 'cell-lines' }, ...lines.flatMap((line) => [el('dt', {}, line.name), el('dd', { 'data-field': line.name }, line.value)])));
   };
   const showPointer = (coordinate: number[]) => {
     const toLonLat = map.projection()?.toLonLat;
@@ -69,14 +82,14 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
   map.map.on('pointermove', (event) => {
     if (event.dragging) return;
     showPointer(event.coordinate);
-    showCell(map.cellAt(event.coordinate));
+    showCell(map.cellAt(event.coordinate), event.coordinate);
   });
-  map.map.on('singleclick', (event) => showCell(map.cellAt(event.coordinate)));
+  map.map.on('singleclick', (event) => showCell(map.cellAt(event.coordinate), event.coordinate));
   target.addEventListener('keydown', (event) => {
     if (event.key !== 'Enter') return;
     const centre = map.map.getView().getCenter() ?? null;
     if (centre) showPointer(centre);
-    showCell(map.cellAt(centre));
+    showCell(map.cellAt(centre), centre);
   });
 
   exportButton.addEventListener('click', async () => {
@@ -92,7 +105,7 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     exportButton.disabled = true;
     exportStatus.textContent = 'Drawing the view...';
     try {
-      const blob = await map.exportPng({ title: caption.textContent ?? dataset.name, note: `Privacy: ${PRIVACY}` });
+      const blob = await map.exportPng({ title: caption.textContent ?? dataset.name, note: `Privacy: ${PRIVACY} ${SURFACE_PRIVACY}` });
       const url = URL.createObjectURL(blob);
       const link = el('a', { href: url, download: name });
       document.body.append(link);
@@ -143,12 +156,22 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
     }
   });
 
+  // the user's own tile server, when the server was started with --basemap and the coordinate system is known
+  // (after the dataset is on the map: its projection decides)
+  store.subscribe((state, changed) => {
+    if (!changed.has('geometry') && !changed.has('health')) return;
+    const template = state.health?.basemap;
+    if (template && state.geometry && map.projection()?.toLonLat) {
+      if (!map.layers().some((entry) => entry.id === BASEMAP_LAYER_ID)) map.setOptionalLayer(basemapLayerEntry(template));
+    } else map.removeOptionalLayer(BASEMAP_LAYER_ID);
+  });
+
   return async (sizeIndex, placementIndex) => {
     const sweepId = store.state.sweepId;
     if (!sweepId) return;
     caption.textContent = `Loading the grid of placement ${placementIndex}...`;
     try {
-      const grid = await api.grid(sweepId, sizeIndex, placementIndex);
+      const grid = gridFromFrame(await api.gridFrame(sweepId, sizeIndex, placementIndex));
       store.update({ placement: { sizeIndex, placementIndex, grid } });
     } catch (error) {
       caption.textContent = `Could not load the grid: ${error instanceof Error ? error.message : String(error)}`;
