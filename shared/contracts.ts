@@ -309,4 +309,9 @@ export interface DatasetGeometry {
    * km², for the map's choropleth (issue 15); absent without baseline polygons
    */
   baseline?: { polygons: { rings: number[][][]; density: number }[]; maxDensity: number };
+  /**
+   * the control points inside the valid region (issue 15), x,y interleaved (planar metres), decimated like the points
+   * (every stride-th of total drawn); absent without controls
+   */
+  controls?: { points: number[]; total: number; stride: number };
 }

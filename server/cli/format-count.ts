@@ -1,7 +1,7 @@
 /** Plain-words rendering of a count result for the terminal: verdict, key numbers, rule of thumb, warnings, caution. */
 import type { CountResult } from './count-result.js';
 import { formatP, pPhrase } from '../../shared/format.js';
-import { beyondNull, nullName } from '../summary/null-hypothesis.js';
+import { beyondNull, nullName } from '../../shared/null-hypothesis.js';
 
 const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? value.toFixed(digits) : String(value));
 

@@ -4,7 +4,7 @@
  */
 import type { SweepSummary } from '../../shared/contracts.js';
 import { OVERALL_TEST_METHOD } from '../summary/overall-test.js';
-import { nullName } from '../summary/null-hypothesis.js';
+import { nullName } from '../../shared/null-hypothesis.js';
 import { formatMetres, formatNumber } from '../../shared/format.js';
 
 export interface Reference {

@@ -75,6 +75,10 @@ const GEOMETRY_RESPONSE = {
         maxDensity: { type: 'number' },
       },
     },
+    controls: {
+      type: 'object',
+      properties: { points: { type: 'array', items: { type: 'number' } }, total: { type: 'integer' }, stride: { type: 'integer' } },
+    },
     studyArea: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     noDataZones: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     bbox: BBOX_SCHEMA,
