@@ -4,7 +4,8 @@ import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { polygonFile } from '../baseline/baseline-fixtures.js';
-import { blocksGeoJson, csv, populationPoints, TOWN } from '../baseline/population-fixtures.js';
+import { blocks, blocksGeoJson, csv, populationPoints, TOWN } from '../baseline/population-fixtures.js';
+import { writeGeoPackage } from '../inputs/geopackage-writer.js';
 import type { BaselineInfo, SweepSummary } from '../../shared/contracts.js';
 import { baselineComparisonTableData } from '../../shared/charts/size-tables.js';
 import { nullStatement } from '../../shared/null-hypothesis.js';
@@ -150,6 +151,41 @@ describe('population at risk upload in Chromium', () => {
     expect(await page.isChecked('#layer-toggle-points')).toBe(true);
     await page.check('#layer-toggle-controls');
     await expect.poll(() => canvasColourShare(page, '#map')).toBeGreaterThan(0.003);
+    expect(errors).toEqual([]);
+  }, 120_000);
+
+  it('lists the numeric columns of a GeoPackage layer in the field picker (no typing) and uploads with the chosen one', async () => {
+    const { rings, counts } = blocks();
+    const gpkg = writeGeoPackage([{
+      table: 'blocks',
+      geometryType: 'POLYGON',
+      geometries: rings.map((ring) => ({ type: 'Polygon', coordinates: [ring] })),
+      properties: counts.map((residents, k) => ({ label: `block ${k + 1}`, households: Math.ceil(residents / 2), residents })),
+    }]);
+    await page.click('.upload summary');
+    await page.setInputFiles('input[name=points]', file('points-gpkg.csv', csv(populationPoints(300, 9))));
+    await page.setInputFiles('input[name=area]', file('area.geojson', polygonFile([TOWN])));
+    await page.selectOption('select[name=crsChoice]', 'planar');
+    await page.selectOption('select[name=baselineKind]', 'polygons');
+    const path = join(folder, 'blocks.gpkg');
+    writeFileSync(path, gpkg);
+    await page.setInputFiles('input[name=baseline]', path);
+    await expect.poll(() => page.locator('select[name=baselineField] option').allInnerTexts()).toEqual(['households', 'residents']);
+    expect(await page.isDisabled('select[name=baselineField]')).toBe(false);
+    expect(await page.locator('input[name=baselineFieldName]').count()).toBe(0);
+    await page.selectOption('select[name=baselineField]', 'households');
+    await page.fill('input[name=name]', 'Town with households from a GeoPackage');
+    await page.click('.upload-form button[type=submit]');
+    await expect.poll(() => page.innerText('[data-testid=dataset-summary]').catch(() => '')).toContain('Town with households from a GeoPackage');
+    const datasets = await getJson<StoredDataset[]>(server, '/api/datasets');
+    const households = counts.reduce((sum, residents) => sum + Math.ceil(residents / 2), 0);
+    expect(datasets.find((dataset) => dataset.name === 'Town with households from a GeoPackage')?.baseline)
+      .toMatchObject({ file: 'blocks.gpkg', field: 'households', totalInside: households });
+    // a file that is not a GeoPackage layer: the server's message is shown beside the picker
+    await page.click('.upload summary').catch(() => undefined);
+    await page.setInputFiles('input[name=baseline]', { name: 'broken.gpkg', mimeType: 'application/octet-stream', buffer: Buffer.from('SQLite format 3\u0000 broken') });
+    await expect.poll(() => page.innerText('[data-testid=baseline-field-status]')).toContain('broken.gpkg');
+    expect(await page.isDisabled('select[name=baselineField]')).toBe(true);
     expect(errors).toEqual([]);
   }, 120_000);
 });
