@@ -11,6 +11,7 @@ import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import { engineErrorOf } from '../../workers/engine-error.js';
 import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
+import { baselineSize } from '../../workers/baseline/baseline.js';
 import { logPValues } from '../summary/log-p-values.js';
 import { DEFAULT_CELL_SHAPE } from '../../workers/lattice/cell-shape.js';
 import { latticeOf } from '../../workers/lattice/registry.js';
@@ -69,7 +70,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   // the server's limits on one placement: cells in the valid region (coverage costs O(cells)) and the work budget
   assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, fieldRef('cell'));
   const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: 0 };
-  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv()));
+  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv(), dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine)));
   const summary = summarizeDataset(dataset);
   const counter = createCellCounter(insideCoordinates(dataset), dataset.origin);
   const keptCells = (): never => {
