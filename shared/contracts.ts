@@ -36,6 +36,12 @@ export interface BaselineInfo {
   uncoveredShare: number;
   /** controls: how many lie outside V (never counted) */
   controlsOutside?: number;
+  /**
+   * polygons: the pieces p ∩ V kept (|p ∩ V| > 0) and their ring vertices, what the areal weighting costs per placement
+   * (the work budget, shared/plan-rules.ts baselineWork); absent in datasets stored before the budget counted them
+   */
+  pieces?: number;
+  vertices?: number;
 }
 
 /** How input coordinates were turned into planar metres. */
@@ -287,7 +293,7 @@ export interface SweepProgress {
 }
 
 export interface SweepEstimate {
-  /** points x placements x sizes x (1 + sims) */
+  /** points x placements x sizes x (1 + sims), plus the baseline's work (baselineWork) */
   work: number;
   budget: number;
   tasks: number;
@@ -295,6 +301,8 @@ export interface SweepEstimate {
   evaluations?: number;
   /** bytes of simulated CSR coordinates: points x sims x 16 */
   simulatedBytes?: number;
+  /** the part of `work` the population at risk adds (shared/plan-rules.ts baselineWork); 0 or absent against area */
+  baselineWork?: number;
 }
 
 /** GET /api/datasets/:id/geometry: what the page draws of a dataset (server/services/dataset-geometry.ts). */
@@ -315,4 +323,9 @@ export interface DatasetGeometry {
    * km², for the map's choropleth (issue 15); absent without baseline polygons
    */
   baseline?: { polygons: { rings: number[][][]; density: number }[]; maxDensity: number };
+  /**
+   * the control points inside the valid region (issue 15), x,y interleaved (planar metres), decimated like the points
+   * (every stride-th of total drawn); absent without controls
+   */
+  controls?: { points: number[]; total: number; stride: number };
 }

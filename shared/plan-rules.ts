@@ -5,7 +5,8 @@
  * the allowed ranges, the defaults, the work budget and the limits on evaluations and simulation memory.
  * Pure: numbers in, numbers and words out.
  */
-import type { Plan } from './contracts.js';
+import type { BaselineInfo, Plan } from './contracts.js';
+import type { BaselineSize } from '../workers/baseline/baseline.js';
 
 /** Allowed ranges of the plan fields. */
 export const PLAN_LIMITS = Object.freeze({
@@ -57,18 +58,72 @@ export const MAX_EVALUATIONS = 2e7;
 /** Most bytes of simulated CSR coordinates held at once (n x sims x 16 bytes). */
 export const MAX_SIMULATED_BYTES = 1024 * 1024 * 1024;
 
+/**
+ * The work of one baseline polygon piece per (size, placement), in point-placements: its own exact coverage on the
+ * grid (a set-up and the cells of its bounding box). Measured on the development machine by timing evaluatePlacement
+ * (dist build) with and without a baseline of 1600 and 10000 pieces: about 1.1-1.6 µs per piece against
+ * 25-45 ns per point-placement (load average 6-10 while measured), so 50 rounded up.
+ */
+export const BASELINE_PIECE_WORK = 64;
+
+/**
+ * The work of one baseline ring vertex per (size, placement), in point-placements: one edge of the exact coverage.
+ * Measured as above with 1600 pieces of 4 to 512 vertices: 70-200 ns per vertex against 28-40 ns per point-placement
+ * (load average 8-10), so about 2.5-7, rounded up.
+ */
+export const BASELINE_VERTEX_WORK = 8;
+
 /** What a sweep costs: the quantities the budget and the limits are checked against. */
 export interface PlanWork {
-  /** points inside x placements x sizes x (1 + sims): one point tested against one placement of one pattern */
+  /** points inside x placements x sizes x (1 + sims), plus baselineWork: the work budget's measure */
   work: number;
+  /** the part of work the baseline adds (0 against area) */
+  baselineWork: number;
   /** sizes x placements x (1 + sims): grid evaluations held until summarised */
   evaluations: number;
   /** points inside x sims x 16: bytes of simulated CSR coordinates */
   simulatedBytes: number;
 }
 
-/** The cost of `sizes` (shape, cell size) pairs of `placements` placements with `sims` simulations. Cost O(1). */
-export function planWork(nInside: number, placements: number, sizes: number, sims: number): PlanWork {
+/**
+ * What the population at risk (issue 15) adds to a sweep, in point-placements:
+ * - polygons: sizes x placements x (BASELINE_PIECE_WORK x pieces + BASELINE_VERTEX_WORK x vertices), the areal
+ *   weighting of every piece onto every placement's grid, plus sims x points x ceil(log2(pieces + 1)), the
+ *   polygon-intensity simulation (a binary search over the pieces per simulated point);
+ * - controls: sizes x placements x controls, the controls counted into every placement's cells (the cases' rule);
+ *   the relabellings are counted like the simulated points already are.
+ * Cost O(1).
+ */
+export function baselineWork(size: BaselineSize | undefined, nInside: number, placements: number, sizes: number, sims: number): number {
+  if (size === undefined) return 0;
+  if (size.kind === 'controls') return sizes * placements * size.controls;
+  const weighting = sizes * placements * (BASELINE_PIECE_WORK * size.pieces + BASELINE_VERTEX_WORK * size.vertices);
+  return weighting + sims * nInside * Math.ceil(Math.log2(size.pieces + 1));
+}
+
+/**
+ * The budget's view of a dataset's baseline record (its summary, as the page and the API see it): controls from the
+ * count inside V; polygons from the recorded pieces and vertices, or, in a record stored before they were counted,
+ * the features read and 4 vertices each (the sweep itself is checked against the engine data: baselineSize).
+ */
+export function baselineSizeOf(info: BaselineInfo | undefined): BaselineSize | undefined {
+  if (info === undefined) return undefined;
+  if (info.kind === 'controls') return { kind: 'controls', pieces: 0, vertices: 0, controls: info.totalInside };
+  const pieces = info.pieces ?? info.features;
+  return { kind: 'polygons', pieces, vertices: info.vertices ?? 4 * pieces, controls: 0 };
+}
+
+/**
+ * The cost of `sizes` (shape, cell size) pairs of `placements` placements with `sims` simulations, against area or
+ * against a baseline of the given size. Cost O(1).
+ */
+export function planWork(nInside: number, placements: number, sizes: number, sims: number, baseline?: BaselineSize): PlanWork {
   const patterns = 1 + sims;
-  return { work: nInside * placements * sizes * patterns, evaluations: sizes * placements * patterns, simulatedBytes: nInside * 16 * sims };
+  const extra = baselineWork(baseline, nInside, placements, sizes, sims);
+  return {
+    work: nInside * placements * sizes * patterns + extra,
+    baselineWork: extra,
+    evaluations: sizes * placements * patterns,
+    simulatedBytes: nInside * 16 * sims,
+  };
 }

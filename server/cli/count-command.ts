@@ -2,7 +2,11 @@
  * `gridshake count`: the quadrat test for one grid placement and one cell size (shared/design.md, command line).
  * Reads the files, builds the dataset, counts through the engine and prints plain words or one JSON object.
  */
-import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
+import { DEFAULT_PLAN, PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
+import { smallestWorkingSims } from '../../shared/monte-carlo-rule.js';
+import { labellingMonteCarlo } from '../../workers/baseline/labelling-test.js';
+import { pixelCellLocator } from '../../workers/stability/pixel-cells.js';
+import { monteCarloPValue } from '../summary/monte-carlo-p-value.js';
 import { parameterError } from '../errors.js';
 import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
 import { assertCellCountWithinLimit } from '../sweeps/plan.js';
@@ -11,14 +15,18 @@ import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/
 import { createCellCounter, evaluatePlacement } from '../../workers/placement/index.js';
 import { engineErrorOf } from '../../workers/engine-error.js';
 import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.js';
+import { baselineSize } from '../../workers/baseline/baseline.js';
 import { logPValues } from '../summary/log-p-values.js';
-import { DEFAULT_CELL_SHAPE } from '../../workers/lattice/cell-shape.js';
+import { DEFAULT_CELL_SHAPE, type CellShape } from '../../workers/lattice/cell-shape.js';
+import type { CoverageGrid, KeptCells, Origin, Placement } from '../../workers/types.js';
 import { latticeOf } from '../../workers/lattice/registry.js';
 import {
   parseAlpha,
   parseAngle,
   parseMinCoverage,
+  parseNumber,
   parseOffset,
+  parseWholeNumber,
   parseShape,
   parsePositiveMetres,
   requireString,
@@ -26,9 +34,15 @@ import {
   type OptionValues,
 } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
-import type { CountResult } from './count-result.js';
+import type { CountMonteCarlo, CountResult } from './count-result.js';
 import { formatCount } from './format-count.js';
 import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
+
+/**
+ * Random labellings of count's Monte Carlo test against controls by default: 999 gives p-values in steps of 0.001,
+ * fine enough for alpha 0.05 and 0.01 (common practice for Monte Carlo tests, e.g. Diggle 2003).
+ */
+export const COUNT_CONTROL_SIMS = 999;
 
 /** Defaults of a single count: the sweep plan's, so that count and a sweep's reference placement agree. */
 export const COUNT_DEFAULTS = Object.freeze({ minCoverage: DEFAULT_PLAN.minCoverage, alpha: DEFAULT_PLAN.alpha });
@@ -45,9 +59,37 @@ const OPTIONS: OptionSpecs = {
   offset: { type: 'string', value: 'U,V', description: 'grid offset in cell units, each in [0, 1); default 0,0' },
   'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
   alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
+  sims: {
+    type: 'string',
+    value: 'R',
+    description: `with --controls: random labellings of the Monte Carlo test, ${PLAN_RANGE_WORDS.sims} and enough to reject at alpha; default ${COUNT_CONTROL_SIMS}`,
+  },
+  seed: { type: 'string', value: 'S', description: `with --controls: seed of the random labellings, an integer; default ${DEFAULT_PLAN.seed}` },
   json: { type: 'boolean', description: 'print one JSON object instead of text' },
   ...INPUT_LIMIT_OPTIONS,
 };
+
+/** --sims and --seed: only with --controls (the random-labelling test); R enough to reject at alpha. */
+function labellingParameters(values: OptionValues, alpha: number): { sims: number; seed: number } | null {
+  if (values.controls === undefined) {
+    for (const name of ['sims', 'seed']) {
+      if (values[name] !== undefined) {
+        throw parameterError(`--${name} applies only with --controls (the random-labelling Monte Carlo test); the count against area or baseline polygons is the chi-square test`);
+      }
+    }
+    return null;
+  }
+  const sims = values.sims === undefined ? COUNT_CONTROL_SIMS : parseWholeNumber(String(values.sims), 'sims', PLAN_LIMITS.sims.min);
+  if (sims > PLAN_LIMITS.sims.max || sims < smallestWorkingSims(alpha)) {
+    throw parameterError(
+      `--sims ${sims}: count --controls needs ${smallestWorkingSims(alpha)} to ${PLAN_LIMITS.sims.max} random labellings at alpha ${alpha} ` +
+        '(fewer could never give a p-value at or below alpha)',
+    );
+  }
+  const seed = values.seed === undefined ? DEFAULT_PLAN.seed : parseNumber(String(values.seed), 'seed', 'an integer');
+  if (!Number.isSafeInteger(seed)) throw parameterError(`--seed ${values.seed}: the seed must be an integer`);
+  return { sims, seed };
+}
 
 function countParameters(values: OptionValues) {
   const shape = values.shape === undefined ? DEFAULT_CELL_SHAPE : parseShape(String(values.shape));
@@ -65,11 +107,12 @@ function countParameters(values: OptionValues) {
 
 async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   const parameters = countParameters(values);
+  const labelling = labellingParameters(values, parameters.alpha);
   const dataset = loadDatasetFromFlags(values);
   // the server's limits on one placement: cells in the valid region (coverage costs O(cells)) and the work budget
   assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, fieldRef('cell'));
-  const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: 0 };
-  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv()));
+  const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: labelling?.sims ?? 0 };
+  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv(), dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine)));
   const summary = summarizeDataset(dataset);
   const counter = createCellCounter(insideCoordinates(dataset), dataset.origin);
   const keptCells = (): never => {
@@ -88,6 +131,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   }
   if (evaluated.stats.cells < 2) return keptCells();
   const { expectation } = evaluated;
+  const monteCarlo = labelling === null ? undefined : labellingTest(dataset, parameters, evaluated, labelling);
   const result: CountResult = {
     ...evaluated.stats,
     ...logPValues(evaluated.stats),
@@ -99,6 +143,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
     zeroBaselineCells: expectation.zeroBaselineCells,
     pointsInZeroBaselineCells: expectation.pointsInZeroBaselineCells,
     ...(dataset.baseline === undefined ? {} : { baseline: dataset.baseline.info }),
+    ...(monteCarlo === undefined ? {} : { monteCarlo }),
     ...parameters,
     dataset: {
       name: dataset.name,
@@ -116,12 +161,70 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   return 0;
 }
 
+/** What the labelling test of one placement needs (count-command builds it from the dataset and the evaluation). */
+export interface CountLabellingInput {
+  cases: Float64Array;
+  controls: Float64Array;
+  shape: CellShape;
+  origin: Origin;
+  cellSize: number;
+  placement: Placement;
+  grid: CoverageGrid;
+  coverageKept: KeptCells;
+  alpha: number;
+  sims: number;
+  seed: number;
+}
+
+/**
+ * The random-labelling Monte Carlo test of the counted placement (workers/baseline/labelling-test.ts): Monte Carlo p
+ * on both tails (Besag and Diggle 1977) and the two-sided verdict at alpha (each tail at alpha/2, as the chi-square
+ * verdict). Calibrated by test/stress/count-labelling-calibration.test.ts.
+ */
+export function countLabellingTest(input: CountLabellingInput): CountMonteCarlo {
+  const { grid } = input;
+  const { observed, simulated } = labellingMonteCarlo({
+    cases: input.cases,
+    controls: input.controls,
+    locate: pixelCellLocator(input.shape, input.origin, input.cellSize, input.placement, grid),
+    gridCells: grid.nx * grid.ny,
+    coverageKept: input.coverageKept,
+    sims: input.sims,
+    seed: input.seed,
+  });
+  const pClustered = monteCarloPValue(observed, simulated, 'upper');
+  const pRegular = monteCarloPValue(observed, simulated, 'lower');
+  const half = input.alpha / 2;
+  const verdict = pClustered <= half ? 'clustered' : pRegular <= half ? 'regular' : 'csr';
+  return { test: 'random labelling', sims: input.sims, seed: input.seed, statistic: 'chi2/df', observed, pClustered, pRegular, verdict };
+}
+
+function labellingTest(
+  dataset: ReturnType<typeof loadDatasetFromFlags>,
+  parameters: ReturnType<typeof countParameters>,
+  evaluated: ReturnType<typeof evaluatePlacement>,
+  labelling: { sims: number; seed: number },
+): CountMonteCarlo {
+  const engine = dataset.baseline!.engine;
+  const coverageKept = evaluated.expectation.coverageKept;
+  if (engine.kind !== 'controls' || coverageKept === undefined) throw new Error('the labelling test needs controls');
+  return countLabellingTest({
+    cases: insideCoordinates(dataset),
+    controls: engine.controls,
+    origin: dataset.origin,
+    grid: evaluated.grid,
+    coverageKept,
+    ...parameters,
+    ...labelling,
+  });
+}
+
 export const countCommand: CliCommand = {
   name: 'count',
   summary: 'the quadrat test for one grid placement and one cell size',
   usage:
     'Usage: gridshake count --points F [--area F] [--no-data F]... [--crs planar|EPSG:n] --cell M\n' +
-    '                       [--baseline F --baseline-field NAME | --controls F]\n' +
+    '                       [--baseline F --baseline-field NAME | --controls F [--sims R] [--seed S]]\n' +
     '                       [--shape square|hex] [--angle DEG] [--offset U,V] [--min-coverage T] [--alpha A] [--x COL --y COL] [--json]',
   options: OPTIONS,
   run: runCount,

@@ -1,7 +1,7 @@
 /** Plain-words rendering of a count result for the terminal: verdict, key numbers, rule of thumb, warnings, caution. */
 import type { CountResult } from './count-result.js';
 import { formatP, pPhrase } from '../../shared/format.js';
-import { beyondNull, nullName } from '../summary/null-hypothesis.js';
+import { beyondNull, nullName } from '../../shared/null-hypothesis.js';
 
 const fixed = (value: number, digits = 6): string => (Number.isFinite(value) ? value.toFixed(digits) : String(value));
 
@@ -20,9 +20,23 @@ export function verdictSentence(result: CountResult): string {
   );
 }
 
-/** The verdict against a baseline: the sentence names the null (issue 15). */
+/**
+ * The verdict against a baseline: the sentence names the null (issue 15). With controls it is the random-labelling
+ * Monte Carlo test's (calibrated: test/stress/count-labelling-calibration.test.ts), saying so and with how many
+ * labellings; the chi-square p, which treats the control counts as exact, is only listed in the table.
+ */
 function baselineVerdictSentence(result: CountResult, test: string): string {
   const named = nullName(result.baseline);
+  const monteCarlo = result.monteCarlo;
+  if (monteCarlo !== undefined) {
+    const how = `Monte Carlo p from ${monteCarlo.sims} random relabellings of the pooled cases and controls, seed ${monteCarlo.seed}, ${test}`;
+    if (monteCarlo.verdict === 'clustered') return `The counts show clustering ${beyondNull(result.baseline)} (${pPhrase(monteCarlo.pClustered)}, ${how}).`;
+    if (monteCarlo.verdict === 'regular') return `The counts are more even than ${named} would give (${pPhrase(monteCarlo.pRegular)}, ${how}).`;
+    return (
+      `The counts do not depart from ${named} (${how}: p for clustering = ${formatP(monteCarlo.pClustered)}, ` +
+      `p for regularity = ${formatP(monteCarlo.pRegular)}).`
+    );
+  }
   if (result.verdict === 'clustered') {
     return `The counts show clustering ${beyondNull(result.baseline)} (${pPhrase(result.pClustered)}, ${test}).`;
   }
@@ -89,13 +103,6 @@ export function formatCount(result: CountResult): string {
     lines.push('');
     lines.push(caveat);
   }
-  if (result.expectedFrom === 'controls') {
-    lines.push('');
-    lines.push(
-      'Read first: the chi-square p below treats the control counts as exact, which overstates significance; the calibrated ' +
-        'test against controls is the Monte Carlo test by random labelling of gridshake sweep --controls FILE --sims 99.',
-    );
-  }
   lines.push('');
   lines.push(verdictSentence(result));
   if (result.pointsInZeroBaselineCells > 0) {
@@ -113,7 +120,12 @@ export function formatCount(result: CountResult): string {
     ['variance', fixed(result.variance)],
     [`variance/mean (VMR)${equalArea}`, fixed(result.vmr)],
     [result.baseline === undefined ? 'chi-square (dispersion)' : 'chi-square (against the baseline)', `${fixed(result.chi2, 4)} on ${result.df} df (chi2/df ${fixed(result.chi2PerDf, 4)})`],
-    ['p clustered / p regular', `${formatP(result.pClustered)} / ${formatP(result.pRegular)}`],
+    ...(result.monteCarlo === undefined
+      ? [['p clustered / p regular', `${formatP(result.pClustered)} / ${formatP(result.pRegular)}`] as [string, string]]
+      : [
+          ['Monte Carlo p clustered / regular', `${formatP(result.monteCarlo.pClustered)} / ${formatP(result.monteCarlo.pRegular)} (R = ${result.monteCarlo.sims} relabellings, chi2/df ${fixed(result.monteCarlo.observed, 4)})`] as [string, string],
+          ['chi-square p (controls as exact)', `${formatP(result.pClustered)} / ${formatP(result.pRegular)}, not the test: it ignores the controls' own randomness`] as [string, string],
+        ]),
     [`Morisita I / standardized${equalArea}`, `${fixed(result.morisita)} / ${fixed(result.morisitaStandardized)}`],
     ['Lloyd mean crowding / patchiness', `${fixed(result.meanCrowding)} / ${fixed(result.patchiness)}`],
     ['Green index', result.green.toPrecision(4)],

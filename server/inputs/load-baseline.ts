@@ -12,7 +12,7 @@
 import * as turf from '@turf/turf';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import { partitionByRegion } from '../../workers/geometry/point-in-region.js';
-import { BASELINE_SHARE_NOISE, type Baseline } from '../../workers/baseline/baseline.js';
+import { BASELINE_SHARE_NOISE, baselineSize, type Baseline, type PolygonBaseline } from '../../workers/baseline/baseline.js';
 import type { Region } from '../../workers/types.js';
 import type { BaselineInfo, InputWarning } from '../../shared/contracts.js';
 import { baselineError, GridshakeError } from '../errors.js';
@@ -156,9 +156,15 @@ export function loadBaselinePolygons(
       ids: outsideFeatures.slice(0, 100).map(String),
     });
   }
+  const engine: PolygonBaseline = { kind: 'polygons', pieces, counts: Float64Array.from(counts) };
   return {
-    baseline: { kind: 'polygons', pieces, counts: Float64Array.from(counts) },
-    info: { kind: 'polygons', file: file.name, field, features: features.length, totalInside, total, outsideFeatures, uncoveredShare },
+    baseline: engine,
+    info: {
+      kind: 'polygons', file: file.name, field, features: features.length, totalInside, total, outsideFeatures, uncoveredShare,
+      // what the work budget counts of the areal weighting (shared/plan-rules.ts baselineWork)
+      pieces: engine.pieces.length,
+      vertices: baselineSize(engine).vertices,
+    },
     warnings,
   };
 }

@@ -4,7 +4,7 @@
  */
 import type { SweepSummary } from '../../shared/contracts.js';
 import { OVERALL_TEST_METHOD } from '../summary/overall-test.js';
-import { nullName } from '../summary/null-hypothesis.js';
+import { nullName } from '../../shared/null-hypothesis.js';
 import { formatMetres, formatNumber } from '../../shared/format.js';
 
 export interface Reference {
@@ -92,14 +92,17 @@ function baselineText(summary: SweepSummary): string | null {
       'evenly over its part inside the valid region (areal weighting, ' + REFERENCES.goodchildLam.key + '): ' +
       'w_c = sum over polygons p of P_p |c ∩ p ∩ V| / |p ∩ V|, with the areas computed exactly from the polygons, and ' +
       'E_c = N w_c / (sum of w over the kept cells). Areal weighting assumes the population is spread evenly within each ' +
-      'polygon; where it is not, the expected counts are wrong at scales finer than the polygons.' + common
+      'polygon; where it is not, the expected counts are wrong at scales finer than the polygons. The cell tests of the ' +
+      'placement-stable areas use the same E_c, for the data and for the simulated patterns.' + common
     );
   }
   return (
     `Expected counts follow ${baseline.totalInside} control points of ${baseline.file} inside the valid region: w_c is ` +
     'the number of controls in cell c (located by the same rule as the cases) and E_c = N w_c / (sum of w over the kept ' +
     'cells). The per-placement chi-square p-values treat the control counts as exact; only the Monte Carlo test by ' +
-    `random labelling (${REFERENCES.diggle.key}) accounts for their own randomness.` + common
+    `random labelling (${REFERENCES.diggle.key}) accounts for their own randomness. The cell tests of the ` +
+    'placement-stable areas use E_c = N w_c / (sum of w) as well; each random labelling uses its own controls (the ' +
+    'pooled cases and controls of a cell minus its simulated cases), over the cells where it has controls.' + common
   );
 }
 

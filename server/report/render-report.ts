@@ -14,6 +14,7 @@ import { chartLibrarySource } from './chart-library.js';
 import { escapeHtml } from './html-escape.js';
 import { htmlTable } from './html-table.js';
 import { methodsText } from './methods-text.js';
+import { nullStatement } from '../../shared/null-hypothesis.js';
 import { baselineComparisonSection, datasetSection, monteCarloSection, planSection, sizeTable, versionsSection } from './report-sections.js';
 import { REPORT_CHART_SIZE, reportChartScript } from './report-script.js';
 import { REPORT_CSS } from './report-styles.js';
@@ -68,7 +69,7 @@ export function renderReport(summary: SweepSummary, rows: PlacementRow[], map?: 
 <h1>${escapeHtml(title)}</h1>
 <p class="meta">Quadrat test over ${summary.plan.placements} grid placements and ${summary.sizes.length} cell size${summary.sizes.length === 1 ? '' : 's'}; seed ${summary.plan.seed}; finished ${escapeHtml(summary.timings.finishedAt)}.</p>
 <section class="cautions" aria-label="Cautions"><h2>Read before you act on these results</h2><ul>${CAUTIONS.map((caution) => `<li>${escapeHtml(caution)}</li>`).join('')}</ul></section>
-<section><h2>Conclusion</h2>${warnings}<p class="conclusion">${escapeHtml(summary.conclusion)}</p></section>
+<section><h2>Conclusion</h2>${warnings}<p class="null-tested">${escapeHtml(nullStatement(summary.baseline ?? summary.dataset.baseline))}</p><p class="conclusion">${escapeHtml(summary.conclusion)}</p></section>
 ${datasetSection(summary)}
 ${map ? `<section><h2>Map</h2>${reportMapSvg(map)}</section>` : ''}
 ${planSection(summary)}

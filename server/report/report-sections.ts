@@ -1,13 +1,11 @@
 /** The text sections of the report: dataset, plan, per-size table, Monte Carlo results, versions. */
 import type { SweepSummary } from '../../shared/contracts.js';
-import { formatMetres, formatNumber, formatP, formatPercent } from '../../shared/format.js';
-import { sideLabel } from '../../shared/charts/size-label.js';
-import { monteCarloTableData, sizeTableData } from '../../shared/charts/size-tables.js';
+import { formatMetres, formatNumber } from '../../shared/format.js';
+import { baselineComparisonTableData, monteCarloTableData, sizeTableData } from '../../shared/charts/size-tables.js';
 import { datasetSummaryEntries, warningRecords } from '../../shared/charts/dataset-entries.js';
 import { warningTitle } from '../../shared/messages/warning-titles.js';
 import { escapeHtml } from './html-escape.js';
 import { definitionTable, htmlTable } from './html-table.js';
-import { nullName } from '../summary/null-hypothesis.js';
 
 export function datasetSection(summary: SweepSummary): string {
   const dataset = summary.dataset;
@@ -51,30 +49,11 @@ export function sizeTable(summary: SweepSummary): string {
   return htmlTable(table.caption, table.head, table.rows);
 }
 
-/**
- * Against a baseline (issue 15): per cell size, the area-only verdict of the same placements beside the baseline
- * verdict, so a reader sees how much of the "clustering" the population explains. Empty without a baseline.
- */
+/** Against a baseline (issue 15): the area-only and baseline verdicts side by side (shared/charts/size-tables.ts). */
 export function baselineComparisonSection(summary: SweepSummary): string {
-  const baseline = summary.baseline ?? summary.dataset.baseline;
-  if (baseline === undefined) return '';
-  const words = (verdict: string, share: number) => `${verdict === 'csr' ? 'no departure' : verdict} in ${formatPercent(share)}`;
-  const rows = [...summary.sizes]
-    .sort((a, b) => a.cellSize - b.cellSize)
-    .map((size) => [
-      sideLabel(size),
-      size.areaOnly === undefined ? 'n/a' : words(size.areaOnly.mostCommon, size.areaOnly.verdictShares[size.areaOnly.mostCommon]),
-      size.areaOnly === undefined ? 'n/a' : formatNumber(size.areaOnly.chi2PerDfMedian),
-      words(size.mostCommon, size.verdictShares[size.mostCommon]),
-      formatNumber(size.chi2PerDf.p50),
-      formatP(size.monteCarlo?.pMedianClustered),
-    ]);
-  const head = ['cell side', 'against area: verdict of placements', 'median chi2/df (area)', 'against the baseline: verdict of placements', 'median chi2/df (baseline)', 'Monte Carlo p (baseline, median)'];
-  const note =
-    `<p>Against area the null is complete spatial randomness; against the baseline it is ${escapeHtml(nullName(baseline))}. ` +
-    'The area-only columns are per-placement chi-square verdicts (no Monte Carlo); the difference between the two shows how ' +
-    'much of the apparent clustering the population at risk explains.</p>';
-  return `<section><h2>Against area and against the population at risk</h2>${note}${htmlTable('Area-only and baseline verdicts per cell size', head, rows)}</section>`;
+  const table = baselineComparisonTableData(summary);
+  if (table === null) return '';
+  return `<section><h2>Against area and against the population at risk</h2><p>${escapeHtml(table.note)}</p>${htmlTable(table.caption, table.head, table.rows)}</section>`;
 }
 
 export function monteCarloSection(summary: SweepSummary): string {

@@ -3,10 +3,11 @@
  * for drawing, delete. Multipart parts arrive as body fields (@fastify/multipart attachFieldsToBody) and are checked
  * by the body schema before the handler runs; file parts are streamed to the request's upload folder as they arrive
  * (uploadFileHandler), never held in memory, and parsed in a worker thread (DatasetParser).
- * The upload is the only route that takes multipart (config.multipart), with the --body-limit; at most
- * MAX_CONCURRENT_UPLOADS are received at once, more are refused before their body is read.
+ * The upload and the baseline field list (POST /api/datasets/baseline-fields: the numeric properties of a polygon
+ * file, for the page's picker) are the only routes that take multipart (config.multipart), with the --body-limit; at
+ * most MAX_CONCURRENT_UPLOADS are received at once, more are refused before their body is read.
  */
-import type { FastifyInstance, FastifyRequest } from 'fastify';
+import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import type { MultipartFile, MultipartValue } from '@fastify/multipart';
 import { GridshakeError, tooLargeError, tooManyUploadsError } from '../errors.js';
 import { MAX_CONCURRENT_UPLOADS } from '../limits.js';
@@ -74,6 +75,10 @@ const GEOMETRY_RESPONSE = {
         },
         maxDensity: { type: 'number' },
       },
+    },
+    controls: {
+      type: 'object',
+      properties: { points: { type: 'array', items: { type: 'number' } }, total: { type: 'integer' }, stride: { type: 'integer' } },
     },
     studyArea: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
     noDataZones: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
@@ -155,6 +160,30 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
     if (state.counted) receiving -= 1;
     if (state.folder !== null) uploads.remove(state.folder);
   };
+  // before the multipart parser runs: the parser limits each file, this limits the whole request
+  const guardUpload = (route: string) => async (request: FastifyRequest, reply: FastifyReply): Promise<void> => {
+    const type = (request.headers['content-type'] ?? '').toLowerCase();
+    if (!type.startsWith('multipart/form-data')) {
+      throw new GridshakeError('GS_ERR_CONTENT_TYPE', `POST ${route} needs a multipart/form-data upload`);
+    }
+    const length = Number(request.headers['content-length'] ?? Number.NaN);
+    if (!Number.isFinite(length)) {
+      throw new GridshakeError('GS_ERR_LENGTH_REQUIRED', `POST ${route} needs a Content-Length header`);
+    }
+    if (length > bodyLimit) {
+      throw tooLargeError(
+        `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (the upload limit set when the server was started)`,
+      );
+    }
+    if (receiving >= MAX_CONCURRENT_UPLOADS) {
+      reply.header('connection', 'close');
+      throw tooManyUploadsError(
+        `${MAX_CONCURRENT_UPLOADS} uploads are already in progress; send this one again when one of them has finished`,
+      );
+    }
+    receiving += 1;
+    stateOf(request).counted = true;
+  };
   app.post<{ Body: UploadBody }>(
     '/api/datasets',
     {
@@ -162,30 +191,7 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
       bodyLimit,
       onResponse: release,
       onRequestAbort: release,
-      // before the multipart parser runs: the parser limits each file, this limits the whole request
-      onRequest: async (request, reply) => {
-        const type = (request.headers['content-type'] ?? '').toLowerCase();
-        if (!type.startsWith('multipart/form-data')) {
-          throw new GridshakeError('GS_ERR_CONTENT_TYPE', 'POST /api/datasets needs a multipart/form-data upload');
-        }
-        const length = Number(request.headers['content-length'] ?? Number.NaN);
-        if (!Number.isFinite(length)) {
-          throw new GridshakeError('GS_ERR_LENGTH_REQUIRED', 'POST /api/datasets needs a Content-Length header');
-        }
-        if (length > bodyLimit) {
-          throw tooLargeError(
-            `the upload is ${megabytes(length)}, larger than the limit of ${megabytes(bodyLimit)} (the upload limit set when the server was started)`,
-          );
-        }
-        if (receiving >= MAX_CONCURRENT_UPLOADS) {
-          reply.header('connection', 'close');
-          throw tooManyUploadsError(
-            `${MAX_CONCURRENT_UPLOADS} uploads are already in progress; send this one again when one of them has finished`,
-          );
-        }
-        receiving += 1;
-        stateOf(request).counted = true;
-      },
+      onRequest: guardUpload('/api/datasets'),
       schema: {
         body: UPLOAD_BODY,
         response: { 201: { $ref: 'gsDatasetSummary#' }, ...errorResponses(400, 408, 411, 413, 429) },
@@ -212,6 +218,27 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
       });
       return reply.code(201).send(summary);
     },
+  );
+
+  // the numeric properties of a baseline polygon file (GeoJSON or GeoPackage), for the page's field picker (issue 15):
+  // the same upload limits and guards as the upload itself; nothing is stored
+  app.post<{ Body: { baseline: SavedPart } }>(
+    '/api/datasets/baseline-fields',
+    {
+      config: { multipart: true },
+      bodyLimit,
+      onResponse: release,
+      onRequestAbort: release,
+      onRequest: guardUpload('/api/datasets/baseline-fields'),
+      schema: {
+        body: { type: 'object', required: ['baseline'], additionalProperties: false, properties: { baseline: FILE_PART } },
+        response: {
+          200: { type: 'object', required: ['fields'], properties: { fields: { type: 'array', items: { type: 'string' } } } },
+          ...errorResponses(400, 408, 411, 413, 429),
+        },
+      },
+    },
+    async (request) => ({ fields: await datasets.baselineFields(uploaded(request.body.baseline)) }),
   );
 
   app.get(

@@ -1,5 +1,6 @@
 /**
- * What the page needs to draw a dataset: the study area, the no-data zones and the points, decimated for large sets.
+ * What the page needs to draw a dataset: the study area, the no-data zones and the points (and the control points of
+ * a controls baseline), decimated for large sets.
  * Decimation is a deterministic stride: every k-th point with k = ceil(n / maxPoints), so the same dataset always
  * draws the same points, and the drawn ones are spread over the file order (cost O(n / k)).
  */
@@ -23,6 +24,17 @@ function baselineLayer(dataset: Dataset): DatasetGeometry['baseline'] {
   return { polygons, maxDensity: Math.max(0, ...polygons.map((polygon) => polygon.density)) };
 }
 
+/** The control points inside V, every k-th with k = ceil(total / maxPoints) (the points' rule). Cost O(total / k). */
+function controlsLayer(dataset: Dataset, maxPoints: number): DatasetGeometry['controls'] {
+  const engine = dataset.baseline?.engine;
+  if (engine === undefined || engine.kind !== 'controls') return undefined;
+  const total = engine.controls.length / 2;
+  const stride = Math.max(1, Math.ceil(total / Math.max(1, maxPoints)));
+  const points: number[] = [];
+  for (let index = 0; index < total; index += stride) points.push(engine.controls[2 * index]!, engine.controls[2 * index + 1]!);
+  return { points, total, stride };
+}
+
 export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DRAWN_POINTS): DatasetGeometry {
   const totalPoints = dataset.xy.length / 2;
   const stride = Math.max(1, Math.ceil(totalPoints / Math.max(1, maxPoints)));
@@ -44,5 +56,6 @@ export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DR
     bbox: dataset.region.bbox,
     origin: dataset.origin,
     ...(dataset.baseline?.engine.kind === 'polygons' ? { baseline: baselineLayer(dataset) } : {}),
+    ...(dataset.baseline?.engine.kind === 'controls' ? { controls: controlsLayer(dataset, maxPoints) } : {}),
   };
 }

@@ -6,6 +6,8 @@
  * With an in-memory store (tests) there is no file to share: the dataset comes back (copied) and the main thread
  * stores it.
  * Refusals come back as values ({ ok: false, error }), since a thrown error loses its code crossing threads.
+ * The same thread also lists the numeric properties of a baseline polygon file (FieldNamesTask, the page's field
+ * picker for GeoPackage layers), so reading that file never runs on the event loop either.
  */
 import { readFileSync } from 'node:fs';
 import { dirname } from 'node:path';
@@ -13,6 +15,7 @@ import type { Dataset } from '../../shared/contracts.js';
 import { isGridshakeError } from '../errors.js';
 import type { ErrorCode } from '../../shared/error-codes.js';
 import { loadDataset, summarizeDataset, type DatasetOptions } from '../inputs/index.js';
+import { baselineFieldNames } from '../inputs/baseline-field-names.js';
 import type { InputFile } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import { GridshakeStore } from '../store/store.js';
@@ -38,6 +41,13 @@ export interface ParseTask {
   sampleId: string | null;
 }
 
+/** The numeric properties of one baseline polygon file, for the page's field picker (no dataset is made). */
+export interface FieldNamesTask {
+  fieldsOf: UploadedFile;
+}
+
+export type FieldNamesOutcome = { ok: true; fields: string[] } | { ok: false; error: { code: ErrorCode; message: string } };
+
 export type ParseOutcome =
   | { ok: true; summary: StoredDatasetSummary }
   | { ok: true; summary: null; dataset: Dataset; datasetSummary: ReturnType<typeof summarizeDataset> }
@@ -57,7 +67,17 @@ function read(file: UploadedFile): InputFile {
   return { name: file.name, content: new Uint8Array(readFileSync(file.path)) };
 }
 
-export default function parseUpload(task: ParseTask): ParseOutcome {
+function fieldNamesOf(file: UploadedFile): FieldNamesOutcome {
+  try {
+    return { ok: true, fields: baselineFieldNames(read(file)) };
+  } catch (error) {
+    if (isGridshakeError(error)) return { ok: false, error: { code: error.code, message: error.message } };
+    throw error;
+  }
+}
+
+export default function parseUpload(task: ParseTask | FieldNamesTask): ParseOutcome | FieldNamesOutcome {
+  if ('fieldsOf' in task) return fieldNamesOf(task.fieldsOf);
   try {
     const dataset = loadDataset(
       {

@@ -14,7 +14,7 @@ import { GridshakeError, tooLargeError } from '../errors.js';
 import type { DatasetOptions } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import type { GridshakeStore } from '../store/store.js';
-import type { ParseOutcome, ParseTask, UploadedFile } from './dataset-parser-task.js';
+import type { FieldNamesOutcome, FieldNamesTask, ParseOutcome, ParseTask, UploadedFile } from './dataset-parser-task.js';
 import { PACKAGE_ROOT } from './project-paths.js';
 
 export type { UploadedFile };
@@ -63,6 +63,22 @@ export class DatasetParser {
     if (!outcome.ok) throw new GridshakeError(outcome.error.code, outcome.error.message);
     if (outcome.summary !== null) return outcome.summary;
     return this.store.datasets.insert(outcome.dataset, outcome.datasetSummary, sampleId);
+  }
+
+  /** The numeric properties of a baseline polygon file (GeoJSON or GeoPackage), read in the worker; coded refusals. */
+  async baselineFields(file: UploadedFile): Promise<string[]> {
+    const task: FieldNamesTask = { fieldsOf: file };
+    let outcome: FieldNamesOutcome;
+    try {
+      outcome = (await this.pool.run(task)) as FieldNamesOutcome;
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code === 'ERR_WORKER_OUT_OF_MEMORY') {
+        throw tooLargeError(`${file.name}: the file needs more memory than the parser may use (${PARSER_HEAP_MB} MB)`);
+      }
+      throw error;
+    }
+    if (!outcome.ok) throw new GridshakeError(outcome.error.code, outcome.error.message);
+    return outcome.fields;
   }
 
   async destroy(): Promise<void> {

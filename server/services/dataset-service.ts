@@ -9,7 +9,7 @@ import { notFoundError } from '../errors.js';
 import type { DatasetOptions } from '../inputs/index.js';
 import type { StoredDatasetSummary } from '../store/dataset-store.js';
 import type { GridshakeStore } from '../store/store.js';
-import type { DatasetParser, UploadedDataset } from './dataset-parser.js';
+import type { DatasetParser, UploadedDataset, UploadedFile } from './dataset-parser.js';
 import { datasetGeometry } from './dataset-geometry.js';
 import type { SweepQueue } from './sweep-queue.js';
 
@@ -27,6 +27,12 @@ export class DatasetService {
     return this.parser.create(files, { ...options, maxPoints: Math.min(options.maxPoints ?? Infinity, this.maxPoints) }, sampleId);
   }
 
+
+  /** The numeric properties of an uploaded baseline polygon file, for the page's field picker (issue 15). */
+  async baselineFields(file: UploadedFile): Promise<string[]> {
+    if (this.parser === null) throw new Error('this DatasetService has no upload parser');
+    return this.parser.baselineFields(file);
+  }
 
   list(): StoredDatasetSummary[] {
     return this.store.datasets.list();

@@ -11,6 +11,7 @@ import type { SweepRecord } from '../store/sweep-store.js';
 import { FINISHED_STATUSES } from '../store/sweep-store.js';
 import { normalizePlan, resolveCellSizes } from '../sweeps/plan.js';
 import { assertWithinBudget, estimateSweep } from '../sweeps/sweep-budget.js';
+import { baselineSizeOf } from '../../shared/plan-rules.js';
 import type { SweepQueue } from './sweep-queue.js';
 import type { ExecutorChoice } from './sweep-runner.js';
 
@@ -47,7 +48,7 @@ export class SweepService {
     if (dataset === undefined) throw notFoundError(`no dataset with id ${datasetId}`);
     const plan: Plan = normalizePlan(planInput);
     resolveCellSizes(plan, dataset.validArea, dataset.nInside);
-    const estimate = estimateSweep(plan, dataset.nInside, this.workBudget);
+    const estimate = estimateSweep(plan, dataset.nInside, this.workBudget, baselineSizeOf(dataset.baseline));
     assertWithinBudget(estimate);
     const waiting = this.store.sweeps.countQueued();
     if (waiting >= MAX_QUEUED_SWEEPS) {

@@ -1,5 +1,5 @@
 import type { BaselineInfo, MonteCarloResult, OverallTest, SizeSummary } from '../../shared/contracts.js';
-import { beyondNull, nullName } from './null-hypothesis.js';
+import { beyondNull, nullName } from '../../shared/null-hypothesis.js';
 import { formatMetres, formatP, pPhrase } from '../../shared/format.js';
 import { verdictWords } from '../../shared/verdict-words.js';
 import { shapeSentence, shapesOf } from '../../shared/shape-sentence.js';

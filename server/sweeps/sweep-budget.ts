@@ -1,9 +1,10 @@
 /**
  * Work estimate of a sweep and the budget that refuses plans too large to finish in reasonable time or memory.
  * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern; "sizes"
- * counts every (shape, cell size) pair of the plan.
+ * counts every (shape, cell size) pair of the plan; a baseline adds its own work in the same unit (baselineWork).
  */
 import type { Plan, SweepEstimate } from '../../shared/contracts.js';
+import type { BaselineSize } from '../../workers/baseline/baseline.js';
 import { budgetError } from '../errors.js';
 import { planShapes } from './plan.js';
 import { DEFAULT_WORK_BUDGET, MAX_EVALUATIONS, MAX_SIMULATED_BYTES, planWork } from '../../shared/plan-rules.js';
@@ -39,15 +40,23 @@ function sizeCount(plan: Plan): number {
 }
 
 /**
- * Estimates a sweep: work = nInside x placements x sizes x (1 + sims), the number of chunk tasks, the
- * evaluations held for the summary (sizes x placements x (1 + sims)) and the bytes of simulated coordinates.
- * Cost O(1).
+ * Estimates a sweep: work = nInside x placements x sizes x (1 + sims) plus what a baseline adds (areal weighting per
+ * placement and the polygon-intensity simulation, or the controls counted per placement: shared/plan-rules.ts
+ * baselineWork), the number of chunk tasks, the evaluations held for the summary (sizes x placements x (1 + sims))
+ * and the bytes of simulated coordinates. Cost O(1).
  */
-export function estimateSweep(plan: Plan, nInside: number, budget: number = DEFAULT_WORK_BUDGET): SweepEstimate {
+export function estimateSweep(plan: Plan, nInside: number, budget: number = DEFAULT_WORK_BUDGET, baseline?: BaselineSize): SweepEstimate {
   const sizes = sizeCount(plan);
   const perChunk = chunkPlacements(nInside, plan.sims);
-  const { work, evaluations, simulatedBytes } = planWork(nInside, plan.placements, sizes, plan.sims);
-  return { work, budget, tasks: sizes * Math.ceil(plan.placements / perChunk), evaluations, simulatedBytes };
+  const { work, baselineWork, evaluations, simulatedBytes } = planWork(nInside, plan.placements, sizes, plan.sims, baseline);
+  return {
+    work,
+    budget,
+    tasks: sizes * Math.ceil(plan.placements / perChunk),
+    evaluations,
+    simulatedBytes,
+    ...(baseline === undefined ? {} : { baselineWork }),
+  };
 }
 
 function formatCount(value: number): string {
@@ -62,9 +71,14 @@ export function assertWithinBudget(estimate: SweepEstimate): void {
   const shrink = 'fewer placements, fewer sims or fewer cell sizes';
   if (estimate.work > estimate.budget) {
     const factor = estimate.work / estimate.budget;
+    const extra = estimate.baselineWork ?? 0;
+    const terms = extra > 0
+      ? `points x placements x sizes x (1 + sims), plus ${formatCount(extra)} for the population at risk`
+      : 'points x placements x sizes x (1 + sims)';
+    const simpler = extra > 0 ? `${shrink}, or a baseline with fewer or simpler polygons` : shrink;
     throw budgetError(
-      `the plan needs ${formatCount(estimate.work)} point-placements (points x placements x sizes x (1 + sims)), ` +
-        `${factor.toFixed(1)} times the budget of ${formatCount(estimate.budget)}; shrink it at least ${Math.ceil(factor)}-fold: ${shrink}`,
+      `the plan needs ${formatCount(estimate.work)} point-placements (${terms}), ` +
+        `${factor.toFixed(1)} times the budget of ${formatCount(estimate.budget)}; shrink it at least ${Math.ceil(factor)}-fold: ${simpler}`,
     );
   }
   const evaluations = estimate.evaluations ?? 0;

@@ -19,6 +19,7 @@ import { SizeResults } from './size-results.js';
 import type { StabilitySurface } from '../stability/stability-accumulator.js';
 import { stabilitySummary } from '../stability/stability-summary.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv } from './sweep-budget.js';
+import { baselineSize } from '../../workers/baseline/baseline.js';
 import { fromWorkerError, isAbortError, sweepCancelledError } from './sweep-errors.js';
 
 /** Simulated points drawn per simulation task. */
@@ -64,7 +65,9 @@ export class ExecutorSweepRunner {
     const startedAt = new Date();
     const plan = validatedPlan(planInput);
     const cellSizes = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
-    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget));
+    // the baseline's own work from its engine data (pieces, vertices or controls), whatever its record says
+    const baselineCost = dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine);
+    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget, baselineCost));
     if (options.signal?.aborted) throw sweepCancelledError();
     const controller = new AbortController();
     // every task in flight listens to the signal

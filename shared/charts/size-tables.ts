@@ -1,9 +1,11 @@
 /**
  * The two result tables of a sweep, one row per (cell size, shape) entry: the spread, verdict shares and the
- * Monte Carlo p per entry, and the placement-robust Monte Carlo test in full. Built once here and drawn by the page
+ * Monte Carlo p per entry, the placement-robust Monte Carlo test in full and, against a baseline, the area-only and
+ * baseline verdicts side by side. Built once here and drawn by the page
  * (results panel) and the report (server/report/report-sections.ts), so both always show the same numbers.
  */
 import type { SweepSummary } from '../contracts.js';
+import { nullName } from '../null-hypothesis.js';
 import { formatNumber, formatP, formatPercent } from '../format.js';
 import { orderSizes, sideLabel } from './size-label.js';
 
@@ -55,4 +57,29 @@ export function monteCarloTableData(summary: SweepSummary): TableData | null {
   });
   const head = ['cell side', 'sims', 'observed median chi2/df', 'CSR envelope', 'p clustered (median)', 'p regular (median)', 'observed maximum', 'p clustered (maximum)', 'p regular (minimum)', 'placements significant'];
   return { caption: 'Placement-robust Monte Carlo p-values', head, rows };
+}
+
+/**
+ * Against a baseline (issue 15): per entry, the area-only verdict of the same placements (per-placement chi-square
+ * against area, no Monte Carlo) beside the baseline verdict, so a reader sees how much of the "clustering" the
+ * population explains. Null without a baseline. `note` says what the columns are, in words.
+ */
+export function baselineComparisonTableData(summary: SweepSummary): (TableData & { note: string }) | null {
+  const baseline = summary.baseline ?? summary.dataset.baseline;
+  if (baseline === undefined) return null;
+  const words = (verdict: string, share: number) => `${verdict === 'csr' ? 'no departure' : verdict} in ${formatPercent(share)}`;
+  const rows = orderSizes(summary.sizes).map((size) => [
+    sideLabel(size),
+    size.areaOnly === undefined ? 'n/a' : words(size.areaOnly.mostCommon, size.areaOnly.verdictShares[size.areaOnly.mostCommon]),
+    size.areaOnly === undefined ? 'n/a' : formatNumber(size.areaOnly.chi2PerDfMedian),
+    words(size.mostCommon, size.verdictShares[size.mostCommon]),
+    formatNumber(size.chi2PerDf.p50),
+    formatP(size.monteCarlo?.pMedianClustered),
+  ]);
+  const head = ['cell side', 'against area: verdict of placements', 'median chi2/df (area)', 'against the baseline: verdict of placements', 'median chi2/df (baseline)', 'Monte Carlo p (baseline, median)'];
+  const note =
+    `Against area the null is complete spatial randomness; against the baseline it is ${nullName(baseline)}. ` +
+    'The area-only columns are per-placement chi-square verdicts (no Monte Carlo); the difference between the two shows how ' +
+    'much of the apparent clustering the population at risk explains.';
+  return { caption: 'Area-only and baseline verdicts per cell size', head, rows, note };
 }

@@ -158,8 +158,48 @@ describe('count against control points', () => {
     expect(json.baseline).toMatchObject({ kind: 'controls', totalInside: 60 });
     const text = (await run(['count', '--crs', 'planar', '--cell', '100', '--points', join(dirname(json.baseline.file), 'points.csv'),
       '--area', join(dirname(json.baseline.file), 'area.geojson'), '--controls', json.baseline.file])).stdout;
-    expect(text).toContain('Read first: the chi-square p below treats the control counts as exact');
-    expect(text.indexOf('Read first: the chi-square p')).toBeLessThan(text.indexOf('The counts do not depart from the population at risk (controls: '));
+    // the verdict is the calibrated random-labelling Monte Carlo test's (test/stress/count-labelling-calibration.test.ts),
+    // so the former "Read first" warning about the chi-square p is gone; the chi-square p is listed as not the test
+    expect(text).not.toContain('Read first: the chi-square p');
+    expect(text).toContain('The counts do not depart from the population at risk (controls: ');
+    expect(text).toContain('Monte Carlo p from 999 random relabellings of the pooled cases and controls, seed 1, two-sided test at alpha = 0.05');
+    expect(text).toContain("chi-square p (controls as exact)");
+    // the observed statistic of the test is the chi-square's chi2/df (same cells, same weights)
+    expect(json.monteCarlo).toMatchObject({ test: 'random labelling', sims: 999, seed: 1, statistic: 'chi2/df', verdict: 'csr' });
+    expect(json.monteCarlo.observed).toBeCloseTo(6.16 / 7, 10);
+    // p in steps of 1/1000, both tails count ties: pClustered + pRegular >= 1 + 1/1000
+    for (const p of [json.monteCarlo.pClustered, json.monteCarlo.pRegular]) expect(Math.round(p * 1000)).toBeCloseTo(p * 1000, 9);
+    expect(json.monteCarlo.pClustered + json.monteCarlo.pRegular).toBeGreaterThanOrEqual(1 + 1 / 1000 - 1e-12);
+  });
+
+  it('the Monte Carlo test is seeded and reproducible, and finds cases clustered among controls', async () => {
+    const file = write();
+    const area = file('area.geojson', polygonFile([STUDY]));
+    const controls = file('controls.csv', pointsCsv([5, 5, 5, 5, 5, 5, 5, 5]));
+    // 50 cases, 30 of them in one cell: far beyond the controls (5 in every cell)
+    const cases = file('cases.csv', pointsCsv([2, 2, 30, 2, 2, 4, 4, 4]));
+    const base = ['--points', cases, '--area', area, '--controls', controls];
+    const first = await countJson([...base, '--sims', '199', '--seed', '5']);
+    const again = await countJson([...base, '--sims', '199', '--seed', '5']);
+    expect(again.monteCarlo).toEqual(first.monteCarlo);
+    expect(first.monteCarlo).toMatchObject({ sims: 199, seed: 5, verdict: 'clustered' });
+    // no random labelling is as extreme: p = 1/(R + 1)
+    expect(first.monteCarlo.pClustered).toBeCloseTo(1 / 200, 12);
+    const text = (await run(['count', '--crs', 'planar', '--cell', '100', ...base, '--sims', '199', '--seed', '5'])).stdout;
+    expect(text).toContain('The counts show clustering beyond the population at risk (controls: ');
+    expect(text).toContain('p = 0.005, Monte Carlo p from 199 random relabellings');
+  });
+
+  it('refuses --sims too few to reject at alpha, and --sims or --seed without controls', async () => {
+    const file = write();
+    const base = ['count', '--crs', 'planar', '--cell', '100', '--points', file('points.csv', pointsCsv(OBSERVED)), '--area', file('area.geojson', polygonFile([STUDY]))];
+    const few = await run([...base, '--controls', file('controls.csv', pointsCsv([5, 5, 10, 10, 5, 5, 10, 10])), '--sims', '9']);
+    expect(few.code).not.toBe(0);
+    expect(few.stderr.trim().split('\n')).toHaveLength(1);
+    expect(few.stderr).toMatch(/--sims 9: count --controls needs 19 to 9999 random labellings at alpha 0\.05/);
+    const area = await run([...base, '--sims', '99']);
+    expect(area.code).not.toBe(0);
+    expect(area.stderr).toMatch(/--sims applies only with --controls/);
   });
 });
 

@@ -76,3 +76,24 @@ describe('sweep against baseline polygons', () => {
     expect(largestExcess(against.summary)).toBeGreaterThan(0.5);
   }, 240_000);
 });
+
+describe('stability flags against control points', () => {
+  // controls drawn from the same population as the cases (twice as many); the flags use E_c = N w_c / Σ w with w the
+  // controls in the cell, and each random labelling its own controls (workers/baseline/relabelled-flags.ts)
+  const CONTROLS = (controls: number[][]) => ['--controls', `CONTROLS:${csv(controls)}`];
+  async function sweepWithControls(points: number[][], controls: number[][]) {
+    const file = write();
+    const extra = CONTROLS(controls).map((arg) => (arg.startsWith('CONTROLS:') ? file('controls.csv', arg.slice('CONTROLS:'.length)) : arg));
+    return sweep(points, extra);
+  }
+
+  it('a pattern that follows the population has no stable excess against the controls; an extra cluster does', async () => {
+    const controls = populationPoints(1600, 12);
+    const follows = await sweepWithControls(populationPoints(800, 11), controls);
+    expect(follows.summary.expectedFrom).toBe('controls');
+    // against area the dense blocks are excess in almost every placement (first test); against the controls not
+    expect(largestExcess(follows.summary), `largest excess share ${largestExcess(follows.summary)}`).toBeLessThan(0.5);
+    const cluster = await sweepWithControls([...populationPoints(800, 11), ...discPoints(60, 250, 1250, 120, 5)], controls);
+    expect(largestExcess(cluster.summary), `largest excess share ${largestExcess(cluster.summary)}`).toBeGreaterThan(0.5);
+  }, 240_000);
+});

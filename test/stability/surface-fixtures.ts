@@ -5,6 +5,7 @@
  * given the transformed copies of the same simulated patterns. Invented data only.
  */
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
+import type { BaselineWeigher } from '../../workers/baseline/baseline-weights.js';
 import { createCellCounter } from '../../workers/placement/index.js';
 import { createCsrSampler, createRandom, deriveSeed } from '../../workers/random/index.js';
 import { stabilityRaster, validPixels } from '../../workers/stability/stability-raster.js';
@@ -25,6 +26,8 @@ export interface SurfaceInput {
   alpha?: number;
   /** placements per chunk (the result must not depend on it) */
   chunk?: number;
+  /** expected counts from a baseline (workers/baseline) instead of area; the simulated patterns must follow its null */
+  baseline?: BaselineWeigher;
 }
 
 /** The grid origin of shared/design.md: the region's bounding box's lower-left corner. */
@@ -50,6 +53,7 @@ export function runSurface(input: SurfaceInput): StabilitySurface {
     minCoverage: input.minCoverage ?? 0.5,
     alpha,
     stability: { raster, pixels },
+    ...(input.baseline === undefined ? {} : { baseline: input.baseline }),
   };
   const count = input.placements.length / 3;
   const perChunk = input.chunk ?? count;

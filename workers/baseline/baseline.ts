@@ -37,3 +37,22 @@ export function expectedFromOf(baseline: Baseline | undefined): ExpectedFrom {
  * (issue 15: "a polygon or cell whose share is below 1e-9 of its own area is treated as zero").
  */
 export const BASELINE_SHARE_NOISE = 1e-9;
+
+/** What the work budget counts of a baseline (shared/plan-rules.ts baselineWork). */
+export interface BaselineSize {
+  kind: Baseline['kind'];
+  /** polygons: the pieces p ∩ V; controls: 0 */
+  pieces: number;
+  /** polygons: the pieces' ring vertices (each ring's closing vertex not repeated); controls: 0 */
+  vertices: number;
+  /** controls: the control points inside V; polygons: 0 */
+  controls: number;
+}
+
+/** The size of a baseline's engine data. Cost O(pieces + rings). */
+export function baselineSize(baseline: Baseline): BaselineSize {
+  if (baseline.kind === 'controls') return { kind: 'controls', pieces: 0, vertices: 0, controls: baseline.controls.length / 2 };
+  let vertices = 0;
+  for (const piece of baseline.pieces) for (const ring of piece.rings) vertices += ring.length / 2;
+  return { kind: 'polygons', pieces: baseline.pieces.length, vertices, controls: 0 };
+}

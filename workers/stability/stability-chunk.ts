@@ -100,11 +100,15 @@ export class StabilityChunk {
     this.addPixels(this.flags.deficit, found.deficit, this.deficit);
   }
 
-  /** Adds simulated pattern r's excess / deficit cells of the current placement to the sparse list. */
-  addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array): void {
+  /**
+   * Adds simulated pattern r's excess / deficit cells of the current placement to the sparse list. The tested cells
+   * are the placement's kept cells, or, with `keptIndex` (random labelling: workers/baseline/relabelled-flags.ts),
+   * cells of their own whose kept index is keptIndex[c] (−1: not a kept cell of the placement, no pixels).
+   */
+  addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array, keptIndex: Int32Array | null = null): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags);
-    this.listPixels(this.flags.excess, found.excess, 2 * pattern + EXCESS);
-    this.listPixels(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT);
+    this.listPixels(this.flags.excess, found.excess, 2 * pattern + EXCESS, keptIndex);
+    this.listPixels(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT, keptIndex);
   }
 
   /** Adds 1 at the pixels of the listed kept cells. */
@@ -115,10 +119,11 @@ export class StabilityChunk {
     }
   }
 
-  /** Lists (code, pixel) for the pixels of the listed kept cells. */
-  private listPixels(cells: Int32Array, count: number, code: number): void {
+  /** Lists (code, pixel) for the pixels of the listed kept cells (mapped through keptIndex when given). */
+  private listPixels(cells: Int32Array, count: number, code: number, keptIndex: Int32Array | null): void {
     for (let c = 0; c < count; c++) {
-      const k = cells[c]!;
+      const k = keptIndex === null ? cells[c]! : keptIndex[cells[c]!]!;
+      if (k < 0) continue;
       for (let t = this.start[k]!; t < this.start[k + 1]!; t++) this.simulated.push(code, this.pixelsOfKept[t]!);
     }
   }

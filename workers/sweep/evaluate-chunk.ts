@@ -9,6 +9,7 @@ import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
 import type { BaselineWeigher } from '../baseline/baseline-weights.js';
 import { poolCounts, relabelledChiSquare } from '../baseline/relabelled-chi-square.js';
+import { keptIndexOfCoverage, RelabelledFlagInput } from '../baseline/relabelled-flags.js';
 import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
 import { StabilityChunk } from '../stability/stability-chunk.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
@@ -47,6 +48,7 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   let scratch: Int32Array = new Int32Array(0);
   let kept: Float64Array = new Float64Array(0);
   const stability = context.stability === undefined ? null : new StabilityChunk(context.stability.raster, context.stability.pixels, context.alpha);
+  const labelling = new RelabelledFlagInput();
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
     const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
@@ -57,10 +59,11 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     const { expectation } = evaluated;
     const relabel = expectation.expectedFrom === 'controls' && expectation.coverageKept !== undefined && expectation.gridWeights !== undefined;
     const pool = relabel ? poolCounts(evaluated.counts, expectation.gridWeights!, expectation.coverageKept!) : null;
-    // the stability flags' expected counts: E_c = N w_c / Σ w against baseline polygons (the simulations follow the
-    // same weights); by area otherwise. Under random labelling each labelling would have its own weights, so the
-    // flags there stay by area: one statistic of the cases alone, which relabelling calibrates exactly.
-    const flagWeights = expectation.expectedFrom === 'baseline' ? expectation.weights : evaluated.kept.coverage;
+    // the stability flags' expected counts: E_c = N w_c / Σ w against a baseline, by area otherwise. Polygons: the
+    // simulations follow the same weights. Controls: each labelling has its own controls (pool − simulated cases), so
+    // its flags use its own weights over the cells where it has controls (workers/baseline/relabelled-flags.ts)
+    const flagWeights = expectation.expectedFrom === 'area' ? evaluated.kept.coverage : expectation.weights;
+    const keptOf = pool !== null && stability !== null ? keptIndexOfCoverage(expectation.coverageKept!, evaluated.kept) : null;
     if (stability !== null) {
       stability.beginPlacement(
         pixelCellLocator(context.shape, context.origin, context.cellSize, placement, evaluated.grid),
@@ -76,7 +79,12 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
       const { chi2, df } = pool !== null ? relabelledChiSquare(scratch, pool, expectation.coverageKept!) : dispersionChiSquare(counts, expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
-      stability?.addSimulated(r, counts, flagWeights);
+      if (stability !== null && keptOf !== null) {
+        const m = labelling.fill(scratch, pool!, expectation.coverageKept!, keptOf);
+        stability.addSimulated(r, labelling.counts.subarray(0, m), labelling.weights.subarray(0, m), labelling.keptIndex);
+      } else {
+        stability?.addSimulated(r, counts, flagWeights);
+      }
     }
   }
   if (stability === null) return result;

@@ -90,6 +90,12 @@ export const api = {
   /** the points drawn on the map: up to the server's limit of 1e5 (the map layer decimates on screen) */
   geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry?maxPoints=100000`),
   upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
+  /** the numeric properties of a baseline polygon file read by the server (a GeoPackage layer), for the field picker */
+  baselineFields: (file: File) => {
+    const form = new FormData();
+    form.append('baseline', file, file.name);
+    return request<{ fields: string[] }>('/api/datasets/baseline-fields', { method: 'POST', body: form });
+  },
   startSweep: (datasetId: string, plan: Plan) =>
     request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
   sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),

@@ -1,7 +1,7 @@
 /**
  * The population at risk (issue 15) as an optional map layer: the baseline polygons' parts inside the valid region,
  * each filled by its density P_p / |p ∩ V| per km² on the sequential ramp (darker = denser, relative to the densest
- * polygon), under the grid and the points. Control points are not drawn (they can be as personal as the cases).
+ * polygon), under the grid and the points. Control points have their own layer (controls-layer.ts).
  */
 import Feature from 'ol/Feature.js';
 import Polygon from 'ol/geom/Polygon.js';

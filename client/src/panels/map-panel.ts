@@ -13,6 +13,7 @@ import { downloadName, fileSlug } from '../../../shared/messages/download-names.
 import { cellLines } from '../map/cell-readout.js';
 import { BASELINE_LAYER_ID, baselineLayerEntry } from '../map/baseline-layer.js';
 import { BASEMAP_LAYER_ID, basemapLayerEntry } from '../map/basemap-layer.js';
+import { CONTROLS_LAYER_ID, controlsLayerEntry } from '../map/controls-layer.js';
 import { GridshakeMap } from '../map/gridshake-map.js';
 import { layerList } from '../map/layer-list.js';
 import { legendElement } from '../map/map-legend.js';
@@ -127,10 +128,14 @@ export function initMapPanel(target: HTMLElement, caption: HTMLElement, legend: 
       const baseline = baselineLayerEntry(state.geometry);
       if (baseline) map.setOptionalLayer(baseline);
       else map.removeOptionalLayer(BASELINE_LAYER_ID);
+      // control points: their own layer, distinct from the cases
+      const controls = controlsLayerEntry(state.geometry);
+      if (controls) map.setOptionalLayer(controls);
+      else map.removeOptionalLayer(CONTROLS_LAYER_ID);
       target.dataset.gridCells = '0';
       const geometry = state.geometry;
       caption.textContent = geometry && state.dataset
-        ? `${state.dataset.name}: study area, ${geometry.baseline ? 'population at risk (density per km²), ' : ''}no-data zones (hatched) and ${geometry.points.length / 2} of ${geometry.totalPoints} points${geometry.stride > 1 ? ` (every ${geometry.stride}th drawn)` : ''}.`
+        ? `${state.dataset.name}: study area, ${geometry.baseline ? 'population at risk (density per km²), ' : ''}${geometry.controls ? `${geometry.controls.points.length / 2} control points, ` : ''}no-data zones (hatched) and ${geometry.points.length / 2} of ${geometry.totalPoints} points${geometry.stride > 1 ? ` (every ${geometry.stride}th drawn)` : ''}.`
         : 'No dataset yet.';
       refreshLegend();
     }

@@ -3,7 +3,8 @@
  * depends on the cell shape), the cell-size and verdict charts and the tables per cell size and shape (spread,
  * verdict shares, Monte Carlo p; the report's tables, shared/charts/size-tables.ts), then for a chosen entry the
  * VMR against angle, the offset heat map and the Monte Carlo histogram, with the conclusion and its numbers. Clicking
- * a placement in any chart (or the buttons) shows its grid on the map.
+ * a placement in any chart (or the buttons) shows its grid on the map. The null tested is named above the conclusion,
+ * and against a baseline the area-only and baseline verdicts stand side by side (shared/, as in the report).
  */
 import type { SweepSummary } from '../../../shared/contracts.js';
 import type { Store } from '../app-state.js';
@@ -15,7 +16,8 @@ import { ChartView, setPngNamer, type ChartClick } from '../ui/chart-view.js';
 import { downloadName } from '../../../shared/messages/download-names.js';
 import { clear, el, field, textTable } from '../ui/dom.js';
 import { orderSizes, sideLabel } from '../../../shared/charts/size-label.js';
-import { monteCarloTableData, sizeTableData } from '../../../shared/charts/size-tables.js';
+import { baselineComparisonTableData, monteCarloTableData, sizeTableData } from '../../../shared/charts/size-tables.js';
+import { nullStatement } from '../../../shared/null-hypothesis.js';
 import { shapeSentence } from '../../../shared/shape-sentence.js';
 import { heatmapLegend } from './heatmap-legend.js';
 import { placementPicker } from './placement-picker.js';
@@ -122,11 +124,14 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
     const twoShapes = new Set(summary.sizes.map((size) => size.shape ?? 'square')).size > 1;
     const sizeTable = sizeTableData(summary);
     const monteCarloTable = monteCarloTableData(summary);
+    // against a baseline (issue 15): the area-only and baseline verdicts side by side, as in the report
+    const comparison = baselineComparisonTableData(summary);
     sizeSelect.addEventListener('change', () => store.update({ sizeIndex: Number(sizeSelect.value) }));
     clear(
       container,
       // warnings first: a warning that makes a p-value meaningless is read before the p-value
       el('div', { class: 'conclusion-box' }, el('h3', {}, 'In plain words'),
+        el('p', { class: 'null-tested', 'data-testid': 'null-tested' }, nullStatement(summary.baseline ?? summary.dataset.baseline)),
         summary.warnings.length > 0 ? el('ul', { class: 'warning-list', 'aria-label': 'Warnings about this run' }, ...summary.warnings.map((warning) => el('li', {}, warning))) : null,
         el('p', { class: 'conclusion', 'data-testid': 'overall-conclusion' }, summary.conclusion),
         twoShapes ? el('p', { class: 'conclusion', 'data-testid': 'shape-sentence' }, `${shapeSentence(summary.sizes)}.`) : null),
@@ -135,6 +140,9 @@ export function initResultsPanel(container: HTMLElement, store: Store, pick: Pic
       overviewBox,
       el('div', { class: 'table-scroll', 'data-testid': 'size-table' }, textTable(sizeTable.caption, sizeTable.head, sizeTable.rows)),
       monteCarloTable ? el('div', { class: 'table-scroll', 'data-testid': 'monte-carlo-table' }, textTable(monteCarloTable.caption, monteCarloTable.head, monteCarloTable.rows)) : null,
+      comparison ? el('h3', {}, 'Against area and against the population at risk') : null,
+      comparison ? el('p', { class: 'hint', 'data-testid': 'baseline-comparison-note' }, comparison.note) : null,
+      comparison ? el('div', { class: 'table-scroll', 'data-testid': 'baseline-comparison' }, textTable(comparison.caption, comparison.head, comparison.rows)) : null,
       el('h3', {}, 'One cell side in detail'),
       field('Cell side', sizeSelect),
       detailBox,

@@ -3,6 +3,12 @@ import { api, ApiError, type StoredDataset } from '../api/api-client.js';
 import { el, field, message } from '../ui/dom.js';
 import { numericProperties } from './numeric-properties.js';
 
+/** True when the file starts like an SQLite database (a GeoPackage is one): its layer is read by the server. */
+async function isSqlite(file: File): Promise<boolean> {
+  const head = new Uint8Array(await file.slice(0, 16).arrayBuffer());
+  return String.fromCharCode(...head) === 'SQLite format 3\u0000';
+}
+
 export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLElement {
   const points = el('input', { type: 'file', name: 'points', required: true, accept: '.csv,.txt,.geojson,.json,.gpkg' });
   const area = el('input', { type: 'file', name: 'area', accept: '.geojson,.json,.gpkg' });
@@ -33,17 +39,30 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
   );
   const riskFile = el('input', { type: 'file', name: 'baseline', accept: '.geojson,.json,.gpkg,.csv,.txt', disabled: true });
   const riskField = el('select', { name: 'baselineField', disabled: true }, el('option', { value: '' }, 'choose the polygons first'));
-  const riskFieldTyped = el('input', { type: 'text', name: 'baselineFieldName', maxlength: 200, placeholder: 'GeoPackage: type the column name', disabled: true });
+  const riskFieldStatus = el('span', { class: 'field-hint', 'aria-live': 'polite', 'data-testid': 'baseline-field-status' });
+  let fieldRequest = 0;
+  // the picker lists the numeric properties of every feature: GeoJSON is read here, a GeoPackage layer by the server
   const refreshRiskField = async (): Promise<void> => {
+    const request = (fieldRequest += 1);
     const file = riskFile.files?.[0];
-    const polygons = riskKind.value === 'polygons';
-    riskFieldTyped.disabled = !polygons || file === undefined || !file.name.toLowerCase().endsWith('.gpkg');
-    if (!polygons || file === undefined || !riskFieldTyped.disabled) {
-      riskField.replaceChildren(el('option', { value: '' }, polygons && file !== undefined ? 'type the column name' : 'choose the polygons first'));
+    riskFieldStatus.textContent = '';
+    if (riskKind.value !== 'polygons' || file === undefined) {
+      riskField.replaceChildren(el('option', { value: '' }, 'choose the polygons first'));
       riskField.disabled = true;
       return;
     }
-    const names = numericProperties(await file.text());
+    riskField.replaceChildren(el('option', { value: '' }, 'reading the file...'));
+    riskField.disabled = true;
+    let names: string[];
+    try {
+      names = (await isSqlite(file)) ? (await api.baselineFields(file)).fields : numericProperties(await file.text());
+    } catch (error) {
+      if (request !== fieldRequest) return;
+      riskField.replaceChildren(el('option', { value: '' }, 'no field could be read'));
+      riskFieldStatus.replaceChildren(message('error', error instanceof Error ? error.message : String(error)));
+      return;
+    }
+    if (request !== fieldRequest) return;
     riskField.replaceChildren(
       ...(names.length === 0 ? [el('option', { value: '' }, 'no numeric property in every feature')] : names.map((n) => el('option', { value: n }, n))),
     );
@@ -68,8 +87,8 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
       el('legend', {}, 'Population at risk (optional)'),
       field('Expected counts follow', riskKind, 'Crime and disease records follow where people are: test clustering beyond them, not beyond area.'),
       field('Population file (polygons: GeoJSON or GeoPackage; controls: as the points)', riskFile),
-      field('Count field', riskField, 'The numeric property holding each polygon\'s population at risk.'),
-      field('Count column (GeoPackage)', riskFieldTyped),
+      field('Count field', riskField, 'The numeric property holding each polygon\'s population at risk (GeoJSON or GeoPackage).'),
+      riskFieldStatus,
     ),
     field('Coordinate system', crs),
     field('EPSG code', epsg),
@@ -103,8 +122,7 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
     const riskUpload = riskFile.files?.[0];
     if (riskKind.value !== '' && riskUpload !== undefined) {
       body.append(riskKind.value === 'controls' ? 'controls' : 'baseline', riskUpload, riskUpload.name);
-      const chosen = riskFieldTyped.disabled ? riskField.value : riskFieldTyped.value.trim();
-      if (riskKind.value === 'polygons' && chosen !== '') body.append('baselineField', chosen);
+      if (riskKind.value === 'polygons' && riskField.value !== '') body.append('baselineField', riskField.value);
     }
     submit.disabled = true;
     feedback.replaceChildren(message('info', 'Reading and checking the files...'));

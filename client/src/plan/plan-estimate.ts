@@ -1,14 +1,17 @@
 /**
  * The live cost estimate of a plan, the server's formula and limits (shared/plan-rules.ts):
  * work = points inside x placements x sizes x (1 + sims) point-placements, and evaluations = sizes x placements x
- * (1 + sims) grid evaluations, where "sizes" counts every (shape, cell size) pair. Cost O(1).
+ * (1 + sims) grid evaluations, where "sizes" counts every (shape, cell size) pair; a baseline adds its own work
+ * (shared/plan-rules.ts baselineWork), as the server counts it. Cost O(1).
  */
-import type { Plan } from '../../../shared/contracts.js';
-import { MAX_EVALUATIONS, planWork } from '../../../shared/plan-rules.js';
+import type { BaselineInfo, Plan } from '../../../shared/contracts.js';
+import { baselineSizeOf, MAX_EVALUATIONS, planWork } from '../../../shared/plan-rules.js';
 import { shapeList } from '../../../workers/lattice/cell-shape.js';
 
 export interface PlanCost {
   work: number;
+  /** the part of work the population at risk adds (0 against area) */
+  baselineWork: number;
   evaluations: number;
   /** work / budget; null when the budget is unknown */
   shareOfBudget: number | null;
@@ -16,9 +19,9 @@ export interface PlanCost {
   refusal: string | null;
 }
 
-export function planCost(plan: Plan, nInside: number, budget: number | null): PlanCost {
+export function planCost(plan: Plan, nInside: number, budget: number | null, baseline?: BaselineInfo): PlanCost {
   const sizes = (plan.cells ?? plan.perCell ?? []).length * shapeList(plan.shape).length;
-  const { work, evaluations } = planWork(nInside, plan.placements, sizes, plan.sims);
+  const { work, baselineWork, evaluations } = planWork(nInside, plan.placements, sizes, plan.sims, baselineSizeOf(baseline));
   let refusal: string | null = null;
   if (budget !== null && work > budget) {
     const factor = work / budget;
@@ -27,5 +30,5 @@ export function planCost(plan: Plan, nInside: number, budget: number | null): Pl
     const factor = evaluations / MAX_EVALUATIONS;
     refusal = `Too large: ${evaluations.toExponential(2)} grid evaluations is ${factor.toFixed(1)} times the limit of ${MAX_EVALUATIONS.toExponential(2)}. Use fewer placements, simulations or cell sides.`;
   }
-  return { work, evaluations, shareOfBudget: budget === null ? null : work / budget, refusal };
+  return { work, baselineWork, evaluations, shareOfBudget: budget === null ? null : work / budget, refusal };
 }

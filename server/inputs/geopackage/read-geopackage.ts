@@ -13,6 +13,11 @@ export interface GeoPackageFeatures {
   features: LabelledFeature[];
   /** 'EPSG:n' from the layer's spatial reference system, or undefined when the file leaves it undefined */
   crs: string | undefined;
+  /**
+   * the layer's INTEGER PRIMARY KEY column (the feature id the GeoPackage standard requires of a feature table,
+   * OGC 12-128r18 requirement 29), which is in each feature's properties but is never a count; undefined if none
+   */
+  idColumn?: string;
 }
 
 interface LayerRow {
@@ -99,7 +104,10 @@ export function readGeoPackageFeatures(file: InputFile): GeoPackageFeatures {
         throw inputError(`${label}: ${(error as Error).message}`);
       }
     });
-    return { features, crs: declaredCrs(layer) };
+    const keys = (db.prepare(`PRAGMA table_info(${quoteIdentifier(layer.table_name)})`).all() as { name: string; type: string; pk: number }[])
+      .filter((column) => column.pk > 0);
+    const idColumn = keys.length === 1 && keys[0]!.type.toUpperCase() === 'INTEGER' ? keys[0]!.name : undefined;
+    return { features, crs: declaredCrs(layer), ...(idColumn === undefined ? {} : { idColumn }) };
   } finally {
     db.close();
   }
