@@ -145,6 +145,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     poolSize: runner.threads ?? 1,
     datasets: store.datasets.count(),
     workBudget,
+    executors: runner.executors ?? ['local'],
   }));
   registerDatasetRoutes(app, datasets, bodyLimit, uploads);
   registerSweepRoutes(app, sweeps);

@@ -1,5 +1,9 @@
-/** GET /api/health: version, database path and worker pool size, for the page header and for scripts. */
+/**
+ * GET /api/health: version, database path, worker pool size, work budget and where sweeps may run (the executors,
+ * the default first: the page offers the choice only on a server with a Redis queue), for the page and for scripts.
+ */
 import type { FastifyInstance } from 'fastify';
+import { EXECUTOR_CHOICES, type ExecutorChoice } from '../services/sweep-runner.js';
 import { errorResponses } from './error-handler.js';
 
 export interface HealthInfo {
@@ -10,6 +14,8 @@ export interface HealthInfo {
   datasets?: number;
   /** work budget of one sweep in point-placements, for the page's live cost estimate */
   workBudget?: number;
+  /** where a sweep may run (`executor` of POST /api/sweeps), the default first: ["local"], or ["queue", "local"] */
+  executors?: readonly ExecutorChoice[];
 }
 
 export function registerHealthRoutes(app: FastifyInstance, health: () => HealthInfo): void {
@@ -28,6 +34,7 @@ export function registerHealthRoutes(app: FastifyInstance, health: () => HealthI
               poolSize: { type: 'integer' },
               datasets: { type: 'integer' },
               workBudget: { type: 'number' },
+              executors: { type: 'array', items: { type: 'string', enum: EXECUTOR_CHOICES } },
             },
           },
           ...errorResponses(),

@@ -3,7 +3,7 @@
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
-import type { DatasetGeometry, DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
+import type { DatasetGeometry, DatasetSummary, ExecutorChoice, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -16,6 +16,8 @@ export interface HealthInfo {
   version: string;
   poolSize: number;
   workBudget?: number;
+  /** where a sweep may run, the default first; more than one only on a server with a Redis queue */
+  executors?: ExecutorChoice[];
 }
 
 export interface StoredDataset extends DatasetSummary {
@@ -35,6 +37,8 @@ export interface SweepRecord {
   progress: SweepProgress;
   summary?: SweepSummary | null;
   error?: string | null;
+  /** where its tasks ran (null: stored before this was recorded) */
+  executor?: ExecutorChoice | null;
   createdAt?: string;
 }
 
@@ -76,8 +80,9 @@ export const api = {
   /** the points drawn on the map: up to the server's limit of 1e5 (the map layer decimates on screen) */
   geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry?maxPoints=100000`),
   upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
-  startSweep: (datasetId: string, plan: Plan) =>
-    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
+  /** `executor` absent: the server's default */
+  startSweep: (datasetId: string, plan: Plan, executor?: ExecutorChoice) =>
+    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody(executor === undefined ? { datasetId, plan } : { datasetId, plan, executor })),
   sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),
   sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
   deleteDataset: (id: string) => request<void>(`/api/datasets/${id}`, { method: 'DELETE' }),
