@@ -150,6 +150,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     datasets: store.datasets.count(),
     workBudget,
     ...(options.basemap === undefined ? {} : { basemap: options.basemap.template }),
+    executors: runner.executors ?? ['local'],
   }));
   registerDatasetRoutes(app, datasets, bodyLimit, uploads);
   registerSweepRoutes(app, sweeps);

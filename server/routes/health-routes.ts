@@ -1,5 +1,9 @@
-/** GET /api/health: version, database path and worker pool size, for the page header and for scripts. */
+/**
+ * GET /api/health: version, database path, worker pool size, work budget and where sweeps may run (the executors,
+ * the default first: the page offers the choice only on a server with a Redis queue), for the page and for scripts.
+ */
 import type { FastifyInstance } from 'fastify';
+import { EXECUTOR_CHOICES, type ExecutorChoice } from '../services/sweep-runner.js';
 import { errorResponses } from './error-handler.js';
 
 export interface HealthInfo {
@@ -12,6 +16,8 @@ export interface HealthInfo {
   workBudget?: number;
   /** the analyst's own XYZ tile server (serve --basemap), when configured */
   basemap?: string;
+  /** where a sweep may run (`executor` of POST /api/sweeps), the default first: ["local"], or ["queue", "local"] */
+  executors?: readonly ExecutorChoice[];
 }
 
 export function registerHealthRoutes(app: FastifyInstance, health: () => HealthInfo): void {
@@ -31,6 +37,7 @@ export function registerHealthRoutes(app: FastifyInstance, health: () => HealthI
               datasets: { type: 'integer' },
               workBudget: { type: 'number' },
               basemap: { type: 'string' },
+              executors: { type: 'array', items: { type: 'string', enum: EXECUTOR_CHOICES } },
             },
           },
           ...errorResponses(),

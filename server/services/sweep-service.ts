@@ -57,18 +57,31 @@ export class SweepService {
           'start this one when some have finished, or cancel some',
       );
     }
-    const record = this.store.sweeps.create({ datasetId, plan, estimate, rerunOf });
-    this.queue.enqueue(record.id, executor ?? this.executors[0]);
+    // stored as chosen (the server's default when absent), so that the record shows it and a rerun goes there too
+    const chosen = executor ?? this.executors[0];
+    const record = this.store.sweeps.create({ datasetId, plan, estimate, rerunOf, executor: chosen });
+    this.queue.enqueue(record.id, chosen);
     return this.view(record, false);
   }
 
-  /** A new sweep from a finished sweep's stored plan (e.g. one interrupted by a restart). */
+  /**
+   * A new sweep from a finished sweep's stored plan (e.g. one interrupted by a restart), on the executor that sweep
+   * used (the server's default for sweeps stored before executors were recorded). A queue sweep on a server without
+   * a queue is refused (GS_ERR_PARAMETER), not moved to this machine unasked.
+   */
   rerun(id: string): SweepView {
     const record = this.record(id);
     if (!FINISHED_STATUSES.includes(record.status)) {
       throw conflictError(`sweep ${id} is ${record.status}; rerun it once it has finished, or cancel it first`);
     }
-    return this.start(record.datasetId, record.plan, id);
+    const executor = record.executor ?? undefined;
+    if (executor !== undefined && !this.executors.includes(executor)) {
+      throw parameterError(
+        `sweep ${id} ran on a Redis queue and this server sends no sweeps to one: start the server with --queue URL ` +
+          '(or GRIDSHAKE_QUEUE) to rerun it there, or start a new sweep with its plan to run it on this machine',
+      );
+    }
+    return this.start(record.datasetId, record.plan, id, executor);
   }
 
   /** One page of sweeps (newest first) and how many there are in all. */

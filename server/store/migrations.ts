@@ -57,4 +57,7 @@ export const MIGRATIONS: readonly string[] = [
   // 4: the population at risk of a dataset (issue 15), the engine's baseline v8-serialised (typed arrays kept exact);
   // NULL when expected counts follow area
   `ALTER TABLE datasets ADD COLUMN baseline BLOB;`,
+  // 5: where a sweep's tasks ran ('local' or 'queue', shared/contracts.ts ExecutorChoice), so that a rerun runs there
+  // too; NULL for sweeps stored before it was recorded (they ran on the server's default)
+  `ALTER TABLE sweeps ADD COLUMN executor TEXT;`,
 ];

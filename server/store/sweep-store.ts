@@ -5,7 +5,7 @@
  */
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
-import type { Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../shared/contracts.js';
+import type { ExecutorChoice, Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../shared/contracts.js';
 import { fromStoredJson, toStoredJson } from './blob-codec.js';
 
 export interface SweepRecord {
@@ -20,6 +20,8 @@ export interface SweepRecord {
   conclusion: string | null;
   error: string | null;
   rerunOf: string | null;
+  /** where its tasks run: the server's own pool or the Redis queue; null for sweeps stored before it was recorded */
+  executor: ExecutorChoice | null;
   createdAt: string;
   startedAt: string | null;
   finishedAt: string | null;
@@ -36,13 +38,14 @@ interface SweepRow {
   conclusion: string | null;
   error: string | null;
   rerun_of: string | null;
+  executor: ExecutorChoice | null;
   created_at: string;
   started_at: string | null;
   finished_at: string | null;
 }
 
 const LIST_COLUMNS = `SELECT id, dataset_id, plan_json, estimate_json, status, progress_json, NULL AS summary_json,
-  json_extract(summary_json, '$.conclusion') AS conclusion, error, rerun_of, created_at, started_at, finished_at
+  json_extract(summary_json, '$.conclusion') AS conclusion, error, rerun_of, executor, created_at, started_at, finished_at
   FROM sweeps`;
 
 export const FINISHED_STATUSES: readonly SweepStatus[] = ['done', 'failed', 'cancelled', 'interrupted'];
@@ -59,6 +62,7 @@ function toRecord(row: SweepRow, withSummary: boolean): SweepRecord {
     conclusion: row.conclusion,
     error: row.error,
     rerunOf: row.rerun_of,
+    executor: row.executor ?? null,
     createdAt: row.created_at,
     startedAt: row.started_at,
     finishedAt: row.finished_at,
@@ -68,15 +72,15 @@ function toRecord(row: SweepRow, withSummary: boolean): SweepRecord {
 export class SweepStore {
   constructor(private readonly db: Database.Database) {}
 
-  create(input: { datasetId: string; plan: Plan; estimate: SweepEstimate; rerunOf?: string | null }): SweepRecord {
+  create(input: { datasetId: string; plan: Plan; estimate: SweepEstimate; rerunOf?: string | null; executor?: ExecutorChoice | null }): SweepRecord {
     const id = randomUUID();
     // progress counts placements (sizes x placements), as the pool reports them
     const sizes = (input.plan.cells ?? input.plan.perCell ?? []).length;
     const progress: SweepProgress = { done: 0, total: sizes * input.plan.placements, elapsedSeconds: 0, remainingSeconds: null };
     this.db
       .prepare(
-        `INSERT INTO sweeps (id, dataset_id, plan_json, estimate_json, status, progress_json, rerun_of, created_at)
-         VALUES (?, ?, ?, ?, 'queued', ?, ?, ?)`,
+        `INSERT INTO sweeps (id, dataset_id, plan_json, estimate_json, status, progress_json, rerun_of, executor, created_at)
+         VALUES (?, ?, ?, ?, 'queued', ?, ?, ?, ?)`,
       )
       .run(
         id,
@@ -85,6 +89,7 @@ export class SweepStore {
         toStoredJson(input.estimate),
         toStoredJson(progress),
         input.rerunOf ?? null,
+        input.executor ?? null,
         new Date().toISOString(),
       );
     return this.get(id) as SweepRecord;

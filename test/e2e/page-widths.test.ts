@@ -89,6 +89,8 @@ describe.each([360, 390, 1024, 1440])('the journey at %i px', (width) => {
     await page.fill('#plan-sims', '19');
     await expect.poll(() => page.isDisabled('#start-sweep')).toBe(false);
     await expectFits(page, 'plan');
+    // a server without a Redis queue offers no choice of where the sweep runs (test/queue/queue-executor-page.test.ts)
+    expect(await page.locator('input[name=executor]').count()).toBe(0);
     await page.click('#start-sweep');
     await page.waitForSelector('.run-box[data-status=done]', { timeout: 90_000 });
     await page.waitForSelector('[data-chart^="monte-carlo-"] canvas');

@@ -14,12 +14,15 @@ import { startRedis, type TestRedis } from '../bench/redis-server.js';
 // (GRIDSHAKE_QUEUE_TIMEOUT, 2 s here) with a message naming the URL and what to check; the server stays up, and a sweep started with
 // `executor: "local"` runs on the server's own pool and gives the same placements.csv rows and summary.json numbers
 // as a server started without a queue. A server without a queue refuses `executor: "queue"` with a coded 400.
+// The executor a sweep ran on is stored with it (store migration 5): its record shows it, a rerun goes there again,
+// and a server without a queue refuses to rerun a queue sweep rather than moving it to its own pool unasked.
 
 const TIMEOUT_SECONDS = 2;
 const plan = { cells: [60, 90], placements: 64, sims: 19, seed: 3, alpha: 0.05 };
 
 interface SweepRecord {
   status: string;
+  executor: string | null;
   error: string | null;
   progress: { done: number; total: number };
   summary?: Record<string, unknown> & { versions: Record<string, string> };
@@ -29,6 +32,10 @@ let redis: TestRedis;
 let worker: QueueWorker;
 let queued: FastifyInstance;
 let plain: FastifyInstance;
+let queuedDir: string;
+/** the sweeps of the first test: one on the queue (default), one on the server's pool while Redis is down */
+let queueSweepId = '';
+let localSweepId = '';
 const datasets = new Map<FastifyInstance, string>();
 
 async function upload(app: FastifyInstance): Promise<void> {
@@ -76,7 +83,8 @@ beforeAll(async () => {
   redis = await startRedis();
   const connection = parseQueueUrl(redis.url);
   worker = new QueueWorker({ connection, threads: 1, log: () => undefined });
-  queued = await buildApp({ dataDir: join(mkdtempSync(join(tmpdir(), 'gridshake-queue-local-')), 'data'), queue: connection, threads: 1 });
+  queuedDir = join(mkdtempSync(join(tmpdir(), 'gridshake-queue-local-')), 'data');
+  queued = await buildApp({ dataDir: queuedDir, queue: connection, threads: 1 });
   plain = await buildApp({ dataDir: join(mkdtempSync(join(tmpdir(), 'gridshake-plain-')), 'data'), threads: 1 });
   await upload(queued);
   await upload(plain);
@@ -123,6 +131,47 @@ describe('serve --queue with Redis down', () => {
     expect(await kept(queued, local.id, local.record)).toEqual(await kept(plain, reference.id, reference.record));
     // and the queue result was the same numbers too
     expect(await kept(queued, before.id, before.record)).toEqual(await kept(plain, reference.id, reference.record));
+    queueSweepId = before.id;
+    localSweepId = local.id;
+  }, 120_000);
+
+  it('records the executor with each sweep and reruns a sweep on the executor it used', async () => {
+    expect(queueSweepId).not.toBe('');
+    // the records: the default of a --queue server is the queue, of a plain server its own pool
+    expect((await read(queued, queueSweepId)).executor).toBe('queue');
+    expect((await read(queued, localSweepId)).executor).toBe('local');
+    const listed = (await queued.inject({ method: 'GET', url: '/api/sweeps' })).json() as { id: string; executor: string | null }[];
+    expect(listed.find((sweep) => sweep.id === queueSweepId)?.executor).toBe('queue');
+    expect(listed.find((sweep) => sweep.id === localSweepId)?.executor).toBe('local');
+    const plainSweep = await sweep(plain);
+    expect(plainSweep.record.executor).toBe('local');
+
+    // Redis is still down: the rerun of the local sweep runs on the server's pool to the end, the same numbers
+    const localRerun = await queued.inject({ method: 'POST', url: `/api/sweeps/${localSweepId}/rerun` });
+    expect(localRerun.statusCode, localRerun.body).toBe(202);
+    const localAgain = await settle(queued, localRerun.json().id as string);
+    expect(localAgain.status, localAgain.error ?? '').toBe('done');
+    expect(localAgain.executor).toBe('local');
+    expect(localAgain.summary?.versions.executor).toBe('local pool');
+    expect(await kept(queued, localRerun.json().id as string, localAgain)).toEqual(await kept(plain, plainSweep.id, plainSweep.record));
+    // the rerun of the queue sweep goes to the queue (not to this machine): it fails naming the Redis URL
+    const queueRerun = await queued.inject({ method: 'POST', url: `/api/sweeps/${queueSweepId}/rerun` });
+    expect(queueRerun.statusCode, queueRerun.body).toBe(202);
+    const queueAgain = await settle(queued, queueRerun.json().id as string);
+    expect(queueAgain.executor).toBe('queue');
+    expect(queueAgain.status).toBe('failed');
+    expect(queueAgain.error).toContain(`the Redis queue at redis://127.0.0.1:${redis.port}/0`);
+
+    // the same data folder served without a queue: the queue sweep's rerun is refused, the local one runs
+    await queued.close();
+    queued = await buildApp({ dataDir: queuedDir, threads: 1 });
+    const refused = await queued.inject({ method: 'POST', url: `/api/sweeps/${queueSweepId}/rerun` });
+    expect(refused.statusCode).toBe(400);
+    expect(refused.json().code).toBe('GS_ERR_PARAMETER');
+    expect(refused.json().message).toContain('ran on a Redis queue and this server sends no sweeps to one');
+    const allowed = await queued.inject({ method: 'POST', url: `/api/sweeps/${localSweepId}/rerun` });
+    expect(allowed.statusCode, allowed.body).toBe(202);
+    expect((await settle(queued, allowed.json().id as string)).status).toBe('done');
   }, 120_000);
 
   it('refuses executor "queue" on a server without a queue, and an unknown executor, with coded 400s', async () => {

@@ -74,15 +74,16 @@ describe('GridshakeStore', () => {
     db.close();
   });
 
-  it('upgrades a database written before the stability files (3) and the baseline column (4), keeping its datasets', () => {
+  it('upgrades a database written before the stability files (3), the baseline column (4) and the sweeps\' executor (5), keeping its datasets and sweeps', () => {
     const folder = tempFolder();
     const { dataset, summary } = squareDataset();
     const first = GridshakeStore.open(folder);
     const stored = first.datasets.insert(dataset, summary);
+    const oldSweep = first.sweeps.create({ datasetId: stored.id as string, plan: { cells: [10], placements: 2, rotation: false, design: 'halton', minCoverage: 0.5, alpha: 0.05, sims: 0, seed: 1 }, estimate: { work: 1, budget: 1, tasks: 1 } });
     first.close();
-    // make it a schema-2 database: what a store written before both migrations holds
+    // make it a schema-2 database: what a store written before these migrations holds
     const old = new Database(join(folder, 'gridshake.sqlite'));
-    old.exec('DROP TABLE stability_files; ALTER TABLE datasets DROP COLUMN baseline;');
+    old.exec('DROP TABLE stability_files; ALTER TABLE datasets DROP COLUMN baseline; ALTER TABLE sweeps DROP COLUMN executor;');
     old.pragma('user_version = 2');
     old.close();
     const again = GridshakeStore.open(folder);
@@ -90,10 +91,13 @@ describe('GridshakeStore', () => {
     expect(Array.from(loaded.xy)).toEqual(Array.from(dataset.xy));
     expect(loaded.baseline).toBeUndefined();
     expect(again.datasets.summary(stored.id as string)).toEqual(stored);
+    // a sweep stored before executors were recorded: kept, its executor unknown (a rerun takes the server's default)
+    expect(again.sweeps.get(oldSweep.id)).toEqual({ ...oldSweep, executor: null });
     again.close();
     const db = new Database(join(folder, 'gridshake.sqlite'));
-    expect(db.pragma('user_version', { simple: true })).toBe(4);
-    expect(MIGRATIONS.length).toBe(4);
+    expect(db.pragma('user_version', { simple: true })).toBe(5);
+    expect(MIGRATIONS.length).toBe(5);
+    expect((db.prepare('PRAGMA table_info(sweeps)').all() as { name: string }[]).map((column) => column.name)).toContain('executor');
     const columns = (db.prepare('PRAGMA table_info(datasets)').all() as { name: string }[]).map((column) => column.name);
     expect(columns).toContain('baseline');
     expect(db.prepare("SELECT name FROM sqlite_master WHERE type = 'table' AND name = 'stability_files'").get()).toBeDefined();

@@ -5,7 +5,7 @@
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
 import { decodeTypedFrame, type TypedFrame } from '../../../shared/binary/typed-frame.js';
 import type { GridFrameMeta, SurfaceFrameMeta } from '../../../shared/binary/page-frames.js';
-import type { DatasetGeometry, DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
+import type { DatasetGeometry, DatasetSummary, ExecutorChoice, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -20,6 +20,8 @@ export interface HealthInfo {
   workBudget?: number;
   /** the analyst's own XYZ tile server (serve --basemap), when configured */
   basemap?: string;
+  /** where a sweep may run, the default first; more than one only on a server with a Redis queue */
+  executors?: ExecutorChoice[];
 }
 
 export interface StoredDataset extends DatasetSummary {
@@ -39,6 +41,8 @@ export interface SweepRecord {
   progress: SweepProgress;
   summary?: SweepSummary | null;
   error?: string | null;
+  /** where its tasks ran (null: stored before this was recorded) */
+  executor?: ExecutorChoice | null;
   createdAt?: string;
 }
 
@@ -96,8 +100,9 @@ export const api = {
     form.append('baseline', file, file.name);
     return request<{ fields: string[] }>('/api/datasets/baseline-fields', { method: 'POST', body: form });
   },
-  startSweep: (datasetId: string, plan: Plan) =>
-    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
+  /** `executor` absent: the server's default */
+  startSweep: (datasetId: string, plan: Plan, executor?: ExecutorChoice) =>
+    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody(executor === undefined ? { datasetId, plan } : { datasetId, plan, executor })),
   sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),
   sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
   deleteDataset: (id: string) => request<void>(`/api/datasets/${id}`, { method: 'DELETE' }),

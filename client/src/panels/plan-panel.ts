@@ -12,6 +12,7 @@ import { planCost } from '../plan/plan-estimate.js';
 import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues, type ShapeChoice } from '../plan/plan-values.js';
 import { shapeList } from '../../../workers/lattice/cell-shape.js';
 import { clear, el, field, message } from '../ui/dom.js';
+import { executorField } from './executor-choice.js';
 
 export function initPlanPanel(container: HTMLElement, store: Store): void {
   store.subscribe((state, changed) => {
@@ -58,6 +59,8 @@ function buildForm(container: HTMLElement, store: Store): void {
   const estimate = el('div', { id: 'plan-estimate', class: 'estimate', 'aria-live': 'polite' });
   const start = el('button', { type: 'submit', class: 'button button-primary', id: 'start-sweep' }, 'Start the sweep');
   const feedback = el('div', { 'aria-live': 'assertive' });
+  const where = executorField();
+  where.update(store.state.health);
 
   const values = (): PlanFormValues => ({
     sizes: sizeRows.map((row) => ({ text: row.side.value, include: row.include.checked, label: row.label })),
@@ -73,6 +76,7 @@ function buildForm(container: HTMLElement, store: Store): void {
   });
 
   const refresh = () => {
+    where.update(store.state.health);
     const current = values();
     rotationLabel.textContent = rotationText(current.shape);
     const reading = readPlan(current);
@@ -112,6 +116,7 @@ function buildForm(container: HTMLElement, store: Store): void {
       ),
       el('div', { class: 'check-row' }, rotation, rotationLabel),
     ),
+    where.element,
     estimate,
     start,
     feedback,
@@ -125,7 +130,7 @@ function buildForm(container: HTMLElement, store: Store): void {
     start.disabled = true;
     clear(feedback);
     try {
-      const started = await api.startSweep(dataset.id, plan);
+      const started = await api.startSweep(dataset.id, plan, where.value());
       store.update({ sweepId: started.id, summary: null, rows: [], sizeIndex: null, placement: null });
       document.getElementById('step-run')?.scrollIntoView({ behavior: 'smooth', block: 'start' });
     } catch (error) {

@@ -4,6 +4,7 @@
  */
 import { CELL_SHAPES } from '../../../workers/lattice/cell-shape.js';
 import { PLAN_LIMITS } from '../../../shared/plan-rules.js';
+import { EXECUTOR_CHOICES } from '../../services/sweep-runner.js';
 
 export const ID_PARAMS = {
   type: 'object',
@@ -114,6 +115,7 @@ export const SWEEP_SCHEMA = {
     conclusion: { type: ['string', 'null'] },
     error: { type: ['string', 'null'] },
     rerunOf: { type: ['string', 'null'] },
+    executor: { type: ['string', 'null'], enum: [...EXECUTOR_CHOICES, null] },
     createdAt: { type: 'string' },
     startedAt: { type: ['string', 'null'] },
     finishedAt: { type: ['string', 'null'] },
