@@ -12,9 +12,9 @@ import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastif
 import type { AddressInfo } from 'node:net';
 import { registerClientStatic } from './routes/client-static.js';
 import { registerDatasetRoutes, MAX_NO_DATA_FILES, uploadFileHandler } from './routes/dataset-routes.js';
-import { ERROR_SCHEMA, installErrorHandling } from './routes/error-handler.js';
+import { installErrorHandling } from './routes/error-handler.js';
 import { registerHealthRoutes } from './routes/health-routes.js';
-import { DATASET_SUMMARY_SCHEMA, SWEEP_SCHEMA } from './routes/schemas/common-schemas.js';
+import { DATASET_SUMMARY_SCHEMA, ERROR_SCHEMA, SWEEP_SCHEMA } from '../shared/http-schemas.js';
 import { registerSweepEventsRoute } from './routes/sweep-events-route.js';
 import { registerSweepExportRoutes } from './routes/sweep-export-routes.js';
 import { registerSweepRoutes } from './routes/sweep-routes.js';

@@ -3,7 +3,7 @@
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
-import type { DatasetGeometry, DatasetSummary, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
+import type { DatasetGeometry, HealthInfo, Plan, PlacementRow, StoredDataset, SweepStarted, SweepView } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -12,31 +12,7 @@ export class ApiError extends Error {
   }
 }
 
-export interface HealthInfo {
-  version: string;
-  poolSize: number;
-  workBudget?: number;
-}
-
-export interface StoredDataset extends DatasetSummary {
-  id: string;
-  /** the demo scenario this dataset was loaded from, or null for an upload */
-  sample?: string | null;
-}
-
-export type { DatasetGeometry } from '../../../shared/contracts.js';
-
-export interface SweepRecord {
-  id: string;
-  datasetId: string;
-  status: SweepStatus;
-  plan: Plan;
-  estimate: SweepEstimate;
-  progress: SweepProgress;
-  summary?: SweepSummary | null;
-  error?: string | null;
-  createdAt?: string;
-}
+export type { DatasetGeometry, HealthInfo, StoredDataset, SweepView as SweepRecord } from '../../../shared/contracts.js';
 
 export interface GridFeature {
   type: 'Feature';
@@ -77,12 +53,12 @@ export const api = {
   geometry: (id: string) => request<DatasetGeometry>(`/api/datasets/${id}/geometry?maxPoints=100000`),
   upload: (form: FormData) => request<StoredDataset>('/api/datasets', { method: 'POST', body: form }),
   startSweep: (datasetId: string, plan: Plan) =>
-    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody({ datasetId, plan })),
-  sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),
-  sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
+    request<SweepStarted>('/api/sweeps', jsonBody({ datasetId, plan })),
+  sweeps: (datasetId: string) => request<SweepView[]>(`/api/sweeps?datasetId=${datasetId}`),
+  sweep: (id: string) => request<SweepView>(`/api/sweeps/${id}`),
   deleteDataset: (id: string) => request<void>(`/api/datasets/${id}`, { method: 'DELETE' }),
   deleteSweep: (id: string) => request<void>(`/api/sweeps/${id}`, { method: 'DELETE' }),
-  cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
+  cancelSweep: (id: string) => request<SweepView>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
   grid: (id: string, size: number, placement: number) =>
     request<GridCollection>(`/api/sweeps/${id}/grid.geojson?size=${size}&placement=${placement}&coordinates=planar`),

@@ -4,7 +4,7 @@
  * the budget refusal before anything starts.
  */
 import { smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
-import { PLAN_LIMITS } from '../../../shared/plan-rules.js';
+import { DEFAULT_PLAN, isPlacementDesign, PLACEMENT_DESIGN_LABELS, PLACEMENT_DESIGNS, PLAN_LIMITS } from '../../../shared/plan-rules.js';
 import { api, ApiError } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
 import { formatNumber } from '../../../shared/format.js';
@@ -39,7 +39,7 @@ function buildForm(container: HTMLElement, store: Store): void {
   });
   const extra = el('input', { type: 'text', id: 'plan-extra-sides', placeholder: 'e.g. 150, 400' });
   const placements = el('input', { type: 'number', id: 'plan-placements', min: PLAN_LIMITS.placements.min, max: PLAN_LIMITS.placements.max, step: 1, value: PLAN_FORM_DEFAULTS.placements });
-  const design = el('select', { id: 'plan-design' }, el('option', { value: 'halton' }, 'Halton sequence (spread evenly, any count)'), el('option', { value: 'lattice' }, 'regular lattice'));
+  const design = el('select', { id: 'plan-design' }, ...PLACEMENT_DESIGNS.map((name) => el('option', { value: name }, PLACEMENT_DESIGN_LABELS[name])));
   const shape = el(
     'select',
     { id: 'plan-shape' },
@@ -63,7 +63,7 @@ function buildForm(container: HTMLElement, store: Store): void {
     sizes: sizeRows.map((row) => ({ text: row.side.value, include: row.include.checked, label: row.label })),
     extraSides: extra.value,
     placements: placements.value,
-    design: design.value === 'lattice' ? 'lattice' : 'halton',
+    design: isPlacementDesign(design.value) ? design.value : DEFAULT_PLAN.design,
     shape: (['square', 'hex', 'both'] as const).find((choice) => choice === shape.value) ?? 'square',
     rotation: rotation.checked,
     minCoverage: minCoverage.value,
