@@ -249,3 +249,38 @@ export type HealthInfo = Omit<FromSchema<typeof HEALTH_SCHEMA>, 'status'>;
 
 /** GET /api/datasets/:id/geometry: what the page draws of a dataset (server/services/dataset-geometry.ts). */
 export type DatasetGeometry = FromSchema<typeof DATASET_GEOMETRY_SCHEMA>;
+
+/** One cell of grid.geojson (server/grid-export/grid-geojson.ts): id "i,j", planar or longitude/latitude ring. */
+export interface GridFeature {
+  type: 'Feature';
+  id?: string;
+  /** expected is null for a cell left out (coverage below minCoverage) */
+  properties: { i: number; j: number; count: number; coverage: number; expected: number | null; kept: boolean };
+  geometry: { type: 'Polygon'; coordinates: number[][][] };
+}
+
+/** What grid.geojson says of its placement, beside the features (its `gridshake` member). */
+export interface GridMeta {
+  /** in words: longitude/latitude or planar metres of the working system */
+  coordinates: string;
+  projection: string;
+  dataset: string;
+  sizeIndex: number;
+  placementIndex: number;
+  cellSize: number;
+  shape: CellShape;
+  u: number;
+  v: number;
+  angle: number;
+  minCoverage: number;
+  origin: Origin;
+  /** cells of the grid frame (kept or not) */
+  cells: number;
+}
+
+/** GET /api/sweeps/:id/grid.geojson: the cells of one placement (RFC 7946 FeatureCollection, streamed as text). */
+export interface GridCollection {
+  type: 'FeatureCollection';
+  features: GridFeature[];
+  gridshake?: GridMeta;
+}

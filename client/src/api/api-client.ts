@@ -3,7 +3,7 @@
  * { statusCode, code, message } and are thrown as ApiError with that code.
  */
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
-import type { DatasetGeometry, HealthInfo, Plan, PlacementRow, StoredDataset, SweepStarted, SweepView } from '../../../shared/contracts.js';
+import type { DatasetGeometry, GridCollection, HealthInfo, Plan, PlacementRow, StoredDataset, SweepStarted, SweepView } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -12,19 +12,7 @@ export class ApiError extends Error {
   }
 }
 
-export type { DatasetGeometry, HealthInfo, StoredDataset, SweepView as SweepRecord } from '../../../shared/contracts.js';
-
-export interface GridFeature {
-  type: 'Feature';
-  properties: { i: number; j: number; count: number; coverage: number; expected: number; kept: boolean };
-  geometry: { type: 'Polygon'; coordinates: number[][][] };
-}
-
-export interface GridCollection {
-  type: 'FeatureCollection';
-  features: GridFeature[];
-  gridshake?: { cellSize: number; u: number; v: number; angle: number; sizeIndex: number; placementIndex: number };
-}
+export type { DatasetGeometry, GridCollection, GridFeature, HealthInfo, StoredDataset, SweepView as SweepRecord } from '../../../shared/contracts.js';
 
 async function request<T>(path: string, init?: RequestInit): Promise<T> {
   const response = await fetch(path, { ...init, headers: { accept: 'application/json', ...(init?.headers ?? {}) } });
