@@ -8,7 +8,7 @@ import { randomUUID } from 'node:crypto';
 import type { Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary, SweepView } from '../../shared/contracts.js';
 import { fromStoredJson, toStoredJson } from './blob-codec.js';
 
-/** A sweep as stored: the API's view of it (shared/http-schemas.ts SWEEP_SCHEMA) but its dataset's name and queue place. */
+/** A sweep as stored: the API's view of it (http-schemas SWEEP_SCHEMA) without its dataset's name and queue place. */
 export type SweepRecord = Omit<SweepView, 'datasetName' | 'queuePosition' | 'summary'> & { summary: SweepSummary | null };
 
 interface SweepRow {

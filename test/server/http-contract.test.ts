@@ -67,7 +67,7 @@ const startedFromView = (view: SweepView) => view satisfies SweepStarted;
 const filledPlan = { ...DEFAULT_PLAN, cells: [1] } satisfies Plan;
 void [producedDataset, startedFromView, filledPlan];
 
-/** A copy of a schema in which every object that lists its properties allows no others (the open `summary` stays open). */
+/** A copy of a schema whose objects that list their properties allow no others (the open `summary` stays open). */
 function closed(schema: unknown): unknown {
   if (Array.isArray(schema)) return schema.map(closed);
   if (schema === null || typeof schema !== 'object') return schema;
