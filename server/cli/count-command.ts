@@ -29,6 +29,7 @@ import type { CliCommand, CliIo } from './cli-command.js';
 import type { CountResult } from './count-result.js';
 import { formatCount } from './format-count.js';
 import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
+import { LEVEL_OPTIONS } from './level-options.js';
 
 /** Defaults of a single count: the sweep plan's, so that count and a sweep's reference placement agree. */
 export const COUNT_DEFAULTS = Object.freeze({ minCoverage: DEFAULT_PLAN.minCoverage, alpha: DEFAULT_PLAN.alpha });
@@ -43,8 +44,7 @@ const OPTIONS: OptionSpecs = {
     description: 'grid rotation, degrees counter-clockwise in [0, 90) for squares, [0, 60) for hexagons; default 0',
   },
   offset: { type: 'string', value: 'U,V', description: 'grid offset in cell units, each in [0, 1); default 0,0' },
-  'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
-  alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
+  ...LEVEL_OPTIONS,
   json: { type: 'boolean', description: 'print one JSON object instead of text' },
   ...INPUT_LIMIT_OPTIONS,
 };

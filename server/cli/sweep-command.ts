@@ -28,6 +28,7 @@ import {
 import type { CliCommand, CliIo } from './cli-command.js';
 import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 import { checkOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
+import { LEVEL_OPTIONS } from './level-options.js';
 import { progressLine } from './sweep-progress.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
 
@@ -43,8 +44,7 @@ const OPTIONS: OptionSpecs = {
   placements: { type: 'string', value: 'N', description: `placements per cell size, ${PLAN_RANGE_WORDS.placements}; default ${DEFAULT_PLAN.placements}` },
   'no-rotation': { type: 'boolean', description: 'offsets only, every grid at angle 0' },
   design: { type: 'string', value: 'D', description: `placement design: ${designChoices()}` },
-  'min-coverage': { type: 'string', value: 'T', description: `least share of a cell in the valid region, ${PLAN_RANGE_WORDS.minCoverage}; default ${DEFAULT_PLAN.minCoverage}` },
-  alpha: { type: 'string', value: 'A', description: `two-sided significance level, ${PLAN_RANGE_WORDS.alpha}; default ${DEFAULT_PLAN.alpha}` },
+  ...LEVEL_OPTIONS,
   sims: { type: 'string', value: 'R', description: `simulated CSR patterns for the Monte Carlo test, ${PLAN_RANGE_WORDS.sims}; default ${DEFAULT_PLAN.sims}` },
   seed: { type: 'string', value: 'S', description: `seed of the simulations, an integer; default ${DEFAULT_PLAN.seed}` },
   shape: {

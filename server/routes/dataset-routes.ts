@@ -13,6 +13,7 @@ import { MAX_CONCURRENT_UPLOADS } from '../limits.js';
 import type { UploadedFile } from '../services/dataset-parser.js';
 import type { DatasetService } from '../services/dataset-service.js';
 import type { UploadFolder } from '../services/upload-folder.js';
+import { registerDeleteRoute } from './delete-route.js';
 import { errorResponses } from './error-handler.js';
 import { DATASET_GEOMETRY_SCHEMA, ID_PARAMS } from '../../shared/http-schemas.js';
 
@@ -211,12 +212,5 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
     async (request) => datasets.geometry(request.params.id, request.query.maxPoints),
   );
 
-  app.delete<{ Params: { id: string } }>(
-    '/api/datasets/:id',
-    { schema: { params: ID_PARAMS, response: { 204: { type: 'null' }, ...errorResponses(400, 404) } } },
-    async (request, reply) => {
-      datasets.delete(request.params.id);
-      return reply.code(204).send();
-    },
-  );
+  registerDeleteRoute(app, '/api/datasets/:id', (id) => datasets.delete(id));
 }

@@ -6,6 +6,7 @@
 import type { FastifyInstance } from 'fastify';
 import type { SweepService } from '../services/sweep-service.js';
 import { SWEEP_PAGE_DEFAULT, SWEEP_PAGE_MAX } from '../limits.js';
+import { registerDeleteRoute } from './delete-route.js';
 import { errorResponses } from './error-handler.js';
 import { ID_PARAMS, SWEEP_START_BODY_SCHEMA, SWEEP_STARTED_SCHEMA } from '../../shared/http-schemas.js';
 import type { FromSchema } from '../../shared/schema-type.js';
@@ -58,12 +59,5 @@ export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService):
     async (request, reply) => reply.code(202).send(sweeps.rerun(request.params.id)),
   );
 
-  app.delete<{ Params: { id: string } }>(
-    '/api/sweeps/:id',
-    { schema: { params: ID_PARAMS, response: { 204: { type: 'null' }, ...errorResponses(400, 404) } } },
-    async (request, reply) => {
-      sweeps.delete(request.params.id);
-      return reply.code(204).send();
-    },
-  );
+  registerDeleteRoute(app, '/api/sweeps/:id', (id) => sweeps.delete(id));
 }
