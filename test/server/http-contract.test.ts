@@ -122,6 +122,17 @@ describe('real responses against the shared schemas', () => {
     expect(geometry.baseline?.polygons.length).toBeGreaterThan(0);
     check(DATASET_GEOMETRY_SCHEMA, geometry, 'GET /api/datasets/:id/geometry');
     check(HEALTH_SCHEMA, (await app.inject({ method: 'GET', url: '/api/health' })).json(), 'GET /api/health');
+    // the other two projection branches: longitude/latitude (local equal-area) and a projected EPSG system
+    for (const [rows, crs, kind] of [
+      ['lon,lat\n10.2,45.1\n10.8,45.9\n10.5,45.3\n', undefined, 'laea'],
+      ['easting,northing\n500000,5000000\n501000,5002000\n500500,5001000\n', 'EPSG:32633', 'epsg'],
+    ] as const) {
+      const parts = [{ field: 'points', value: rows, filename: 'points.csv' }, ...(crs === undefined ? [] : [{ field: 'crs', value: crs }])];
+      const projected = await app.inject({ method: 'POST', url: '/api/datasets', ...(await multipartBody(parts)) });
+      expect(projected.statusCode, projected.body).toBe(201);
+      expect((projected.json() as StoredDataset).projection?.kind).toBe(kind);
+      check(DATASET_SUMMARY_SCHEMA, projected.json(), `POST /api/datasets (${kind})`);
+    }
     const missing = await app.inject({ method: 'GET', url: '/api/datasets/00000000-0000-0000-0000-000000000000' });
     expect(missing.statusCode).toBe(404);
     check(ERROR_SCHEMA, missing.json(), 'GET /api/datasets/:id (404)');
