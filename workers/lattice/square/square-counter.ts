@@ -16,8 +16,10 @@
  */
 import type { CoverageGrid, Origin, Placement } from '../../types.js';
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
-import { checkCountOutput, countInBlocks, createExactPass, deferredBuffer } from '../count-passes.js';
 import type { CellCounter } from '../lattice.js';
+
+/** Points per block of the fast pass; also the size of the buffer of points deferred to the exact pass. */
+const BLOCK = 8192;
 
 /**
  * Half-width of the band around grid lines where the exact path decides (cell units): 2^-20, widened for grids far
@@ -43,16 +45,31 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
   // faster than deciding them inline) and the exact pass is rare (about 4 * 2^-20 of the points). Blocks also make
   // the loop function hot by calls, so V8 optimizes it with full type feedback instead of relying on on-stack
   // replacement (measured: OSR code deoptimized at every call, halving the speed).
-  const deferred = deferredBuffer(pointCount);
+  const deferred = new Int32Array(Math.min(BLOCK, Math.max(1, pointCount)));
 
   /** The contract's formula (division, Math.floor) for the deferred points. */
-  const countExactly = createExactPass(points, origin, (dx, dy, cell) => {
+  // the same shape as hex-counter.ts's exact pass, apart on purpose: shared, it measured slower (see DEVELOPERS.md)
+  function countExactly(out: Int32Array, deferredCount: number): void {
+    const ox = reals[0]!;
+    const oy = reals[1]!;
     const cos = reals[2]!;
     const sin = reals[3]!;
     const s = reals[7]!;
-    cell[0] = Math.floor((dx * cos + dy * sin) / s - reals[8]!);
-    cell[1] = Math.floor((-dx * sin + dy * cos) / s - reals[9]!);
-  });
+    const u = reals[8]!;
+    const v = reals[9]!;
+    const i0 = integers[0]!;
+    const j0 = integers[1]!;
+    const nx = integers[2]!;
+    const ny = integers[3]!;
+    for (let k = 0; k < deferredCount; k++) {
+      const p = deferred[k]!;
+      const dx = points[2 * p]! - ox;
+      const dy = points[2 * p + 1]! - oy;
+      const i = Math.floor((dx * cos + dy * sin) / s - u) - i0;
+      const j = Math.floor((-dx * sin + dy * cos) / s - v) - j0;
+      if (i >= 0 && i < nx && j >= 0 && j < ny) out[j * nx + i]!++;
+    }
+  }
 
   /** The fast pass over points [start, end), then the exact pass over the points it deferred. */
   function countBlock(out: Int32Array, start: number, end: number): void {
@@ -86,7 +103,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
         else out[j * nx + i]!++;
       }
     }
-    countExactly(out, pending, deferredCount, integers);
+    countExactly(out, deferredCount);
   }
 
   return {
@@ -95,7 +112,9 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
       if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
         throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
       }
-      checkCountOutput(grid, out);
+      if (out.length < grid.nx * grid.ny) {
+        throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);
+      }
       const { cos, sin } = cosSinDegrees(placement.angle);
       reals[2] = cos;
       reals[3] = sin;
@@ -111,7 +130,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
       integers[2] = grid.nx;
       integers[3] = grid.ny;
       out.fill(0, 0, grid.nx * grid.ny);
-      countInBlocks(pointCount, out, countBlock);
+      for (let start = 0; start < pointCount; start += BLOCK) countBlock(out, start, Math.min(pointCount, start + BLOCK));
     },
   };
 }
