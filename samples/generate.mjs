@@ -15,6 +15,7 @@ import { fileURLToPath } from 'node:url';
 const HERE = dirname(fileURLToPath(import.meta.url));
 
 /** mulberry32: a small 32-bit seeded generator (Tommy Ettinger, 2017, public domain), uniform in [0, 1). */
+// Also in test/fixtures/seeded-random.ts, apart on purpose: this script runs alone with plain node, outside the build.
 function mulberry32(seed) {
   let state = seed >>> 0;
   return () => {

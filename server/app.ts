@@ -14,9 +14,9 @@ import { registerClientStatic } from './routes/client-static.js';
 import type { Basemap } from './security/basemap-url.js';
 import { pagePolicy } from './security/content-security-policy.js';
 import { registerDatasetRoutes, MAX_NO_DATA_FILES, uploadFileHandler } from './routes/dataset-routes.js';
-import { ERROR_SCHEMA, installErrorHandling } from './routes/error-handler.js';
+import { installErrorHandling } from './routes/error-handler.js';
 import { registerHealthRoutes } from './routes/health-routes.js';
-import { DATASET_SUMMARY_SCHEMA, SWEEP_SCHEMA } from './routes/schemas/common-schemas.js';
+import { DATASET_SUMMARY_SCHEMA, ERROR_SCHEMA, SWEEP_SCHEMA } from '../shared/http-schemas.js';
 import { registerSweepEventsRoute } from './routes/sweep-events-route.js';
 import { registerSweepExportRoutes } from './routes/sweep-export-routes.js';
 import { registerSweepRoutes } from './routes/sweep-routes.js';
@@ -150,7 +150,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     datasets: store.datasets.count(),
     workBudget,
     ...(options.basemap === undefined ? {} : { basemap: options.basemap.template }),
-    executors: runner.executors ?? ['local'],
+    executors: [...(runner.executors ?? ['local'])],
   }));
   registerDatasetRoutes(app, datasets, bodyLimit, uploads);
   registerSweepRoutes(app, sweeps);

@@ -1,54 +1,42 @@
 /**
  * Contracts between server/inputs, server/sweeps, server/summary, the HTTP API, the CLI and the client.
- * The client imports these as types only.
+ * The client imports these as types only. The HTTP bodies are written once, as the JSON schemas of
+ * shared/http-schemas.ts, and their types are derived from them here (FromSchema); the summary.json contract
+ * (SweepSummary and its parts) and the engine-side Dataset are interfaces.
  */
-import type { BBox, Origin, Region, Verdict } from '../workers/types.js';
+import type { Origin, Region, Verdict } from '../workers/types.js';
 import type { EncodedStatistics, ExpectationStatistics } from '../workers/stats/statistic-fields.js';
 import type { CellShape } from '../workers/lattice/cell-shape.js';
 import type { Baseline } from '../workers/baseline/baseline.js';
+import type {
+  BASELINE_INFO_SCHEMA,
+  DATASET_GEOMETRY_SCHEMA,
+  DATASET_SUMMARY_SCHEMA,
+  EXECUTOR_CHOICES,
+  HEALTH_SCHEMA,
+  PLAN_FILLED_FIELDS,
+  PLAN_SCHEMA,
+  PROJECTION_SCHEMA,
+  SWEEP_ESTIMATE_SCHEMA,
+  SWEEP_PROGRESS_SCHEMA,
+  SWEEP_SCHEMA,
+  SWEEP_STARTED_SCHEMA,
+  SWEEP_STATUSES,
+  WARNING_SCHEMA,
+} from './http-schemas.js';
+import type { FromSchema } from './schema-type.js';
 
-export interface InputWarning {
-  code: string;
-  /** in the page's words (its field labels) */
-  message: string;
+/** A warning about the input; the server keeps `cliMessage` for the command line (not sent over HTTP). */
+export type InputWarning = FromSchema<typeof WARNING_SCHEMA> & {
   /** the same warning in the command line's words, when they differ (flags instead of field labels) */
   cliMessage?: string;
-  /** record ids or feature numbers concerned, possibly truncated */
-  ids?: string[];
-}
+};
 
 /** What a dataset records about its baseline (summary.json, count --json, the report). */
-export interface BaselineInfo {
-  kind: 'polygons' | 'controls';
-  /** the file's name as given */
-  file: string;
-  /** the count property (polygons only) */
-  field?: string;
-  /** polygons: features read; controls: points read */
-  features: number;
-  /** polygons: Σ P_p over the polygons with |p ∩ V| > 0; controls: controls inside V */
-  totalInside: number;
-  /** polygons: Σ P_p over every polygon */
-  total: number;
-  /** polygons: 1-based numbers of the features with |p ∩ V| = 0 (reported and ignored) */
-  outsideFeatures: number[];
-  /** polygons: share of V outside every polygon (weight 0 there); controls: 0 */
-  uncoveredShare: number;
-  /** controls: how many lie outside V (never counted) */
-  controlsOutside?: number;
-  /**
-   * polygons: the pieces p ∩ V kept (|p ∩ V| > 0) and their ring vertices, what the areal weighting costs per placement
-   * (the work budget, shared/plan-rules.ts baselineWork); absent in datasets stored before the budget counted them
-   */
-  pieces?: number;
-  vertices?: number;
-}
+export type BaselineInfo = FromSchema<typeof BASELINE_INFO_SCHEMA>;
 
 /** How input coordinates were turned into planar metres. */
-export type ProjectionInfo =
-  | { kind: 'planar' }
-  | { kind: 'epsg'; code: number; proj4: string }
-  | { kind: 'laea'; lon0: number; lat0: number; proj4: string };
+export type ProjectionInfo = FromSchema<typeof PROJECTION_SCHEMA>;
 
 /** A parsed, validated, projected dataset, ready for the engine. Built by server/inputs. */
 export interface Dataset {
@@ -75,57 +63,25 @@ export interface Dataset {
   baseline?: { engine: Baseline; info: BaselineInfo };
 }
 
-export interface DatasetSummary {
-  id?: string;
-  name: string;
-  crs: string;
-  n: number;
-  nInside: number;
-  nOutside: number;
-  validArea: number;
-  studyAreaArea: number;
-  bbox: BBox;
-  areaIsDefault: boolean;
-  warnings: InputWarning[];
-  /** how the input coordinates became planar metres (absent in summaries stored before it was recorded) */
-  projection?: ProjectionInfo;
-  /** the same as one line with the full proj4 definition, e.g. "EPSG:32633: +proj=utm +zone=33 ..." */
-  projectionUsed?: string;
-  /** the population at risk: file, field and totals (absent: expected counts follow area) */
-  baseline?: BaselineInfo;
-  /** cell sides (m) for 1.6, 2 and 5 expected points per cell: side = sqrt(k * validArea / nInside) */
-  suggestedCellSizes: { perCell: number; cellSize: number; rule: string }[];
-  createdAt?: string;
-}
+/** A stored dataset as the API shows it (http-schemas DATASET_SUMMARY_SCHEMA). */
+export type StoredDataset = FromSchema<typeof DATASET_SUMMARY_SCHEMA>;
 
-export type PlacementDesign = 'halton' | 'lattice';
+/** A dataset's summary before it is stored (no id yet; the server's warnings keep their command-line words). */
+export type DatasetSummary = Omit<StoredDataset, 'id' | 'sample' | 'warnings'> & { id?: string; warnings: InputWarning[] };
+
+export type { PlacementDesign } from './plan-rules.js';
 
 /**
  * Where a server runs a sweep's tasks (`executor` of POST /api/sweeps, beside the plan: it changes no number):
  * its own worker pool, or the Redis queue of `serve --queue` (the default on such a server).
  */
-export type ExecutorChoice = 'local' | 'queue';
+export type ExecutorChoice = (typeof EXECUTOR_CHOICES)[number];
 
-/** A sweep's parameters; JSON uses these names, the CLI the kebab-case ones. */
-export interface Plan {
-  /** cell sides in metres; exactly one of cells / perCell is given */
-  cells?: number[];
-  /** expected points per cell, turned into sides by sqrt(k * validArea / n) */
-  perCell?: number[];
-  placements: number;
-  rotation: boolean;
-  design: PlacementDesign;
-  minCoverage: number;
-  alpha: number;
-  sims: number;
-  seed: number;
-  /**
-   * the cells' shape, or a list of shapes run on the same placement design (absent: square, workers/lattice
-   * DEFAULT_CELL_SHAPE); kept as given so that a square plan reads back unchanged
-   */
-  shape?: CellShape | CellShape[];
-}
+/** A plan as sent: every field optional (http-schemas PLAN_SCHEMA). */
+export type PlanInput = FromSchema<typeof PLAN_SCHEMA>;
 
+/** A sweep's parameters, defaults filled in; JSON uses these names, the CLI the kebab-case ones. */
+export type Plan = PlanInput & Required<Pick<PlanInput, (typeof PLAN_FILLED_FIELDS)[number]>>;
 
 /**
  * One row per (cell size, placement): the placement's parameters and all its statistics except the class table. The
@@ -283,49 +239,55 @@ export interface StabilitySizeSummary {
   files: { tif: string; geojson: string };
 }
 
-export type SweepStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled' | 'interrupted';
+export type SweepStatus = (typeof SWEEP_STATUSES)[number];
 
-export interface SweepProgress {
-  done: number;
-  total: number;
-  elapsedSeconds: number;
-  remainingSeconds: number | null;
-}
+export type SweepProgress = FromSchema<typeof SWEEP_PROGRESS_SCHEMA>;
 
-export interface SweepEstimate {
-  /** points x placements x sizes x (1 + sims), plus the baseline's work (baselineWork) */
-  work: number;
-  budget: number;
-  tasks: number;
-  /** sizes x placements x (1 + sims): grid evaluations held until summarised */
-  evaluations?: number;
-  /** bytes of simulated CSR coordinates: points x sims x 16 */
-  simulatedBytes?: number;
-  /** the part of `work` the population at risk adds (shared/plan-rules.ts baselineWork); 0 or absent against area */
-  baselineWork?: number;
-}
+export type SweepEstimate = FromSchema<typeof SWEEP_ESTIMATE_SCHEMA>;
+
+/** A sweep as the API shows it; `summary` (one sweep's GET only) is the summary.json contract above. */
+export type SweepView = Omit<FromSchema<typeof SWEEP_SCHEMA>, 'summary'> & { summary?: SweepSummary | null };
+
+/** The answer to starting or rerunning a sweep (202). */
+export type SweepStarted = FromSchema<typeof SWEEP_STARTED_SCHEMA>;
+
+/** GET /api/health, without its constant `status: 'ok'`. */
+export type HealthInfo = Omit<FromSchema<typeof HEALTH_SCHEMA>, 'status'>;
 
 /** GET /api/datasets/:id/geometry: what the page draws of a dataset (server/services/dataset-geometry.ts). */
-export interface DatasetGeometry {
-  /** points drawn, x,y interleaved (planar metres) */
-  points: number[];
-  /** 1 when the drawn point is inside the valid region, 0 when it lies outside (never counted) */
-  pointInside: number[];
-  /** points in the dataset, and the stride used (1 = every point drawn) */
-  totalPoints: number;
-  stride: number;
-  studyArea: number[][][][];
-  noDataZones: number[][][][];
-  bbox: Dataset['region']['bbox'];
-  origin: Dataset['origin'];
-  /**
-   * the population-at-risk polygons inside the valid region (p ∩ V, closed rings) with their density P_p / |p ∩ V| per
-   * km², for the map's choropleth (issue 15); absent without baseline polygons
-   */
-  baseline?: { polygons: { rings: number[][][]; density: number }[]; maxDensity: number };
-  /**
-   * the control points inside the valid region (issue 15), x,y interleaved (planar metres), decimated like the points
-   * (every stride-th of total drawn); absent without controls
-   */
-  controls?: { points: number[]; total: number; stride: number };
+export type DatasetGeometry = FromSchema<typeof DATASET_GEOMETRY_SCHEMA>;
+
+/** One cell of grid.geojson (server/grid-export/grid-geojson.ts): id "i,j", planar or longitude/latitude ring. */
+export interface GridFeature {
+  type: 'Feature';
+  id?: string;
+  /** expected is null for a cell left out (coverage below minCoverage) */
+  properties: { i: number; j: number; count: number; coverage: number; expected: number | null; kept: boolean };
+  geometry: { type: 'Polygon'; coordinates: number[][][] };
+}
+
+/** What grid.geojson says of its placement, beside the features (its `gridshake` member). */
+export interface GridMeta {
+  /** in words: longitude/latitude or planar metres of the working system */
+  coordinates: string;
+  projection: string;
+  dataset: string;
+  sizeIndex: number;
+  placementIndex: number;
+  cellSize: number;
+  shape: CellShape;
+  u: number;
+  v: number;
+  angle: number;
+  minCoverage: number;
+  origin: Origin;
+  /** cells of the grid frame (kept or not) */
+  cells: number;
+}
+
+/** GET /api/sweeps/:id/grid.geojson: the cells of one placement (RFC 7946 FeatureCollection, streamed as text). */
+export interface GridCollection {
+  type: 'FeatureCollection';
+  features: GridFeature[];
+  gridshake?: GridMeta;
 }

@@ -1,11 +1,10 @@
 /**
- * The plan's rules, written once and used by the HTTP schema (server/routes/schemas/common-schemas.ts), the plan
+ * The plan's rules, written once and used by the HTTP schema (shared/http-schemas.ts), the plan
  * validation (server/sweeps/plan.ts), the CLI parser and help (server/cli/sweep-command.ts), the sweep budget
  * (server/sweeps/sweep-budget.ts) and the page's form and live estimate (client/src/plan, client/src/panels):
  * the allowed ranges, the defaults, the work budget and the limits on evaluations and simulation memory.
  * Pure: numbers in, numbers and words out.
  */
-import type { BaselineInfo, Plan } from './contracts.js';
 import type { BaselineSize } from '../workers/baseline/baseline.js';
 
 /** Allowed ranges of the plan fields. */
@@ -26,11 +25,31 @@ export const PLAN_LIMITS = Object.freeze({
   maxCellsInRegion: 1 << 22,
 });
 
-/** The defaults of every plan field but the cell sizes. */
-export const DEFAULT_PLAN: Readonly<Omit<Plan, 'cells' | 'perCell'>> = Object.freeze({
+/**
+ * The placement designs: the list behind the HTTP schema
+ * (shared/http-schemas.ts), the plan validation, the CLI help and the page's choices. How each one places the grid:
+ * server/sweeps/placement-design.ts.
+ */
+export const PLACEMENT_DESIGNS = ['halton', 'lattice'] as const;
+
+export type PlacementDesign = (typeof PLACEMENT_DESIGNS)[number];
+
+/** Each design as the page's form names it. */
+export const PLACEMENT_DESIGN_LABELS: Readonly<Record<PlacementDesign, string>> = Object.freeze({
+  halton: 'Halton sequence (spread evenly, any count)',
+  lattice: 'regular lattice',
+});
+
+/** Whether a value names a placement design. */
+export function isPlacementDesign(value: unknown): value is PlacementDesign {
+  return typeof value === 'string' && (PLACEMENT_DESIGNS as readonly string[]).includes(value);
+}
+
+/** The defaults of every plan field but the cell sizes and the shape (the fields every normalized plan has). */
+export const DEFAULT_PLAN = Object.freeze({
   placements: 256,
   rotation: true,
-  design: 'halton',
+  design: 'halton' as PlacementDesign,
   minCoverage: 0.5,
   alpha: 0.05,
   sims: 99,
@@ -101,12 +120,21 @@ export function baselineWork(size: BaselineSize | undefined, nInside: number, pl
   return weighting + sims * nInside * Math.ceil(Math.log2(size.pieces + 1));
 }
 
+/** What the budget reads of a dataset's baseline record (BaselineInfo of shared/contracts.ts, which imports this file). */
+export interface BaselineRecordSize {
+  kind: 'polygons' | 'controls';
+  features: number;
+  totalInside: number;
+  pieces?: number;
+  vertices?: number;
+}
+
 /**
  * The budget's view of a dataset's baseline record (its summary, as the page and the API see it): controls from the
  * count inside V; polygons from the recorded pieces and vertices, or, in a record stored before they were counted,
  * the features read and 4 vertices each (the sweep itself is checked against the engine data: baselineSize).
  */
-export function baselineSizeOf(info: BaselineInfo | undefined): BaselineSize | undefined {
+export function baselineSizeOf(info: BaselineRecordSize | undefined): BaselineSize | undefined {
   if (info === undefined) return undefined;
   if (info.kind === 'controls') return { kind: 'controls', pieces: 0, vertices: 0, controls: info.totalInside };
   const pieces = info.pieces ?? info.features;

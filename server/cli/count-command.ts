@@ -37,6 +37,7 @@ import type { CliCommand, CliIo } from './cli-command.js';
 import type { CountMonteCarlo, CountResult } from './count-result.js';
 import { formatCount } from './format-count.js';
 import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
+import { LEVEL_OPTIONS } from './level-options.js';
 
 /**
  * Random labellings of count's Monte Carlo test against controls by default: 999 gives p-values in steps of 0.001,
@@ -57,8 +58,7 @@ const OPTIONS: OptionSpecs = {
     description: 'grid rotation, degrees counter-clockwise in [0, 90) for squares, [0, 60) for hexagons; default 0',
   },
   offset: { type: 'string', value: 'U,V', description: 'grid offset in cell units, each in [0, 1); default 0,0' },
-  'min-coverage': { type: 'string', value: 'T', description: 'least share of a cell in the valid region, (0, 1]; default 0.5' },
-  alpha: { type: 'string', value: 'A', description: 'two-sided significance level, (0, 0.5]; default 0.05' },
+  ...LEVEL_OPTIONS,
   sims: {
     type: 'string',
     value: 'R',

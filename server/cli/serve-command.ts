@@ -15,6 +15,7 @@ import { optionalString, parseChecked, parseWholeNumber, type OptionSpecs, type 
 import type { CliCommand, CliIo } from './cli-command.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
 import { parseBasemapUrl } from '../security/basemap-url.js';
+import { untilSignal } from './until-signal.js';
 
 export const DEFAULT_PORT = 5178;
 export const DEFAULT_HOST = '127.0.0.1';
@@ -46,21 +47,6 @@ export function bindWarning(host: string): string | null {
 function urlHost(host: string): string {
   if (host === '0.0.0.0' || host === '::') return '127.0.0.1';
   return host.includes(':') ? `[${host}]` : host;
-}
-
-/** Resolves on the first SIGINT or SIGTERM. */
-function untilSignal(): Promise<string> {
-  return new Promise((resolve) => {
-    const stop = (signal: string): void => {
-      process.off('SIGINT', onInt);
-      process.off('SIGTERM', onTerm);
-      resolve(signal);
-    };
-    const onInt = (): void => stop('SIGINT');
-    const onTerm = (): void => stop('SIGTERM');
-    process.on('SIGINT', onInt);
-    process.on('SIGTERM', onTerm);
-  });
 }
 
 async function run(values: OptionValues, io: CliIo): Promise<number> {

@@ -7,7 +7,7 @@ import type { Plan, SweepProgress } from '../../shared/contracts.js';
 import { renderReport } from '../report/render-report.js';
 import { reportMap } from '../report/report-map.js';
 import { normalizePlan, planShapes, resolveCellSizes } from '../sweeps/plan.js';
-import { DEFAULT_PLAN, PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
+import { DEFAULT_PLAN, PLACEMENT_DESIGNS, PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
 import { stabilityFileNames, stabilityFiles } from '../stability/stability-files.js';
 import { stabilityLines } from '../stability/stability-notes.js';
 import { placementsToCsv } from '../sweeps/placements-csv.js';
@@ -28,8 +28,14 @@ import {
 import type { CliCommand, CliIo } from './cli-command.js';
 import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './dataset-flags.js';
 import { checkOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
+import { LEVEL_OPTIONS } from './level-options.js';
 import { progressLine } from './sweep-progress.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
+
+/** "'halton' (default) or 'lattice'": the designs of shared/plan-rules.ts. */
+function designChoices(): string {
+  return PLACEMENT_DESIGNS.map((design) => `'${design}'${design === DEFAULT_PLAN.design ? ' (default)' : ''}`).join(' or ');
+}
 
 const OPTIONS: OptionSpecs = {
   ...DATASET_OPTIONS,
@@ -37,9 +43,8 @@ const OPTIONS: OptionSpecs = {
   'per-cell': { type: 'string', value: 'K,K,...', description: 'expected points per cell, turned into sides sqrt(K A / n)' },
   placements: { type: 'string', value: 'N', description: `placements per cell size, ${PLAN_RANGE_WORDS.placements}; default ${DEFAULT_PLAN.placements}` },
   'no-rotation': { type: 'boolean', description: 'offsets only, every grid at angle 0' },
-  design: { type: 'string', value: 'D', description: "placement design: 'halton' (default) or 'lattice'" },
-  'min-coverage': { type: 'string', value: 'T', description: `least share of a cell in the valid region, ${PLAN_RANGE_WORDS.minCoverage}; default ${DEFAULT_PLAN.minCoverage}` },
-  alpha: { type: 'string', value: 'A', description: `two-sided significance level, ${PLAN_RANGE_WORDS.alpha}; default ${DEFAULT_PLAN.alpha}` },
+  design: { type: 'string', value: 'D', description: `placement design: ${designChoices()}` },
+  ...LEVEL_OPTIONS,
   sims: { type: 'string', value: 'R', description: `simulated CSR patterns for the Monte Carlo test, ${PLAN_RANGE_WORDS.sims}; default ${DEFAULT_PLAN.sims}` },
   seed: { type: 'string', value: 'S', description: `seed of the simulations, an integer; default ${DEFAULT_PLAN.seed}` },
   shape: {

@@ -8,6 +8,7 @@ import { QUEUE_ENV } from '../queue/queue-url.js';
 import { optionalString, parseWholeNumber, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliCommand, CliIo } from './cli-command.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
+import { untilSignal } from './until-signal.js';
 
 const OPTIONS: OptionSpecs = {
   ...QUEUE_OPTION,
@@ -23,17 +24,7 @@ async function run(values: OptionValues, io: CliIo): Promise<number> {
   const { QueueWorker } = await import('../queue/queue-worker.js');
   const worker = new QueueWorker({ connection, threads, log });
   log(`connecting to ${connection.display} with ${worker.threads} threads`);
-  const signal = await new Promise<string>((resolve) => {
-    const stop = (name: string): void => {
-      process.off('SIGINT', onInt);
-      process.off('SIGTERM', onTerm);
-      resolve(name);
-    };
-    const onInt = (): void => stop('SIGINT');
-    const onTerm = (): void => stop('SIGTERM');
-    process.on('SIGINT', onInt);
-    process.on('SIGTERM', onTerm);
-  });
+  const signal = await untilSignal();
   log(`${signal}: finishing the tasks in hand (${signal} again stops at once)`);
   const again = (): void => process.exit(143);
   process.once('SIGINT', again);

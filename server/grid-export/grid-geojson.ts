@@ -9,7 +9,7 @@
  */
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { cellAt, type CellDescription, type CellGrid } from '../../workers/placement/index.js';
-import type { ProjectionInfo } from '../../shared/contracts.js';
+import type { GridFeature, GridMeta, ProjectionInfo } from '../../shared/contracts.js';
 import { parameterError } from '../errors.js';
 import type { GridRequest } from './grid-cells.js';
 import { lonLatRing } from './lonlat-ring.js';
@@ -46,7 +46,7 @@ function header(input: GridGeoJsonInput): string {
   const system = workingSystem(input.projection);
   const lonlat = input.coordinates === 'lonlat';
   const epsgMetres = input.projection.kind === 'epsg' && /\+units=m(\s|$)/.test(input.projection.proj4);
-  const meta = {
+  const meta: GridMeta = {
     coordinates: lonlat
       ? `longitude/latitude (WGS 84, RFC 7946); cell edges densified to within 1 cm of the planar ${input.request.shape === 'hex' ? 'hexagon' : 'square'}`
       : `planar metres of the working system (not longitude/latitude): ${system.description}`,
@@ -71,12 +71,13 @@ function header(input: GridGeoJsonInput): string {
 }
 
 function feature(cell: CellDescription, ring: [number, number][]): string {
-  return JSON.stringify({
+  const described: GridFeature = {
     type: 'Feature',
     id: `${cell.i},${cell.j}`,
     properties: { i: cell.i, j: cell.j, count: cell.count, coverage: cell.coverage, expected: cell.expected, kept: cell.kept },
     geometry: { type: 'Polygon', coordinates: [ring] },
-  });
+  };
+  return JSON.stringify(described);
 }
 
 /** The FeatureCollection as text chunks. */

@@ -14,8 +14,9 @@ import { MAX_CONCURRENT_UPLOADS } from '../limits.js';
 import type { UploadedFile } from '../services/dataset-parser.js';
 import type { DatasetService } from '../services/dataset-service.js';
 import type { UploadFolder } from '../services/upload-folder.js';
+import { registerDeleteRoute } from './delete-route.js';
 import { errorResponses } from './error-handler.js';
-import { BBOX_SCHEMA, ID_PARAMS } from './schemas/common-schemas.js';
+import { DATASET_GEOMETRY_SCHEMA, ID_PARAMS } from '../../shared/http-schemas.js';
 
 /** Most no-data files in one upload. */
 export const MAX_NO_DATA_FILES = 16;
@@ -49,41 +50,6 @@ const UPLOAD_BODY = {
     id: fieldPart({ type: 'string', maxLength: 100 }),
     /** "true" to leave out CSV rows whose coordinates are blank or n/a (the page's checkbox) */
     skipBadRows: fieldPart({ type: 'string', enum: ['true', 'false', 'on', ''] }),
-  },
-} as const;
-
-const GEOMETRY_RESPONSE = {
-  type: 'object',
-  required: ['points', 'pointInside', 'totalPoints', 'stride', 'studyArea', 'noDataZones', 'bbox'],
-  properties: {
-    points: { type: 'array', items: { type: 'number' } },
-    pointInside: { type: 'array', items: { type: 'integer' } },
-    totalPoints: { type: 'integer' },
-    stride: { type: 'integer' },
-    baseline: {
-      type: 'object',
-      properties: {
-        polygons: {
-          type: 'array',
-          items: {
-            type: 'object',
-            properties: {
-              rings: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } },
-              density: { type: 'number' },
-            },
-          },
-        },
-        maxDensity: { type: 'number' },
-      },
-    },
-    controls: {
-      type: 'object',
-      properties: { points: { type: 'array', items: { type: 'number' } }, total: { type: 'integer' }, stride: { type: 'integer' } },
-    },
-    studyArea: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
-    noDataZones: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'array', items: { type: 'number' } } } } },
-    bbox: BBOX_SCHEMA,
-    origin: { type: 'object', properties: { x: { type: 'number' }, y: { type: 'number' } } },
   },
 } as const;
 
@@ -263,18 +229,11 @@ export function registerDatasetRoutes(app: FastifyInstance, datasets: DatasetSer
           additionalProperties: false,
           properties: { maxPoints: { type: 'integer', minimum: 1, maximum: 100000 } },
         },
-        response: { 200: GEOMETRY_RESPONSE, ...errorResponses(400, 404) },
+        response: { 200: DATASET_GEOMETRY_SCHEMA, ...errorResponses(400, 404) },
       },
     },
     async (request) => datasets.geometry(request.params.id, request.query.maxPoints),
   );
 
-  app.delete<{ Params: { id: string } }>(
-    '/api/datasets/:id',
-    { schema: { params: ID_PARAMS, response: { 204: { type: 'null' }, ...errorResponses(400, 404) } } },
-    async (request, reply) => {
-      datasets.delete(request.params.id);
-      return reply.code(204).send();
-    },
-  );
+  registerDeleteRoute(app, '/api/datasets/:id', (id) => datasets.delete(id));
 }

@@ -7,14 +7,13 @@
  */
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { statusOf, type ErrorCode } from '../../shared/error-codes.js';
+import type { ERROR_SCHEMA } from '../../shared/http-schemas.js';
+import type { FromSchema } from '../../shared/schema-type.js';
 import { GridshakeError, isGridshakeError } from '../errors.js';
 import { storageWriteError } from '../store/write-failure.js';
 
-export interface ErrorBody {
-  statusCode: number;
-  code: ErrorCode;
-  message: string;
-}
+/** An error response (shared/http-schemas.ts ERROR_SCHEMA), its code one of the registry's. */
+export type ErrorBody = Omit<FromSchema<typeof ERROR_SCHEMA>, 'code'> & { code: ErrorCode };
 
 /** The body of a coded error with the registry's status for its code. */
 function coded(code: ErrorCode, message: string): ErrorBody {
@@ -92,18 +91,6 @@ export function installErrorHandling(app: FastifyInstance, limits: LimitsForMess
     void reply.code(body.statusCode).send(body);
   });
 }
-
-/** JSON schema of an error response, shared by every route ($ref: 'gsError#'). */
-export const ERROR_SCHEMA = {
-  $id: 'gsError',
-  type: 'object',
-  required: ['statusCode', 'code', 'message'],
-  properties: {
-    statusCode: { type: 'integer' },
-    code: { type: 'string' },
-    message: { type: 'string' },
-  },
-} as const;
 
 /** The error responses of a route, for its `response` schema. */
 export function errorResponses(...statuses: number[]): Record<number, { $ref: string }> {

@@ -14,7 +14,7 @@ import { FINISHED_STATUSES } from '../store/sweep-store.js';
 import { tooManyStreamsError } from '../errors.js';
 import { MAX_EVENT_STREAMS } from '../limits.js';
 import { errorResponses } from './error-handler.js';
-import { ID_PARAMS } from './schemas/common-schemas.js';
+import { ID_PARAMS } from '../../shared/http-schemas.js';
 
 export const HEARTBEAT_MS = 1000;
 

@@ -7,7 +7,7 @@
 import type { FastifyInstance } from 'fastify';
 import type { SweepExports } from '../services/sweep-exports.js';
 import { errorResponses } from './error-handler.js';
-import { ID_PARAMS } from './schemas/common-schemas.js';
+import { ID_PARAMS } from '../../shared/http-schemas.js';
 import { REPORT_POLICY } from '../security/content-security-policy.js';
 
 

@@ -6,33 +6,15 @@
 import type { FastifyInstance } from 'fastify';
 import type { SweepService } from '../services/sweep-service.js';
 import { SWEEP_PAGE_DEFAULT, SWEEP_PAGE_MAX } from '../limits.js';
-import { EXECUTOR_CHOICES, type ExecutorChoice } from '../services/sweep-runner.js';
+import { registerDeleteRoute } from './delete-route.js';
 import { errorResponses } from './error-handler.js';
-import { ID_PARAMS, PLAN_SCHEMA, SWEEP_ESTIMATE_SCHEMA } from './schemas/common-schemas.js';
-
-const START_BODY = {
-  type: 'object',
-  required: ['datasetId', 'plan'],
-  additionalProperties: false,
-  properties: { datasetId: ID_PARAMS.properties.id, plan: PLAN_SCHEMA, executor: { type: 'string', enum: EXECUTOR_CHOICES } },
-} as const;
-
-const STARTED_RESPONSE = {
-  type: 'object',
-  required: ['id', 'status', 'estimate'],
-  properties: {
-    id: { type: 'string' },
-    status: { type: 'string' },
-    estimate: SWEEP_ESTIMATE_SCHEMA,
-    queuePosition: { type: ['integer', 'null'] },
-    rerunOf: { type: ['string', 'null'] },
-  },
-} as const;
+import { ID_PARAMS, SWEEP_START_BODY_SCHEMA, SWEEP_STARTED_SCHEMA } from '../../shared/http-schemas.js';
+import type { FromSchema } from '../../shared/schema-type.js';
 
 export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService): void {
-  app.post<{ Body: { datasetId: string; plan: unknown; executor?: ExecutorChoice } }>(
+  app.post<{ Body: FromSchema<typeof SWEEP_START_BODY_SCHEMA> }>(
     '/api/sweeps',
-    { schema: { body: START_BODY, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 429) } } },
+    { schema: { body: SWEEP_START_BODY_SCHEMA, response: { 202: SWEEP_STARTED_SCHEMA, ...errorResponses(400, 404, 429) } } },
     async (request, reply) => reply.code(202).send(sweeps.start(request.body.datasetId, request.body.plan, null, request.body.executor)),
   );
 
@@ -73,16 +55,9 @@ export function registerSweepRoutes(app: FastifyInstance, sweeps: SweepService):
 
   app.post<{ Params: { id: string } }>(
     '/api/sweeps/:id/rerun',
-    { schema: { params: ID_PARAMS, response: { 202: STARTED_RESPONSE, ...errorResponses(400, 404, 409, 429) } } },
+    { schema: { params: ID_PARAMS, response: { 202: SWEEP_STARTED_SCHEMA, ...errorResponses(400, 404, 409, 429) } } },
     async (request, reply) => reply.code(202).send(sweeps.rerun(request.params.id)),
   );
 
-  app.delete<{ Params: { id: string } }>(
-    '/api/sweeps/:id',
-    { schema: { params: ID_PARAMS, response: { 204: { type: 'null' }, ...errorResponses(400, 404) } } },
-    async (request, reply) => {
-      sweeps.delete(request.params.id);
-      return reply.code(204).send();
-    },
-  );
+  registerDeleteRoute(app, '/api/sweeps/:id', (id) => sweeps.delete(id));
 }

@@ -4,7 +4,7 @@
  * (v8::Module::IsGraphAsync). This entry loads the ES task module (dataset-parser-task.js) once with import().
  */
 import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
+import { esmTaskEntry } from '../../workers/esm-task-entry.cjs';
 import { lowerThreadPriority } from '../threads/thread-priority.cjs';
 
 /**
@@ -14,14 +14,6 @@ import { lowerThreadPriority } from '../threads/thread-priority.cjs';
 const PARSER_THREAD_NICE = 10;
 lowerThreadPriority(PARSER_THREAD_NICE);
 
-type TaskFunction = (task: unknown) => unknown;
-
-const TASK_MODULE_URL = pathToFileURL(join(__dirname, 'dataset-parser-task.js')).href;
-let taskFunction: Promise<TaskFunction> | undefined;
-
-function parserEntry(task: unknown): Promise<unknown> {
-  taskFunction ??= import(TASK_MODULE_URL).then((module: { default: TaskFunction }) => module.default);
-  return taskFunction.then((run) => run(task));
-}
+const parserEntry = esmTaskEntry(join(__dirname, 'dataset-parser-task.js'));
 
 export = parserEntry;

@@ -8,9 +8,6 @@ import type { StabilitySurface } from '../stability/stability-accumulator.js';
 
 export type { ExecutorChoice };
 
-/** Every ExecutorChoice, for the request schema (the type in shared/contracts.ts says what each means). */
-export const EXECUTOR_CHOICES = ['local', 'queue'] as const satisfies readonly ExecutorChoice[];
-
 /** Progress as the pool reports it: at least placements done and total. */
 export interface RunnerProgress {
   done: number;

@@ -3,7 +3,7 @@
  * status and summaries, cancel, rerun from the stored plan, delete. Refusals are coded 4xx errors raised before
  * anything is stored or queued; at most MAX_QUEUED_SWEEPS may wait (429 GS_ERR_QUEUE_FULL).
  */
-import type { Plan, SweepProgress, SweepStatus } from '../../shared/contracts.js';
+import type { Plan, SweepProgress, SweepStatus, SweepView } from '../../shared/contracts.js';
 import { conflictError, notFoundError, parameterError, queueFullError } from '../errors.js';
 import { MAX_QUEUED_SWEEPS } from '../limits.js';
 import type { GridshakeStore } from '../store/store.js';
@@ -14,15 +14,6 @@ import { assertWithinBudget, estimateSweep } from '../sweeps/sweep-budget.js';
 import { baselineSizeOf } from '../../shared/plan-rules.js';
 import type { SweepQueue } from './sweep-queue.js';
 import type { ExecutorChoice } from './sweep-runner.js';
-
-/** A sweep as the API shows it. */
-export interface SweepView extends Omit<SweepRecord, 'summary'> {
-  datasetName: string | null;
-  /** place in the queue (0 = next) while queued, else null */
-  queuePosition: number | null;
-  conclusion: string | null;
-  summary?: SweepRecord['summary'];
-}
 
 export class SweepService {
   constructor(

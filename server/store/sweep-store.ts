@@ -5,27 +5,11 @@
  */
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
-import type { ExecutorChoice, Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../shared/contracts.js';
+import type { ExecutorChoice, Plan, SweepEstimate, SweepProgress, SweepStatus, SweepSummary, SweepView } from '../../shared/contracts.js';
 import { fromStoredJson, toStoredJson } from './blob-codec.js';
 
-export interface SweepRecord {
-  id: string;
-  datasetId: string;
-  plan: Plan;
-  estimate: SweepEstimate;
-  status: SweepStatus;
-  progress: SweepProgress;
-  summary: SweepSummary | null;
-  /** the summary's overall conclusion (also when the summary itself is not read) */
-  conclusion: string | null;
-  error: string | null;
-  rerunOf: string | null;
-  /** where its tasks run: the server's own pool or the Redis queue; null for sweeps stored before it was recorded */
-  executor: ExecutorChoice | null;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-}
+/** A sweep as stored: the API's view of it (http-schemas SWEEP_SCHEMA) without its dataset's name and queue place. */
+export type SweepRecord = Omit<SweepView, 'datasetName' | 'queuePosition' | 'summary'> & { summary: SweepSummary | null };
 
 interface SweepRow {
   id: string;

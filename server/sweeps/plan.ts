@@ -3,8 +3,8 @@
  * DEFAULT_PLAN, and the resolution of "expected points per cell" into cell sides.
  * Every bad value is a GS_ERR_PARAMETER error naming the field and the allowed range.
  */
-import type { Plan, PlacementDesign } from '../../shared/contracts.js';
-import { DEFAULT_PLAN, PLAN_LIMITS } from '../../shared/plan-rules.js';
+import type { Plan } from '../../shared/contracts.js';
+import { DEFAULT_PLAN, isPlacementDesign, PLACEMENT_DESIGNS, PLAN_LIMITS } from '../../shared/plan-rules.js';
 import { parameterError, tooFewSimsError } from '../errors.js';
 import { fieldRef, twoWays, type FieldName } from '../messages/field-names.js';
 import { tooFewSimsMessage } from '../../shared/monte-carlo-rule.js';
@@ -15,7 +15,6 @@ import { CELL_SHAPES, isCellShape, shapeList, type CellShape } from '../../worke
 export { PLAN_LIMITS } from '../../shared/plan-rules.js';
 
 const PLAN_FIELDS = new Set(['cells', 'perCell', 'placements', 'rotation', 'design', 'minCoverage', 'alpha', 'sims', 'seed', 'shape']);
-const DESIGNS: readonly PlacementDesign[] = ['halton', 'lattice'];
 
 function isRecord(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
@@ -90,8 +89,8 @@ export function normalizePlan(input: unknown): Plan {
   if (typeof merged.rotation !== 'boolean') {
     throw parameterError(`${fieldRef('rotation')} must be true or false, got ${JSON.stringify(merged.rotation)}`);
   }
-  if (!DESIGNS.includes(merged.design as PlacementDesign)) {
-    throw parameterError(`${fieldRef('design')} must be one of ${DESIGNS.join(', ')}, got ${JSON.stringify(merged.design)}`);
+  if (!isPlacementDesign(merged.design)) {
+    throw parameterError(`${fieldRef('design')} must be one of ${PLACEMENT_DESIGNS.join(', ')}, got ${JSON.stringify(merged.design)}`);
   }
   if (typeof merged.seed !== 'number' || !Number.isSafeInteger(merged.seed)) {
     throw parameterError(`${fieldRef('seed')} must be an integer, got ${JSON.stringify(merged.seed)}`);
@@ -99,7 +98,7 @@ export function normalizePlan(input: unknown): Plan {
   const plan: Plan = {
     placements: integerField('placements', merged.placements, PLAN_LIMITS.placements.min, PLAN_LIMITS.placements.max),
     rotation: merged.rotation,
-    design: merged.design as PlacementDesign,
+    design: merged.design,
     minCoverage: openClosedField('minCoverage', merged.minCoverage, PLAN_LIMITS.minCoverageMax),
     alpha: openClosedField('alpha', merged.alpha, PLAN_LIMITS.alphaMax),
     sims: integerField('sims', merged.sims, PLAN_LIMITS.sims.min, PLAN_LIMITS.sims.max),

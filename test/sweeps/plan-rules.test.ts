@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { PLAN_LIMITS } from '../../shared/plan-rules.js';
-import { PLAN_SCHEMA } from '../../server/routes/schemas/common-schemas.js';
+import { PLAN_SCHEMA } from '../../shared/http-schemas.js';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { parseAlpha, parseMinCoverage } from '../../server/cli/args.js';
 import { sweepCommand } from '../../server/cli/sweep-command.js';

@@ -20,20 +20,27 @@ export const MAX_GRID_CELLS = 1 << 27;
 export const COVERAGE_NOISE = 1e-12;
 const NOISE = COVERAGE_NOISE;
 
-/** Ring vertices in cell units (X = x'/s - u, Y = y'/s - v), one Float64Array per ring. */
-export function ringsInCellUnits(region: Region, origin: Origin, cellSize: number, placement: Placement): Float64Array[] {
-  const frame = createGridFrame(origin, cellSize, placement);
-  const { cos, sin, u, v } = frame;
+/**
+ * Ring vertices turned into a lattice's frame: X = x'/scale - shiftX, Y = y'/scale - shiftY with x' = dx cos + dy sin,
+ * y' = -dx sin + dy cos (dx, dy from the origin); one Float64Array per ring. Used by every lattice's coverage.
+ */
+export function ringsInFrame(region: Region, origin: Origin, cos: number, sin: number, scale: number, shiftX: number, shiftY: number): Float64Array[] {
   return region.rings.map((ring) => {
     const out = new Float64Array(ring.length);
     for (let k = 0; k < ring.length; k += 2) {
       const dx = ring[k]! - origin.x;
       const dy = ring[k + 1]! - origin.y;
-      out[k] = (dx * cos + dy * sin) / cellSize - u;
-      out[k + 1] = (-dx * sin + dy * cos) / cellSize - v;
+      out[k] = (dx * cos + dy * sin) / scale - shiftX;
+      out[k + 1] = (-dx * sin + dy * cos) / scale - shiftY;
     }
     return out;
   });
+}
+
+/** Ring vertices in cell units (X = x'/s - u, Y = y'/s - v), one Float64Array per ring. */
+export function ringsInCellUnits(region: Region, origin: Origin, cellSize: number, placement: Placement): Float64Array[] {
+  const { cos, sin, u, v } = createGridFrame(origin, cellSize, placement);
+  return ringsInFrame(region, origin, cos, sin, cellSize, u, v);
 }
 
 /** Bounding box [minX, minY, maxX, maxY] of rings in cell units. */

@@ -40,3 +40,15 @@ export interface Lattice {
   createCounter(xy: Float64Array, origin: Origin): CellCounter;
   frame(origin: Origin, cellSize: number, placement: Placement): LatticeFrame;
 }
+
+/** A lattice's `frame` from its frame maker and its two rules over that frame (cell of a point, cell polygon). */
+export function frameFromRules<F>(
+  create: (origin: Origin, cellSize: number, placement: Placement) => F,
+  cellOfPoint: (frame: F, px: number, py: number) => [number, number],
+  cellPolygon: (frame: F, i: number, j: number) => [number, number][],
+): Lattice['frame'] {
+  return (origin, cellSize, placement) => {
+    const frame = create(origin, cellSize, placement);
+    return { cellOfPoint: (px, py) => cellOfPoint(frame, px, py), cellPolygon: (i, j) => cellPolygon(frame, i, j) };
+  };
+}

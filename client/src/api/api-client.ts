@@ -5,7 +5,7 @@
 import { UNCODED_RESPONSE, type ErrorCode } from '../../../shared/error-codes.js';
 import { decodeTypedFrame, type TypedFrame } from '../../../shared/binary/typed-frame.js';
 import type { GridFrameMeta, SurfaceFrameMeta } from '../../../shared/binary/page-frames.js';
-import type { DatasetGeometry, DatasetSummary, ExecutorChoice, Plan, PlacementRow, SweepEstimate, SweepProgress, SweepStatus, SweepSummary } from '../../../shared/contracts.js';
+import type { DatasetGeometry, ExecutorChoice, HealthInfo, Plan, PlacementRow, StoredDataset, SweepStarted, SweepView } from '../../../shared/contracts.js';
 
 export class ApiError extends Error {
   constructor(readonly code: ErrorCode | typeof UNCODED_RESPONSE, readonly statusCode: number, message: string) {
@@ -14,38 +14,9 @@ export class ApiError extends Error {
   }
 }
 
-export interface HealthInfo {
-  version: string;
-  poolSize: number;
-  workBudget?: number;
-  /** the analyst's own XYZ tile server (serve --basemap), when configured */
-  basemap?: string;
-  /** where a sweep may run, the default first; more than one only on a server with a Redis queue */
-  executors?: ExecutorChoice[];
-}
+export type { DatasetGeometry, HealthInfo, StoredDataset, SweepView as SweepRecord } from '../../../shared/contracts.js';
 
-export interface StoredDataset extends DatasetSummary {
-  id: string;
-  /** the demo scenario this dataset was loaded from, or null for an upload */
-  sample?: string | null;
-}
-
-export type { DatasetGeometry } from '../../../shared/contracts.js';
-
-export interface SweepRecord {
-  id: string;
-  datasetId: string;
-  status: SweepStatus;
-  plan: Plan;
-  estimate: SweepEstimate;
-  progress: SweepProgress;
-  summary?: SweepSummary | null;
-  error?: string | null;
-  /** where its tasks ran (null: stored before this was recorded) */
-  executor?: ExecutorChoice | null;
-  createdAt?: string;
-}
-
+/** A cell as the page's map holds it, rebuilt from the compact grid frame (grid-from-frame.ts). */
 export interface GridFeature {
   type: 'Feature';
   /** expected: NaN (the page's frame) or null (GeoJSON) for a left-out cell; stability: the kept cell's flag in this placement */
@@ -102,12 +73,12 @@ export const api = {
   },
   /** `executor` absent: the server's default */
   startSweep: (datasetId: string, plan: Plan, executor?: ExecutorChoice) =>
-    request<{ id: string; status: SweepStatus; estimate: SweepEstimate }>('/api/sweeps', jsonBody(executor === undefined ? { datasetId, plan } : { datasetId, plan, executor })),
-  sweeps: (datasetId: string) => request<SweepRecord[]>(`/api/sweeps?datasetId=${datasetId}`),
-  sweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}`),
+    request<SweepStarted>('/api/sweeps', jsonBody(executor === undefined ? { datasetId, plan } : { datasetId, plan, executor })),
+  sweeps: (datasetId: string) => request<SweepView[]>(`/api/sweeps?datasetId=${datasetId}`),
+  sweep: (id: string) => request<SweepView>(`/api/sweeps/${id}`),
   deleteDataset: (id: string) => request<void>(`/api/datasets/${id}`, { method: 'DELETE' }),
   deleteSweep: (id: string) => request<void>(`/api/sweeps/${id}`, { method: 'DELETE' }),
-  cancelSweep: (id: string) => request<SweepRecord>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
+  cancelSweep: (id: string) => request<SweepView>(`/api/sweeps/${id}/cancel`, { method: 'POST' }),
   placements: (id: string) => request<PlacementRow[]>(`/api/sweeps/${id}/placements.json`),
   /** the placement's grid as typed arrays and lattice parameters (the page builds the polygons) */
   gridFrame: (id: string, size: number, placement: number) => frame<GridFrameMeta>(`/api/sweeps/${id}/grid-frame?size=${size}&placement=${placement}`),

@@ -10,8 +10,8 @@ import { formatNumber } from '../../../shared/format.js';
 import { verdictWords } from '../../../shared/verdict-words.js';
 import type { Verdict } from '../../../workers/types.js';
 
-export function pearsonResidual(count: number, expected: number): number {
-  return expected > 0 ? (count - expected) / Math.sqrt(expected) : Number.NaN;
+export function pearsonResidual(count: number, expected: number | null): number {
+  return expected !== null && expected > 0 ? (count - expected) / Math.sqrt(expected) : Number.NaN;
 }
 
 export interface CellLine {

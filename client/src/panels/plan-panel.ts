@@ -4,14 +4,14 @@
  * the budget refusal before anything starts.
  */
 import { smallestWorkingSims } from '../../../shared/monte-carlo-rule.js';
-import { PLAN_LIMITS } from '../../../shared/plan-rules.js';
+import { DEFAULT_PLAN, isPlacementDesign, PLACEMENT_DESIGN_LABELS, PLACEMENT_DESIGNS, PLAN_LIMITS } from '../../../shared/plan-rules.js';
 import { api, ApiError } from '../api/api-client.js';
 import type { Store } from '../app-state.js';
 import { formatNumber } from '../../../shared/format.js';
 import { planCost } from '../plan/plan-estimate.js';
 import { PLAN_FORM_DEFAULTS, readPlan, type PlanFormValues, type ShapeChoice } from '../plan/plan-values.js';
 import { shapeList } from '../../../workers/lattice/cell-shape.js';
-import { clear, el, field, message } from '../ui/dom.js';
+import { clear, el, field, message, select } from '../ui/dom.js';
 import { executorField } from './executor-choice.js';
 
 export function initPlanPanel(container: HTMLElement, store: Store): void {
@@ -40,14 +40,12 @@ function buildForm(container: HTMLElement, store: Store): void {
   });
   const extra = el('input', { type: 'text', id: 'plan-extra-sides', placeholder: 'e.g. 150, 400' });
   const placements = el('input', { type: 'number', id: 'plan-placements', min: PLAN_LIMITS.placements.min, max: PLAN_LIMITS.placements.max, step: 1, value: PLAN_FORM_DEFAULTS.placements });
-  const design = el('select', { id: 'plan-design' }, el('option', { value: 'halton' }, 'Halton sequence (spread evenly, any count)'), el('option', { value: 'lattice' }, 'regular lattice'));
-  const shape = el(
-    'select',
-    { id: 'plan-shape' },
-    el('option', { value: 'square' }, 'squares'),
-    el('option', { value: 'hex' }, 'hexagons (area = side², pointy-top)'),
-    el('option', { value: 'both' }, 'both, side by side on the same placements'),
-  );
+  const design = select({ id: 'plan-design' }, PLACEMENT_DESIGNS.map((name) => [name, PLACEMENT_DESIGN_LABELS[name]] as const));
+  const shape = select({ id: 'plan-shape' }, [
+    ['square', 'squares'],
+    ['hex', 'hexagons (area = side², pointy-top)'],
+    ['both', 'both, side by side on the same placements'],
+  ]);
   shape.value = PLAN_FORM_DEFAULTS.shape;
   const rotation = el('input', { type: 'checkbox', id: 'plan-rotation', checked: PLAN_FORM_DEFAULTS.rotation });
   const rotationLabel = el('label', { for: rotation.id });
@@ -66,7 +64,7 @@ function buildForm(container: HTMLElement, store: Store): void {
     sizes: sizeRows.map((row) => ({ text: row.side.value, include: row.include.checked, label: row.label })),
     extraSides: extra.value,
     placements: placements.value,
-    design: design.value === 'lattice' ? 'lattice' : 'halton',
+    design: isPlacementDesign(design.value) ? design.value : DEFAULT_PLAN.design,
     shape: (['square', 'hex', 'both'] as const).find((choice) => choice === shape.value) ?? 'square',
     rotation: rotation.checked,
     minCoverage: minCoverage.value,

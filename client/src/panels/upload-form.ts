@@ -1,6 +1,6 @@
 /** Upload of points, an optional study area and no-data zones, with the coordinate system choice. */
 import { api, ApiError, type StoredDataset } from '../api/api-client.js';
-import { el, field, message } from '../ui/dom.js';
+import { el, field, message, select } from '../ui/dom.js';
 import { numericProperties } from './numeric-properties.js';
 
 /** True when the file starts like an SQLite database (a GeoPackage is one): its layer is read by the server. */
@@ -13,14 +13,12 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
   const points = el('input', { type: 'file', name: 'points', required: true, accept: '.csv,.txt,.geojson,.json,.gpkg' });
   const area = el('input', { type: 'file', name: 'area', accept: '.geojson,.json,.gpkg' });
   const noData = el('input', { type: 'file', name: 'noData', multiple: true, accept: '.geojson,.json,.gpkg' });
-  const crs = el(
-    'select',
-    { name: 'crsChoice' },
-    el('option', { value: '' }, 'as the file says (GeoJSON: longitude/latitude)'),
-    el('option', { value: 'planar' }, 'planar metres (already projected)'),
-    el('option', { value: 'EPSG:4326' }, 'longitude/latitude, EPSG:4326'),
-    el('option', { value: 'other' }, 'another EPSG code...'),
-  );
+  const crs = select({ name: 'crsChoice' }, [
+    ['', 'as the file says (GeoJSON: longitude/latitude)'],
+    ['planar', 'planar metres (already projected)'],
+    ['EPSG:4326', 'longitude/latitude, EPSG:4326'],
+    ['other', 'another EPSG code...'],
+  ]);
   const epsg = el('input', { type: 'text', name: 'epsg', inputmode: 'numeric', placeholder: 'e.g. 3035', disabled: true });
   crs.addEventListener('change', () => {
     epsg.disabled = crs.value !== 'other';
@@ -30,13 +28,11 @@ export function uploadForm(onUploaded: (dataset: StoredDataset) => void): HTMLEl
   const y = el('input', { type: 'text', name: 'y', maxlength: 100, placeholder: 'found by name' });
   const skipBadRows = el('input', { type: 'checkbox', name: 'skipBadRows', id: 'upload-skip-bad-rows' });
   // population at risk (optional): polygons with a count field, or control points
-  const riskKind = el(
-    'select',
-    { name: 'baselineKind' },
-    el('option', { value: '' }, 'none: expected counts follow area (complete spatial randomness)'),
-    el('option', { value: 'polygons' }, 'polygons with a count (residents, households, visits)'),
-    el('option', { value: 'controls' }, 'control points'),
-  );
+  const riskKind = select({ name: 'baselineKind' }, [
+    ['', 'none: expected counts follow area (complete spatial randomness)'],
+    ['polygons', 'polygons with a count (residents, households, visits)'],
+    ['controls', 'control points'],
+  ]);
   const riskFile = el('input', { type: 'file', name: 'baseline', accept: '.geojson,.json,.gpkg,.csv,.txt', disabled: true });
   const riskField = el('select', { name: 'baselineField', disabled: true }, el('option', { value: '' }, 'choose the polygons first'));
   const riskFieldStatus = el('span', { class: 'field-hint', 'aria-live': 'polite', 'data-testid': 'baseline-field-status' });

@@ -86,7 +86,7 @@ export function readPlan(values: PlanFormValues): PlanReading {
 /** The form's starting values: DEFAULT_PLAN (shared/plan-rules.ts), as field texts. */
 export const PLAN_FORM_DEFAULTS = {
   placements: String(DEFAULT_PLAN.placements),
-  design: DEFAULT_PLAN.design as PlacementDesign,
+  design: DEFAULT_PLAN.design,
   shape: 'square' as ShapeChoice,
   rotation: DEFAULT_PLAN.rotation,
   minCoverage: String(DEFAULT_PLAN.minCoverage),

@@ -21,6 +21,11 @@ export function el<K extends keyof HTMLElementTagNameMap>(
   return element;
 }
 
+/** A <select> offering `choices`, each [value, label], in their order. */
+export function select(attributes: Parameters<typeof el>[1], choices: readonly (readonly [string, string])[]): HTMLSelectElement {
+  return el('select', attributes, ...choices.map(([value, label]) => el('option', { value }, label)));
+}
+
 export function clear(container: Element, ...children: Child[]): void {
   container.replaceChildren();
   for (const child of children) {

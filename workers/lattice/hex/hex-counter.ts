@@ -92,6 +92,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
   const cell = new Float64Array(2);
 
   /** The contract's formula for the deferred points. */
+  // the same shape as square-counter.ts's exact pass, apart on purpose: shared, it measured slower (see DEVELOPERS.md)
   function countExactly(out: Int32Array, deferredCount: number): void {
     const frame = exactFrame;
     const i0 = integers[0]!;

@@ -11,7 +11,7 @@
  * slower than the square coverage; checked in the tests against Sutherland & Hodgman (1974) clipping of every
  * hexagon to 1e-12.
  */
-import { COVERAGE_NOISE, MAX_GRID_CELLS } from '../../geometry/coverage.js';
+import { COVERAGE_NOISE, MAX_GRID_CELLS, ringsInFrame } from '../../geometry/coverage.js';
 import type { CoverageGrid, Origin, Placement, Region } from '../../types.js';
 import { createHexFrame } from './hex-frame.js';
 import { accumulateHexAreas } from './hex-row-accumulation.js';
@@ -29,16 +29,7 @@ function ringsAroundFirstCentre(region: Region, origin: Origin, cellSize: number
   const { cos, sin, side } = frame;
   const centreX = placement.u * ROOT3 + (placement.v * ROOT3) / 2;
   const centreY = 1.5 * placement.v;
-  return region.rings.map((ring) => {
-    const out = new Float64Array(ring.length);
-    for (let k = 0; k < ring.length; k += 2) {
-      const dx = ring[k]! - origin.x;
-      const dy = ring[k + 1]! - origin.y;
-      out[k] = (dx * cos + dy * sin) / side - centreX;
-      out[k + 1] = (-dx * sin + dy * cos) / side - centreY;
-    }
-    return out;
-  });
+  return ringsInFrame(region, origin, cos, sin, side, centreX, centreY);
 }
 
 /** Hexagon index range [i0, i1] x [j0, j1] that may meet the rings (axial q = x/sqrt3 - y/3, r = y/1.5 around c(0,0)). */

@@ -3,7 +3,7 @@
  * exact coverage by rows of hexagons (hex-coverage.ts, hex-row-accumulation.ts), counting by the rounding rule with a fast path
  * (hex-counter.ts).
  */
-import type { Lattice } from '../lattice.js';
+import { frameFromRules, type Lattice } from '../lattice.js';
 import { createHexCounter } from './hex-counter.js';
 import { hexCoverage } from './hex-coverage.js';
 import { createHexFrame, hexCellOfPoint, hexCorners } from './hex-frame.js';
@@ -13,11 +13,5 @@ export const hexLattice: Lattice = {
   anglePeriod: 60,
   coverage: hexCoverage,
   createCounter: createHexCounter,
-  frame(origin, cellSize, placement) {
-    const frame = createHexFrame(origin, cellSize, placement);
-    return {
-      cellOfPoint: (px, py) => hexCellOfPoint(frame, px, py),
-      cellPolygon: (i, j) => hexCorners(frame, i, j),
-    };
-  },
+  frame: frameFromRules(createHexFrame, hexCellOfPoint, hexCorners),
 };

@@ -130,6 +130,7 @@ export function accumulateHexAreas(rings: readonly Float64Array[], i0: number, j
   }
 }
 
+// The walk of geometry/edge-accumulation.ts, apart on purpose (other geometry): hexagon rows overlap (1.5 j ± 1)
 function addEdge(xa: number, ya: number, xb: number, yb: number, i0: number, j0: number, nx: number, ny: number, areas: Float64Array): void {
   if (ya === yb) return;
   const sign = yb > ya ? 1 : -1;

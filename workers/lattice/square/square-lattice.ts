@@ -5,7 +5,7 @@
  */
 import { placementCoverage } from '../../geometry/coverage.js';
 import { cellCorners, cellOfPoint, createGridFrame } from '../../geometry/grid-frame.js';
-import type { Lattice } from '../lattice.js';
+import { frameFromRules, type Lattice } from '../lattice.js';
 import { createSquareCounter } from './square-counter.js';
 
 export const squareLattice: Lattice = {
@@ -13,11 +13,5 @@ export const squareLattice: Lattice = {
   anglePeriod: 90,
   coverage: placementCoverage,
   createCounter: createSquareCounter,
-  frame(origin, cellSize, placement) {
-    const frame = createGridFrame(origin, cellSize, placement);
-    return {
-      cellOfPoint: (px, py) => cellOfPoint(frame, px, py),
-      cellPolygon: (i, j) => cellCorners(frame, i, j),
-    };
-  },
+  frame: frameFromRules(createGridFrame, cellOfPoint, cellCorners),
 };
