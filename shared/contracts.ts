@@ -283,6 +283,11 @@ export interface SweepProgress {
 export interface SweepEstimate {
   /** points x placements x sizes x (1 + sims) */
   work: number;
+  /**
+   * the stability surface's work in the same unit: raster pixels x placements x SURFACE_PIXEL_WEIGHT
+   * (shared/plan-rules.ts); the budget holds work + surfaceWork
+   */
+  surfaceWork?: number;
   budget: number;
   tasks: number;
   /** sizes x placements x (1 + sims): grid evaluations held until summarised */

@@ -45,11 +45,14 @@ export const PLAN_RANGE_WORDS = Object.freeze({
 });
 
 /**
- * Default work budget (point-placements). A whole sweep measured about 6 ns per point-placement on two threads
- * of the benchmark machine at 1e6 points (npm run bench; simulated patterns cost less, the statistics of their cells
- * being only the chi-square), so the default allows a few minutes of work on two cores.
+ * Default work budget (point-placements), holding the counts' work and the stability surface's (surfaceWork). A
+ * whole sweep measured about 6 ns per point-placement on two threads of the benchmark machine at 1e6 points (npm run
+ * bench; simulated patterns cost less, the statistics of their cells being only the chi-square), so the default
+ * allows a few minutes of work on two cores. It was 2e10 before the surface was counted; the default plan on 1e5
+ * points (3 sizes at 2, 5 and 10 expected points per cell, 256 placements, 99 sims) needs 7.7e9 for the counts and
+ * about 2.1e10 for the surfaces (their pixels x placements x SURFACE_PIXEL_WEIGHT), and stays within it.
  */
-export const DEFAULT_WORK_BUDGET = 2e10;
+export const DEFAULT_WORK_BUDGET = 4e10;
 
 /** Most (size, placement, pattern) evaluations a sweep may hold: each keeps a chi-square value until summarised. */
 export const MAX_EVALUATIONS = 2e7;
@@ -57,18 +60,41 @@ export const MAX_EVALUATIONS = 2e7;
 /** Most bytes of simulated CSR coordinates held at once (n x sims x 16 bytes). */
 export const MAX_SIMULATED_BYTES = 1024 * 1024 * 1024;
 
+/**
+ * Point-placements of the budget that one pixel-placement of the stability surface counts for: finding a raster
+ * pixel's cell in one placement (and adding its flags) costs about as much as counting this many points in one
+ * placement of one pattern. An upper bound of the figure measured by `npm run bench -- surface` (the "surface
+ * weight" rows check that the measured figure stays below it): about 7 for squares and 11 for hexagons on the 2-core
+ * test machine under load (a hexagon pixel's cell comes from the lattice frame's cellOfPoint, which allocates).
+ */
+export const SURFACE_PIXEL_WEIGHT = 12;
+
 /** What a sweep costs: the quantities the budget and the limits are checked against. */
 export interface PlanWork {
   /** points inside x placements x sizes x (1 + sims): one point tested against one placement of one pattern */
   work: number;
+  /**
+   * the stability surface's work, in the same unit: raster pixels (summed over sizes) x placements x
+   * SURFACE_PIXEL_WEIGHT; the budget holds work + surfaceWork
+   */
+  surfaceWork: number;
   /** sizes x placements x (1 + sims): grid evaluations held until summarised */
   evaluations: number;
   /** points inside x sims x 16: bytes of simulated CSR coordinates */
   simulatedBytes: number;
 }
 
-/** The cost of `sizes` (shape, cell size) pairs of `placements` placements with `sims` simulations. Cost O(1). */
-export function planWork(nInside: number, placements: number, sizes: number, sims: number): PlanWork {
+/**
+ * The cost of `sizes` (shape, cell size) pairs of `placements` placements with `sims` simulations, and of a
+ * stability surface with `surfacePixels` raster pixels over all the sizes (0: no surface). Cost O(1).
+ */
+export function planWork(nInside: number, placements: number, sizes: number, sims: number, surfacePixels = 0): PlanWork {
   const patterns = 1 + sims;
-  return { work: nInside * placements * sizes * patterns, evaluations: sizes * placements * patterns, simulatedBytes: nInside * 16 * sims };
+  const surfaceWork = surfacePixels * placements * SURFACE_PIXEL_WEIGHT;
+  return {
+    work: nInside * placements * sizes * patterns,
+    surfaceWork,
+    evaluations: sizes * placements * patterns,
+    simulatedBytes: nInside * 16 * sims,
+  };
 }

@@ -64,7 +64,8 @@ export class ExecutorSweepRunner {
     const startedAt = new Date();
     const plan = validatedPlan(planInput);
     const cellSizes = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
-    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget));
+    const surface = options.stability === true ? { bbox: dataset.region.bbox, cellSizes } : undefined;
+    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget, surface));
     if (options.signal?.aborted) throw sweepCancelledError();
     const controller = new AbortController();
     // every task in flight listens to the signal

@@ -69,7 +69,7 @@ export const SWEEP_ESTIMATE_SCHEMA = {
   type: 'object',
   required: ['work', 'budget', 'tasks'],
   additionalProperties: true,
-  properties: { work: { type: 'number' }, budget: { type: 'number' }, tasks: { type: 'integer' } },
+  properties: { work: { type: 'number' }, surfaceWork: { type: 'number' }, budget: { type: 'number' }, tasks: { type: 'integer' } },
 } as const;
 
 /** A plan as JSON: the CLI's names in camelCase (shared/design.md); the ranges of shared/plan-rules.ts, checked again by normalizePlan. */
