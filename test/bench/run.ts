@@ -1,5 +1,5 @@
 /**
- * `npm run bench`: the five performance targets, each a ratio against a reference measured in the same run (the
+ * `npm run bench`: the performance targets, each a ratio against a reference measured in the same run (the
  * C counting loop of test/bench/c, compiled here when a C compiler is present), plus the engine's kernel, phase
  * and naive-approach tables. Speed is judged here, never in unit tests.
  *   npm run bench                     every table
