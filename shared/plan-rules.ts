@@ -64,8 +64,8 @@ export const MAX_SIMULATED_BYTES = 1024 * 1024 * 1024;
  * Point-placements of the budget that one pixel-placement of the stability surface counts for: finding a raster
  * pixel's cell in one placement (and adding its flags) costs about as much as counting this many points in one
  * placement of one pattern. An upper bound of the figure measured by `npm run bench -- surface` (the "surface
- * weight" rows check that the measured figure stays below it): about 7 for squares and 11 for hexagons on the 2-core
- * test machine under load (a hexagon pixel's cell comes from the lattice frame's cellOfPoint, which allocates).
+ * weight" rows check that the measured figure stays below it): 7 to 9 for squares and about 4 for hexagons on the
+ * 2-core test machine under load (load average 8 to 12).
  */
 export const SURFACE_PIXEL_WEIGHT = 12;
 

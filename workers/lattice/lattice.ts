@@ -23,6 +23,8 @@ export interface CellCounter {
 export interface LatticeFrame {
   /** The cell (i, j) holding a planar point, by the lattice's exact rule. */
   cellOfPoint(px: number, py: number): [number, number];
+  /** The same cell written to out[0], out[1], without allocating (loops over many points, e.g. raster pixels). */
+  cellOfPointInto(px: number, py: number, out: Float64Array): void;
   /** The cell's boundary as a closed ring (first vertex repeated), counter-clockwise, planar metres. */
   cellPolygon(i: number, j: number): [number, number][];
 }

@@ -6,7 +6,7 @@
 import type { Lattice } from '../lattice.js';
 import { createHexCounter } from './hex-counter.js';
 import { hexCoverage } from './hex-coverage.js';
-import { createHexFrame, hexCellOfPoint, hexCorners } from './hex-frame.js';
+import { createHexFrame, hexCellOfPoint, hexCellOfPointInto, hexCorners } from './hex-frame.js';
 
 export const hexLattice: Lattice = {
   shape: 'hex',
@@ -17,6 +17,7 @@ export const hexLattice: Lattice = {
     const frame = createHexFrame(origin, cellSize, placement);
     return {
       cellOfPoint: (px, py) => hexCellOfPoint(frame, px, py),
+      cellOfPointInto: (px, py, out) => hexCellOfPointInto(frame, px, py, out),
       cellPolygon: (i, j) => hexCorners(frame, i, j),
     };
   },

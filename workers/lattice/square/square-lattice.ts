@@ -4,7 +4,7 @@
  * kernel of square-counter.ts, corners by the inverse grid frame. Its grids carry no shape tag (absent = square).
  */
 import { placementCoverage } from '../../geometry/coverage.js';
-import { cellCorners, cellOfPoint, createGridFrame } from '../../geometry/grid-frame.js';
+import { cellCorners, cellOfPoint, cellUnitX, cellUnitY, createGridFrame } from '../../geometry/grid-frame.js';
 import type { Lattice } from '../lattice.js';
 import { createSquareCounter } from './square-counter.js';
 
@@ -17,6 +17,10 @@ export const squareLattice: Lattice = {
     const frame = createGridFrame(origin, cellSize, placement);
     return {
       cellOfPoint: (px, py) => cellOfPoint(frame, px, py),
+      cellOfPointInto: (px, py, out) => {
+        out[0] = Math.floor(cellUnitX(frame, px, py));
+        out[1] = Math.floor(cellUnitY(frame, px, py));
+      },
       cellPolygon: (i, j) => cellCorners(frame, i, j),
     };
   },
