@@ -9,7 +9,7 @@ import type { ProjectionInfo, StabilitySizeSummary } from '../../shared/contract
 import { sideTag } from '../../shared/messages/download-names.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { areasGeoJson } from './areas-geojson.js';
-import { areaSummaries } from './stability-summary.js';
+import { areaSummaries } from './area-summaries.js';
 import type { StabilitySurface } from './stability-accumulator.js';
 import { stabilityGeoTiff } from './stability-geotiff.js';
 

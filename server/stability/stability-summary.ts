@@ -5,30 +5,18 @@
  * summary.json stays small: at most MAX_SUMMARY_AREAS areas per size (excess first, each kind largest share first),
  * and rings only while the size's vertices stay within MAX_SUMMARY_VERTICES (an area whose rings would pass it keeps
  * its properties and an empty ring list). A capped size says so (`truncated`, `areasTotal`, and its note); the full
- * geometry is in excess-areas-<side>m.geojson, written from the surface itself (areaSummaries).
+ * geometry is in excess-areas-<side>m.geojson, written from the surface itself (area-summaries.ts).
  */
 import type { StabilitySizeSummary, StableAreaSummary } from '../../shared/contracts.js';
 import type { StabilitySurface } from './stability-accumulator.js';
-import { stableAreas } from './stable-areas.js';
+import { areaSummaries } from './area-summaries.js';
 import { calibrationNote } from './stability-notes.js';
 import { stabilityFileNames } from './stability-files.js';
-
-const round = (value: number): number => Math.round(value * 100) / 100;
 
 /** Most stable areas listed per (shape, cell size) in summary.json. */
 export const MAX_SUMMARY_AREAS = 500;
 /** Most ring vertices per (shape, cell size) in summary.json (about 40 bytes each as JSON). */
 export const MAX_SUMMARY_VERTICES = 20_000;
-
-/** Every stable area of the surface with its full planar rings (centimetres): what the areas' GeoJSON holds. */
-export function areaSummaries(surface: StabilitySurface): StableAreaSummary[] {
-  return stableAreas(surface).map((area) => ({
-    kind: area.kind,
-    maxShare: area.maxShare,
-    areaKm2: Number(area.areaKm2.toPrecision(6)),
-    rings: [area.outer, ...area.holes].map((ring) => ring.map(([x, y]) => [round(x), round(y)] as [number, number])),
-  }));
-}
 
 /** The areas as summary.json keeps them (the caps above), and whether anything was left out. Cost O(vertices). */
 export function cappedAreas(areas: readonly StableAreaSummary[]): { areas: StableAreaSummary[]; truncated: boolean } {

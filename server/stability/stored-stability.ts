@@ -8,7 +8,7 @@ import type { GridshakeStore } from '../store/store.js';
 import type { StabilitySurface } from './stability-accumulator.js';
 import { areasGeoJson } from './areas-geojson.js';
 import { stabilityGeoTiff } from './stability-geotiff.js';
-import { areaSummaries } from './stability-summary.js';
+import { areaSummaries } from './area-summaries.js';
 
 export function storeStabilityFiles(
   store: GridshakeStore,
