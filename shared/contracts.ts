@@ -211,7 +211,10 @@ export interface StableAreaSummary {
   /** largest share over the area's pixels */
   maxShare: number;
   areaKm2: number;
-  /** outer ring counter-clockwise, then holes clockwise; planar metres, closed */
+  /**
+   * outer ring counter-clockwise, then holes clockwise; planar metres, closed; empty when summary.json's vertex cap
+   * left this area's outline out (StabilitySizeSummary.truncated)
+   */
   rings: [number, number][][];
 }
 
@@ -237,6 +240,13 @@ export interface StabilitySizeSummary {
   note: string;
   /** file names of the GeoTIFF and the areas' GeoJSON (sweep --out; the same names under /api/sweeps/:id/) */
   files: { tif: string; geojson: string };
+  /**
+   * present (true) when summary.json leaves areas or their rings out (server/stability/stability-summary.ts caps:
+   * an area left without outline has `rings: []`); the areas' GeoJSON file holds the full geometry
+   */
+  truncated?: true;
+  /** with `truncated`: how many stable areas the surface has in all */
+  areasTotal?: number;
 }
 
 export type SweepStatus = (typeof SWEEP_STATUSES)[number];

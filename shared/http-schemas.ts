@@ -197,8 +197,13 @@ export const SWEEP_ESTIMATE_SCHEMA = {
   required: ['work', 'budget', 'tasks'],
   additionalProperties: true,
   properties: {
-    /** points x placements x sizes x (1 + sims) */
+    /** points x placements x sizes x (1 + sims), plus baselineWork */
     work: { type: 'number' },
+    /**
+     * the stability surface's work in the same unit: raster pixels x placements x SURFACE_PIXEL_WEIGHT
+     * (shared/plan-rules.ts); the budget holds work + surfaceWork
+     */
+    surfaceWork: { type: 'number' },
     budget: { type: 'number' },
     tasks: { type: 'integer' },
     /** sizes x placements x (1 + sims): grid evaluations held until summarised */

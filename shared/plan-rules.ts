@@ -65,11 +65,14 @@ export const PLAN_RANGE_WORDS = Object.freeze({
 });
 
 /**
- * Default work budget (point-placements). A whole sweep measured about 6 ns per point-placement on two threads
- * of the benchmark machine at 1e6 points (npm run bench; simulated patterns cost less, the statistics of their cells
- * being only the chi-square), so the default allows a few minutes of work on two cores.
+ * Default work budget (point-placements), holding the counts' work and the stability surface's (surfaceWork). A
+ * whole sweep measured about 6 ns per point-placement on two threads of the benchmark machine at 1e6 points (npm run
+ * bench; simulated patterns cost less, the statistics of their cells being only the chi-square), so the default
+ * allows a few minutes of work on two cores. It was 2e10 before the surface was counted; the default plan on 1e5
+ * points (3 sizes at 2, 5 and 10 expected points per cell, 256 placements, 99 sims) needs 7.7e9 for the counts and
+ * about 2.1e10 for the surfaces (their pixels x placements x SURFACE_PIXEL_WEIGHT), and stays within it.
  */
-export const DEFAULT_WORK_BUDGET = 2e10;
+export const DEFAULT_WORK_BUDGET = 4e10;
 
 /** Most (size, placement, pattern) evaluations a sweep may hold: each keeps a chi-square value until summarised. */
 export const MAX_EVALUATIONS = 2e7;
@@ -92,12 +95,26 @@ export const BASELINE_PIECE_WORK = 64;
  */
 export const BASELINE_VERTEX_WORK = 8;
 
+/**
+ * Point-placements of the budget that one pixel-placement of the stability surface counts for: finding a raster
+ * pixel's cell in one placement (and adding its flags) costs about as much as counting this many points in one
+ * placement of one pattern. An upper bound of the figure measured by `npm run bench -- surface` (the "surface
+ * weight" rows check that the measured figure stays below it): 7 to 9 for squares and about 4 for hexagons on the
+ * 2-core test machine under load (load average 8 to 12).
+ */
+export const SURFACE_PIXEL_WEIGHT = 12;
+
 /** What a sweep costs: the quantities the budget and the limits are checked against. */
 export interface PlanWork {
   /** points inside x placements x sizes x (1 + sims), plus baselineWork: the work budget's measure */
   work: number;
   /** the part of work the baseline adds (0 against area) */
   baselineWork: number;
+  /**
+   * the stability surface's work, in the same unit: raster pixels (summed over sizes) x placements x
+   * SURFACE_PIXEL_WEIGHT; the budget holds work + surfaceWork
+   */
+  surfaceWork: number;
   /** sizes x placements x (1 + sims): grid evaluations held until summarised */
   evaluations: number;
   /** points inside x sims x 16: bytes of simulated CSR coordinates */
@@ -143,14 +160,23 @@ export function baselineSizeOf(info: BaselineRecordSize | undefined): BaselineSi
 
 /**
  * The cost of `sizes` (shape, cell size) pairs of `placements` placements with `sims` simulations, against area or
- * against a baseline of the given size. Cost O(1).
+ * against a baseline of the given size, and of a stability surface with `surfacePixels` raster pixels over all the
+ * sizes (0: no surface). Cost O(1).
  */
-export function planWork(nInside: number, placements: number, sizes: number, sims: number, baseline?: BaselineSize): PlanWork {
+export function planWork(
+  nInside: number,
+  placements: number,
+  sizes: number,
+  sims: number,
+  baseline?: BaselineSize,
+  surfacePixels = 0,
+): PlanWork {
   const patterns = 1 + sims;
   const extra = baselineWork(baseline, nInside, placements, sizes, sims);
   return {
     work: nInside * placements * sizes * patterns + extra,
     baselineWork: extra,
+    surfaceWork: surfacePixels * placements * SURFACE_PIXEL_WEIGHT,
     evaluations: sizes * placements * patterns,
     simulatedBytes: nInside * 16 * sims,
   };

@@ -112,7 +112,9 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   // the server's limits on one placement: cells in the valid region (coverage costs O(cells)) and the work budget
   assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, fieldRef('cell'));
   const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: labelling?.sims ?? 0 };
-  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv(), dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine)));
+  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv(), {
+    baseline: dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine),
+  }));
   const summary = summarizeDataset(dataset);
   const counter = createCellCounter(insideCoordinates(dataset), dataset.origin);
   const keptCells = (): never => {

@@ -60,7 +60,8 @@ export class SweepExports {
 
   /**
    * A stability file of a done sweep by its name: `stability-<side>m.tif` (the stored GeoTIFF) or
-   * `excess-areas-<side>m.geojson` (made from summary.stability). 404 naming the files the sweep has.
+   * `excess-areas-<side>m.geojson` (stored with the full outlines; made from summary.stability for sweeps stored before
+   * it was). 404 naming the files the sweep has.
    */
   stabilityFile(id: string, name: string): { type: string; body: Buffer | string } {
     const record = this.finished(id);
@@ -79,6 +80,9 @@ export class SweepExports {
       if (bytes === undefined) throw notFoundError(`sweep ${id} has no stored ${name}`);
       return { type: 'image/tiff; application=geotiff', body: bytes };
     }
+    // stored with every area's outline when the sweep finished (stored-stability.ts); older sweeps: from the summary
+    const stored = this.store.stability.read(id, name);
+    if (stored !== undefined) return { type: 'application/geo+json; charset=utf-8', body: stored.toString('utf8') };
     const dataset = this.datasets.load(record.datasetId);
     return { type: 'application/geo+json; charset=utf-8', body: `${JSON.stringify(areasGeoJson(entry, dataset.projection, dataset.name))}\n` };
   }

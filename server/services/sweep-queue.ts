@@ -150,7 +150,7 @@ export class SweepQueue extends EventEmitter {
       if (this.store.sweeps.get(id) === undefined) return;
       await writeRowsInChunks(this.store.placements, id, result.rows);
       if (active.stopReason !== null) throw new Error('stopped');
-      storeStabilityFiles(this.store, id, result, dataset.projection);
+      storeStabilityFiles(this.store, id, result, dataset.projection, dataset.name);
       const final = active.clock.now();
       this.finish(id, 'done', { summary: result.summary, progress: { ...final, done: final.total, remainingSeconds: 0 } });
     } catch (error) {

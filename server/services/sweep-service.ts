@@ -38,8 +38,13 @@ export class SweepService {
     const dataset = this.store.datasets.summary(datasetId);
     if (dataset === undefined) throw notFoundError(`no dataset with id ${datasetId}`);
     const plan: Plan = normalizePlan(planInput);
-    resolveCellSizes(plan, dataset.validArea, dataset.nInside);
-    const estimate = estimateSweep(plan, dataset.nInside, this.workBudget, baselineSizeOf(dataset.baseline));
+    const cellSizes = resolveCellSizes(plan, dataset.validArea, dataset.nInside);
+    // every sweep of the service computes the stability surface (sweep-queue.ts); the study area's box holds the
+    // valid region's, so the estimate is an upper bound of the runner's
+    const estimate = estimateSweep(plan, dataset.nInside, this.workBudget, {
+      baseline: baselineSizeOf(dataset.baseline),
+      surface: { bbox: dataset.bbox, cellSizes },
+    });
     assertWithinBudget(estimate);
     const waiting = this.store.sweeps.countQueued();
     if (waiting >= MAX_QUEUED_SWEEPS) {

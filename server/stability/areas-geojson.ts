@@ -4,13 +4,19 @@
  * when the working system is known (longitude/latitude input, or an EPSG code), edges densified to within 1 cm of
  * the planar pixel sides (server/grid-export/lonlat-ring.ts), outer rings counter-clockwise and holes clockwise (RFC
  * 7946 section 3.1.6); for input given as `crs planar`, the working metres with a note in the "gridshake" member.
- * Built from the summary's planar rings (stability-summary.ts), so the CLI and the server write the same file.
+ * Built from the full list of areas (stability-summary.ts areaSummaries, not summary.json's capped list) when given,
+ * else from the summary's (sweeps stored before the cap), so the CLI and the server write the same file.
  */
-import type { ProjectionInfo, StabilitySizeSummary } from '../../shared/contracts.js';
+import type { ProjectionInfo, StabilitySizeSummary, StableAreaSummary } from '../../shared/contracts.js';
 import { lonLatRing } from '../grid-export/lonlat-ring.js';
 import { workingSystem } from '../grid-export/working-system.js';
 
-export function areasGeoJson(surface: StabilitySizeSummary, projection: ProjectionInfo, datasetName: string): object {
+export function areasGeoJson(
+  surface: StabilitySizeSummary,
+  projection: ProjectionInfo,
+  datasetName: string,
+  areas: readonly StableAreaSummary[] = surface.areas,
+): object {
   const system = workingSystem(projection);
   const { toLonLat, fromLonLat } = system;
   const lonlat = toLonLat !== null && fromLonLat !== null;
@@ -19,7 +25,7 @@ export function areasGeoJson(surface: StabilitySizeSummary, projection: Projecti
     const converted = lonLatRing(planar, toLonLat, fromLonLat);
     return hole ? converted.reverse() : converted;
   };
-  const features = surface.areas.map((area, index) => ({
+  const features = areas.map((area, index) => ({
     type: 'Feature',
     id: index + 1,
     properties: { kind: area.kind, maxShare: area.maxShare, areaKm2: area.areaKm2 },

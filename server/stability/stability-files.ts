@@ -9,6 +9,7 @@ import type { ProjectionInfo, StabilitySizeSummary } from '../../shared/contract
 import { sideTag } from '../../shared/messages/download-names.js';
 import type { CellShape } from '../../workers/lattice/cell-shape.js';
 import { areasGeoJson } from './areas-geojson.js';
+import { areaSummaries } from './area-summaries.js';
 import type { StabilitySurface } from './stability-accumulator.js';
 import { stabilityGeoTiff } from './stability-geotiff.js';
 
@@ -34,7 +35,7 @@ export function stabilityFiles(
     const summary = summaries[k]!;
     return [
       [summary.files.tif, stabilityGeoTiff(surface, projection)],
-      [summary.files.geojson, `${JSON.stringify(areasGeoJson(summary, projection, datasetName))}\n`],
+      [summary.files.geojson, `${JSON.stringify(areasGeoJson(summary, projection, datasetName, areaSummaries(surface)))}\n`],
     ] as [string, string | Uint8Array][];
   });
 }

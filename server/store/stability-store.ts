@@ -1,7 +1,7 @@
 /**
- * The stability surfaces of done sweeps: GeoTIFF bytes per (shape, cell size), under their file names
- * (stability-<side>m.tif, server/stability/stability-files.ts). The areas' GeoJSON is made from summary.json's
- * stability entries on request and is not stored. Rows go with their sweep (ON DELETE CASCADE).
+ * The stability surfaces of done sweeps: GeoTIFF bytes and the areas' GeoJSON (every outline; summary.json's list is
+ * capped) per (shape, cell size), under their file names (stability-<side>m.tif, excess-areas-<side>m.geojson,
+ * server/stability/stability-files.ts). Rows go with their sweep (ON DELETE CASCADE).
  */
 import type Database from 'better-sqlite3';
 

@@ -67,7 +67,8 @@ export class ExecutorSweepRunner {
     const cellSizes = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
     // the baseline's own work from its engine data (pieces, vertices or controls), whatever its record says
     const baselineCost = dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine);
-    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget, baselineCost));
+    const surface = options.stability === true ? { bbox: dataset.region.bbox, cellSizes } : undefined;
+    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget, { baseline: baselineCost, surface }));
     if (options.signal?.aborted) throw sweepCancelledError();
     const controller = new AbortController();
     // every task in flight listens to the signal

@@ -70,7 +70,7 @@ describe('a plan within the old budget but over the new one', () => {
 
   it('is refused by the budget check with the coded message', () => {
     expect(planWork(N, 100, 1, 0).work).toBeLessThanOrEqual(budget);
-    const estimate = estimateSweep({ ...plan, rotation: true, design: 'halton', minCoverage: 0.5, alpha: 0.05 }, N, budget, size);
+    const estimate = estimateSweep({ ...plan, rotation: true, design: 'halton', minCoverage: 0.5, alpha: 0.05 }, N, budget, { baseline: size });
     expect(estimate).toMatchObject({ work: 193600, baselineWork: 153600 });
     const error = refusal(() => assertWithinBudget(estimate));
     expect(error.code).toBe('GS_ERR_BUDGET');

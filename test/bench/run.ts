@@ -1,13 +1,15 @@
 /**
- * `npm run bench`: the five performance targets, each a ratio against a reference measured in the same run (the
+ * `npm run bench`: the performance targets, each a ratio against a reference measured in the same run (the
  * C counting loop of test/bench/c, compiled here when a C compiler is present), plus the engine's kernel, phase
  * and naive-approach tables. Speed is judged here, never in unit tests.
  *   npm run bench                     every table
- *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|hex|queue   one group (queue: the Redis queue's
- *                                     figures, with a redis-server started on a free loopback port)
+ *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|hex|surface|queue   one group (queue: the Redis
+ *                                     queue's figures, with a redis-server started on a free loopback port)
  *   npm run bench -- --json           the same, tables on stderr and one JSON object on stdout: one key per target
  *                                     (wholeSweep, defaultPlanCli, monteCarlo, peakMemory, serverVsCli, and
- *                                     hexVsSquare: hexagon counting against square counting), each
+ *                                     hexVsSquare: hexagon counting against square counting; surfaceWeight: the
+ *                                     stability surface's measured cost per pixel-placement over the budget's
+ *                                     SURFACE_PIXEL_WEIGHT), each
  *                                     { ratio, ours, reference, target, met, status }, plus the machine and load
  */
 import { availableParallelism, cpus, loadavg, totalmem } from 'node:os';
@@ -21,6 +23,7 @@ import { runNaiveBench } from './naive-bench.js';
 import { runPhaseBench } from './phase-bench.js';
 import { runServerBench } from './server-bench.js';
 import { runQueueBench } from './queue-bench.js';
+import { runSurfaceBench } from './surface-bench.js';
 import { runSweepBench } from './sweep-bench.js';
 import type { TargetFigure, TargetKey } from './targets.js';
 
@@ -60,6 +63,7 @@ if (wants('memory')) targets.peakMemory = runMemoryBench();
 if (wants('sweep') || wants('phases')) runPhaseBench();
 if (wants('naive')) await runNaiveBench(twoThreadNs);
 if (wants('hex')) targets.hexVsSquare = runHexBench();
+if (wants('surface')) targets.surfaceWeight = runSurfaceBench();
 if (wants('queue')) await runQueueBench();
 
 const loadAverageAtEnd = loadavg()[0];

@@ -2,7 +2,9 @@
  * The five performance targets of `npm run bench`, each a ratio of our measured figure to a reference measured in
  * the same run (the C counting loop's time for the same point-placements, a memory limit, or the CLI's time).
  * `npm run bench -- --json` prints them as one JSON object, one key per target. Besides the five of issue 13,
- * `hexVsSquare` (issue 16): counting with hexagons against counting with squares on the same placements, <= 1.5.
+ * `hexVsSquare` (issue 16): counting with hexagons against counting with squares on the same placements, <= 1.5;
+ * `surfaceWeight` (issue 17): the stability surface's measured weight (time per pixel-placement over the sweep's time
+ * per point-placement) against SURFACE_PIXEL_WEIGHT of the work budget, <= 1.
  */
 export interface TargetFigure {
   /** ours / reference; NaN when the reference could not be measured */
@@ -18,7 +20,7 @@ export interface TargetFigure {
   status: string;
 }
 
-export type TargetKey = 'wholeSweep' | 'defaultPlanCli' | 'monteCarlo' | 'peakMemory' | 'serverVsCli' | 'hexVsSquare';
+export type TargetKey = 'wholeSweep' | 'defaultPlanCli' | 'monteCarlo' | 'peakMemory' | 'serverVsCli' | 'hexVsSquare' | 'surfaceWeight';
 
 export function ratioFigure(ours: number, reference: number, target: number): TargetFigure {
   const ratio = ours / reference;

@@ -121,6 +121,21 @@ describe('POST /api/sweeps', () => {
       await small.close();
     }
   });
+
+  it('counts the stability surface every sweep computes: counts within the budget, surface over it, refused before queuing', async () => {
+    // the estimate's work (points x placements x sizes x (1 + sims)) is the budget itself; the surface's pixels push it over
+    const small = await testApp({ workBudget: (heath.nInside as number) * 16 * 2 * 10 });
+    try {
+      const dataset = await uploadScenario(small.app, 'brannock-heath');
+      const response = await small.app.inject({ method: 'POST', url: '/api/sweeps', payload: { datasetId: dataset.id, plan: SMALL_PLAN } });
+      expect(response.statusCode).toBe(400);
+      expect(response.json().code).toBe('GS_ERR_BUDGET');
+      expect(response.json().message).toMatch(/for the stability surface .*or larger cells/);
+      expect((await small.app.inject({ method: 'GET', url: '/api/sweeps' })).json()).toEqual([]);
+    } finally {
+      await small.close();
+    }
+  });
 });
 
 describe('GET /api/sweeps', () => {

@@ -1,8 +1,8 @@
 import { describe, it, expect } from 'vitest';
-import { DEFAULT_PLAN } from '../../shared/plan-rules.js';
+import { DEFAULT_PLAN, SURFACE_PIXEL_WEIGHT } from '../../shared/plan-rules.js';
 import { GridshakeError } from '../../server/errors.js';
 import { normalizePlan, resolveCellSizes } from '../../server/sweeps/plan.js';
-import { assertWithinBudget, chunkPlacements, estimateSweep, workBudgetFromEnv, DEFAULT_WORK_BUDGET } from '../../server/sweeps/sweep-budget.js';
+import { assertWithinBudget, chunkPlacements, estimateSweep, surfacePixels, workBudgetFromEnv, DEFAULT_WORK_BUDGET } from '../../server/sweeps/sweep-budget.js';
 
 function parameterFailure(input: unknown): GridshakeError {
   try {
@@ -116,6 +116,49 @@ describe('estimateSweep and assertWithinBudget', () => {
     expect(error?.message).toBe(
       'the plan needs 2.00e+10 point-placements (points x placements x sizes x (1 + sims)), 20.0 times the budget of ' +
         '1.00e+9; shrink it at least 20-fold: fewer placements, fewer sims or fewer cell sizes',
+    );
+  });
+
+  it('counts the stability surface: raster pixels (pixel side s / 8 over the box) x placements x SURFACE_PIXEL_WEIGHT, per shape', () => {
+    const bbox = { minX: 0, minY: 0, maxX: 1000, maxY: 800 };
+    const plan = normalizePlan({ cells: [100, 200], shape: ['square', 'hex'], placements: 64, sims: 19 });
+    // cell 100 m: pixels of 12.5 m, 80 x 64; cell 200 m: 25 m, 40 x 32; once per shape
+    expect(surfacePixels(plan, { bbox, cellSizes: [100, 200] })).toBe(2 * (80 * 64 + 40 * 32));
+    const estimate = estimateSweep(plan, 500, 1e12, { surface: { bbox, cellSizes: [100, 200] } });
+    expect(estimate.surfaceWork).toBe(2 * (80 * 64 + 40 * 32) * 64 * SURFACE_PIXEL_WEIGHT);
+    // work stays the counts' (points x placements x sizes x (1 + sims)); the budget holds work + surfaceWork
+    expect(estimate.work).toBe(500 * 64 * 4 * 20);
+    expect(estimateSweep(plan, 500, 1e12).work).toBe(500 * 64 * 4 * 20);
+    expect(() => assertWithinBudget(estimateSweep(plan, 500, 500 * 64 * 4 * 20 + (estimate.surfaceWork as number), { surface: { bbox, cellSizes: [100, 200] } }))).not.toThrow();
+    expect(() => assertWithinBudget(estimateSweep(plan, 500, 500 * 64 * 4 * 20 + (estimate.surfaceWork as number) - 1, { surface: { bbox, cellSizes: [100, 200] } }))).toThrow(/stability surface/);
+    expect(estimateSweep(plan, 500, 1e12).surfaceWork).toBeUndefined();
+  });
+
+  it('refuses a plan whose stability surface takes it over the budget, saying how to shrink it', () => {
+    // 1000 points, 2 sizes, 256 placements, 19 sims: 1.02e7 for the counts; a 20 km x 20 km box at 25 m and 50 m
+    // cells has 6400 x 6400 and 3200 x 3200 pixels, each coarsened to the 4194304-pixel limit (2048 x 2048)
+    const plan = normalizePlan({ cells: [25, 50], placements: 256, sims: 19 });
+    const bbox = { minX: 0, minY: 0, maxX: 20000, maxY: 20000 };
+    const estimate = estimateSweep(plan, 1000, 1e9, { surface: { bbox, cellSizes: [25, 50] } });
+    expect(estimateSweep(plan, 1000, 1e9).work).toBeLessThan(1e9);
+    let error: GridshakeError | undefined;
+    try {
+      assertWithinBudget(estimate);
+    } catch (caught) {
+      error = caught as GridshakeError;
+    }
+    expect(error?.code).toBe('GS_ERR_BUDGET');
+    expect(error?.statusCode).toBe(400);
+    const pixels = 2 * 2048 * 2048;
+    const surfaceWork = pixels * 256 * SURFACE_PIXEL_WEIGHT;
+    expect(estimate.surfaceWork).toBe(surfaceWork);
+    const factor = (1000 * 256 * 2 * 20 + surfaceWork) / 1e9;
+    expect(error?.message).toBe(
+      `the plan needs ${(1000 * 256 * 2 * 20 + surfaceWork).toExponential(2)} point-placements: 1.02e+7 for the counts ` +
+        `(points x placements x sizes x (1 + sims)) and ${surfaceWork.toExponential(2)} for the stability surface ` +
+        `(raster pixels x placements x ${SURFACE_PIXEL_WEIGHT}, about 64 pixels per cell), ${factor.toFixed(1)} times the budget of 1.00e+9; ` +
+        `shrink it at least ${Math.ceil(factor)}-fold: fewer placements, fewer sims or fewer cell sizes, or larger cells ` +
+        '(the surface has 4 times fewer pixels at twice the cell side)',
     );
   });
 

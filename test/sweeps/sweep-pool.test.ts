@@ -131,6 +131,22 @@ describe('SweepPool.runSweep', () => {
     }
   });
 
+  it('counts the stability surface in the budget when the sweep computes it', async () => {
+    // the counts alone fit (3000 x 8 x 1 x 1 = 24000 point-placements); the surface's pixels x placements do not
+    const plan = normalizePlan({ cells: [100], placements: 8, sims: 0 });
+    const small = new SweepPool({ threads: 1, budget: 1e5 });
+    try {
+      await expect(small.runSweep(uniform, plan, { stability: true })).rejects.toMatchObject({
+        code: 'GS_ERR_BUDGET',
+        message: expect.stringContaining('for the stability surface'),
+      });
+      const { summary } = await small.runSweep(uniform, plan);
+      expect(summary.sizes).toHaveLength(1);
+    } finally {
+      await small.destroy();
+    }
+  });
+
   it('reports a placement that keeps fewer than 2 cells as a parameter error', async () => {
     const failure = await double.runSweep(uniform, normalizePlan({ cells: [600], placements: 8, sims: 0, minCoverage: 1 })).catch((e) => e);
     expect(failure).toBeInstanceOf(GridshakeError);

@@ -23,6 +23,8 @@ export interface CellCounter {
 export interface LatticeFrame {
   /** The cell (i, j) holding a planar point, by the lattice's exact rule. */
   cellOfPoint(px: number, py: number): [number, number];
+  /** The same cell written to out[0], out[1], without allocating (loops over many points, e.g. raster pixels). */
+  cellOfPointInto(px: number, py: number, out: Float64Array): void;
   /** The cell's boundary as a closed ring (first vertex repeated), counter-clockwise, planar metres. */
   cellPolygon(i: number, j: number): [number, number][];
 }
@@ -41,14 +43,19 @@ export interface Lattice {
   frame(origin: Origin, cellSize: number, placement: Placement): LatticeFrame;
 }
 
-/** A lattice's `frame` from its frame maker and its two rules over that frame (cell of a point, cell polygon). */
+/** A lattice's `frame` from its frame maker and its rules over that frame (cell of a point, cell polygon). */
 export function frameFromRules<F>(
   create: (origin: Origin, cellSize: number, placement: Placement) => F,
   cellOfPoint: (frame: F, px: number, py: number) => [number, number],
+  cellOfPointInto: (frame: F, px: number, py: number, out: Float64Array) => void,
   cellPolygon: (frame: F, i: number, j: number) => [number, number][],
 ): Lattice['frame'] {
   return (origin, cellSize, placement) => {
     const frame = create(origin, cellSize, placement);
-    return { cellOfPoint: (px, py) => cellOfPoint(frame, px, py), cellPolygon: (i, j) => cellPolygon(frame, i, j) };
+    return {
+      cellOfPoint: (px, py) => cellOfPoint(frame, px, py),
+      cellOfPointInto: (px, py, out) => cellOfPointInto(frame, px, py, out),
+      cellPolygon: (i, j) => cellPolygon(frame, i, j),
+    };
   };
 }

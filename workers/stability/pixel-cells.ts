@@ -39,8 +39,9 @@ export function pixelCellLocator(shape: CellShape | undefined, origin: Origin, c
     return (px, py) => index(Math.floor(cellUnitX(frame, px, py)), Math.floor(cellUnitY(frame, px, py)));
   }
   const frame = latticeOf(shape).frame(origin, cellSize, placement);
+  const cell = new Float64Array(2);
   return (px, py) => {
-    const [i, j] = frame.cellOfPoint(px, py);
-    return index(i, j);
+    frame.cellOfPointInto(px, py, cell);
+    return index(cell[0]!, cell[1]!);
   };
 }

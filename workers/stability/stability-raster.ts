@@ -22,8 +22,8 @@ export interface StabilityRaster {
   height: number;
 }
 
-/** The raster for cells of side `cellSize` over the region's bounding box. Cost O(1). */
-export function stabilityRaster(region: Region, cellSize: number): StabilityRaster {
+/** The raster for cells of side `cellSize` over the region's bounding box (only the box is read). Cost O(1). */
+export function stabilityRaster(region: Pick<Region, 'bbox'>, cellSize: number): StabilityRaster {
   const { minX, minY, maxX, maxY } = region.bbox;
   const spanX = Math.max(maxX - minX, Number.MIN_VALUE);
   const spanY = Math.max(maxY - minY, Number.MIN_VALUE);

@@ -1,25 +1,29 @@
 /**
  * The hexagon counting kernel: points per hexagon of one placement, by the contract's rounding rule (hex-frame.ts).
  *
- * Built once per point set, like the square kernel (square-counter.ts): points captured by the closure, placement
- * parameters in typed arrays, blocks of points so the loop is optimized by calls.
- * Fast path: fractional axial coordinates (q, r) from premultiplied coefficients, shifted so that in-grid values are
- * positive and `| 0` is floor; the nearest centre is one of the four corners of the axial unit cell (q0, r0) (the
- * cell splits into two equilateral triangles), read from a 128 x 128 table over (q - q0, r - r0) built once (squared
- * distance ~ q^2 + q r + r^2 in axial units). A point in a table square that a bisector passes within 2^-16 of (about
- * 3 % of them with the 128 x 128 table) is decided by the bisectors themselves: with fq = q - q0, fr = r - r0 the
- * nearest corner is (0, 0) when 2 fq + fr < 1 and fq + 2 fr < 1, (1, 1) when both exceed 2, else (1, 0) when fq > fr
- * and (0, 1) otherwise (bisectors of the corners in the metric q^2 + q r + r^2); only a point within 4 x the
- * near-side band of one of these lines goes to the exact pass (about 1e-5 of the points instead of 1.5 % before,
- * whose exact pass cost about 50 ns each). The table is 16 KB so that it stays in the first-level cache beside the
- * counts: branch-light, the table measured 4 times faster than deciding every point by the bisectors with branches
- * (mispredicted at random), and faster than branch-free arithmetic on the bisectors or the three-floor formula.
+ * Built once per point set, like the square kernel (square-counter.ts), in blocks of points.
+ * Fast path: fractional axial coordinates (q, r) from premultiplied coefficients, scaled by 2^7 (exact: a power of two)
+ * and shifted so that in-grid values are positive and `| 0` is floor; the nearest centre is one of the four corners of
+ * the axial unit cell (q0, r0) (the cell splits into two equilateral triangles), read from a 128 x 128 table over
+ * (q - q0, r - r0) built once (squared distance ~ q^2 + q r + r^2 in axial units). The table is 16 KB so that it stays
+ * in the first-level cache beside the counts. A table square that a bisector passes within 2^-16 of (about 3 % of them)
+ * holds NEAR_BISECTOR; such a point is counted in corner (0, 0) for now and its index appended to a list without a
+ * branch (the list length grows by `code >> 2`, 1 only for NEAR_BISECTOR): a branch there was mispredicted for about
+ * 3 % of the points. After the block, each listed point is taken back from corner (0, 0) and decided by the bisectors
+ * of the unit cell without branches: with fq = q - q0, fr = r - r0, t = [fq > fr], the corner is
+ * (cq, cr) = ([2 fq + fr + t > 2], [fq + 2 fr - t > 1]) (bisectors of the corners in the metric q^2 + q r + r^2);
+ * only a point within 4 x the near-side band of one of these lines goes to the exact pass (about 1e-5 of the points,
+ * about 50 ns each).
+ * The block loops are module functions with typed-array arguments, not closures: a closure's optimized code is
+ * specialized to its context, and as soon as a second counter exists (the simulated patterns, or a second point set)
+ * V8 recompiles it with every closure value loaded, checked and converted in the loop; measured 25 to 30 % slower
+ * for hexagons with a second counter alive.
  * Away from ties the rule of the contract also gives the nearest centre (it is the A2 lattice decoder of Conway &
  * Sloane 1982, "Fast quantizing and decoding algorithms for lattice quantizers and codes", IEEE Trans. Inf. Theory
  * 28:227-232, from memory). A point within a band of a bisector that decides its cell (where the premultiplied formula
  * could differ from the contract's) is deferred to an exact pass with the contract's formula (division, order of
  * operations, rounding rule), so every point gets exactly the contract's cell.
- * Cost O(n + cells) per placement; memory: a 32 KB buffer of deferred point indices besides the output.
+ * Cost O(n + cells) per placement; memory: two 32 KB buffers of point indices besides the output.
  */
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
 import type { CoverageGrid, Origin, Placement } from '../../types.js';
@@ -31,10 +35,9 @@ const BLOCK = 8192;
 /** Side of the table over the axial unit cell (fq, fr) in [0, 1)^2: 2^TABLE_BITS. */
 const TABLE_BITS = 7;
 const TABLE_SIZE = 1 << TABLE_BITS;
-const TABLE_MASK = TABLE_SIZE - 1;
 /** How far (axial units) a table square must stay from every bisector to be decided by the table. */
 const TABLE_MARGIN = 2 ** -16;
-/** Table entry of a square that a bisector passes near: the point goes to the exact pass. */
+/** Table entry of a square that a bisector passes near (the only entry with bit 2 set): decided after the block. */
 const NEAR_BISECTOR = 4;
 
 /** Squared distance (up to a factor 3 a^2) between axial offsets: x'^2 + y'^2 = 3 a^2 (q^2 + q r + r^2). */
@@ -79,16 +82,131 @@ function nearSideBand(grid: CoverageGrid): number {
   return Math.max(2 ** -20, 2 ** -38 * (Math.abs(grid.i0) + Math.abs(grid.j0) + grid.nx + grid.ny + 2));
 }
 
+/**
+ * Parameters of one placement, shared by the block functions. reals: q per dx, q per dy, r per dx, r per dy (all
+ * times 2^7), (u + i0 - 1) 2^7, (v + j0 - 1) 2^7, bisector band (axial units), origin x, origin y; integers: i0, j0,
+ * nx, ny, then the block's counts of listed (near-bisector) and deferred points.
+ */
+const REAL_SLOTS = 9;
+const INTEGER_SLOTS = 6;
+const LISTED = 4;
+const DEFERRED = 5;
+
+/**
+ * The fast pass over points [start, end): every point in the grid's interior is counted in the corner the table gives
+ * (corner (0, 0) for NEAR_BISECTOR, whose index goes to `listed`); points of the grid's outer strip go to `deferred`.
+ * The literals 128, 127 and 7 are TABLE_SIZE, TABLE_SIZE - 1 and TABLE_BITS, and `code >> 2` is 1 for NEAR_BISECTOR
+ * only (module constants are loaded and checked in the loop by V8).
+ */
+function countFastBlock(
+  points: Float64Array,
+  start: number,
+  end: number,
+  reals: Float64Array,
+  integers: Int32Array,
+  corners: Uint8Array,
+  listed: Int32Array,
+  deferred: Int32Array,
+  out: Int32Array,
+): void {
+  const qx = reals[0]!;
+  const qy = reals[1]!;
+  const rx = reals[2]!;
+  const ry = reals[3]!;
+  const shiftQ = reals[4]!;
+  const shiftR = reals[5]!;
+  const ox = reals[7]!;
+  const oy = reals[8]!;
+  const nx = integers[2]!;
+  const ny = integers[3]!;
+  // scaled bounds: column c (0-based) spans q in [c + 1/3, c + 5/3], so q * 2^7 in (2^7, nx 2^7) has all four corners
+  // (q0 or q0 + 1, r0 or r0 + 1) in columns and rows 1..nx, 1..ny
+  const highQ = nx * 128;
+  const highR = ny * 128;
+  const outerQ = (nx + 1) * 128;
+  const outerR = (ny + 1) * 128;
+  const last = end | 0;
+  let listedCount = 0;
+  let deferredCount = 0;
+  for (let p = start | 0; p < last; p++) {
+    const dx = points[2 * p]! - ox;
+    const dy = points[2 * p + 1]! - oy;
+    const q = dx * qx + dy * qy - shiftQ;
+    const r = dx * rx + dy * ry - shiftR;
+    if (q > 128 && q < highQ && r > 128 && r < highR) {
+      // the integer part holds q0 above 7 bits and the table column in the low 7 bits
+      const qScaled = q | 0;
+      const rScaled = r | 0;
+      const code = corners[((qScaled & 127) << 7) | (rScaled & 127)]!;
+      listed[listedCount] = p;
+      listedCount += code >> 2;
+      out[(Math.imul((rScaled >> 7) - 1 + ((code >> 1) & 1), nx) + (qScaled >> 7) - 1 + (code & 1)) | 0]!++;
+    } else if (q > 0 && q < outerQ && r > 0 && r < outerR) {
+      // the grid's outer strip (a region's points never lie there: hexCoverage pads the grid by 2/3)
+      deferred[deferredCount++] = p;
+    }
+  }
+  integers[LISTED] = listedCount;
+  integers[DEFERRED] = deferredCount;
+}
+
+/**
+ * The listed points (table squares near a bisector): taken back from corner (0, 0) and decided by the bisectors of
+ * the unit cell (header comment), without branches; a point within the band of a bisector goes to `deferred`.
+ * q0, r0 >= 1, so fq and fr are exact. Returns the new number of deferred points.
+ */
+function countListed(points: Float64Array, reals: Float64Array, integers: Int32Array, listed: Int32Array, deferred: Int32Array, out: Int32Array): number {
+  const qx = reals[0]!;
+  const qy = reals[1]!;
+  const rx = reals[2]!;
+  const ry = reals[3]!;
+  const shiftQ = reals[4]!;
+  const shiftR = reals[5]!;
+  const band = reals[6]!;
+  const ox = reals[7]!;
+  const oy = reals[8]!;
+  const nx = integers[2]!;
+  const listedCount = integers[LISTED]!;
+  let deferredCount = integers[DEFERRED]!;
+  for (let k = 0; k < listedCount; k++) {
+    const p = listed[k]!;
+    const dx = points[2 * p]! - ox;
+    const dy = points[2 * p + 1]! - oy;
+    // the same expressions as the fast pass, so the same q0, r0
+    const qScaled = dx * qx + dy * qy - shiftQ;
+    const rScaled = dx * rx + dy * ry - shiftR;
+    const q0 = (qScaled | 0) >> 7;
+    const r0 = (rScaled | 0) >> 7;
+    out[(Math.imul(r0 - 1, nx) + q0 - 1) | 0]!--;
+    const fq = qScaled / 128 - q0;
+    const fr = rScaled / 128 - r0;
+    const d = fq - fr;
+    // t = [fq > fr]; e1 = 2 fq + fr + t - 2 and e2 = fq + 2 fr - t - 1 change sign on the bisectors that decide
+    const t = (d + 1) | 0;
+    const e1 = fq + fq + fr + t - 2;
+    const e2 = fq + fr + fr - t - 1;
+    if (Math.abs(d) < band || Math.abs(e1) < band || Math.abs(e2) < band) {
+      deferred[deferredCount++] = p;
+      continue;
+    }
+    // e1 + 2 and e2 + 2 lie in [0, 4): halving and flooring gives 1 above the bisector, 0 below
+    const cq = ((e1 + 2) * 0.5) | 0;
+    const cr = ((e2 + 2) * 0.5) | 0;
+    out[(Math.imul(r0 - 1 + cr, nx) + q0 - 1 + cq) | 0]!++;
+  }
+  return deferredCount;
+}
+
 export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter {
   const points = xy;
   const pointCount = points.length >> 1;
-  const originX = origin.x;
-  const originY = origin.y;
-  // reals: q per dx, q per dy, r per dx, r per dy, u + i0 - 1, v + j0 - 1, bisector band; integers: i0, j0, nx, ny
-  const reals = new Float64Array(7);
-  const integers = new Int32Array(4);
+  const reals = new Float64Array(REAL_SLOTS);
+  const integers = new Int32Array(INTEGER_SLOTS);
+  reals[7] = origin.x;
+  reals[8] = origin.y;
   let exactFrame = createHexFrame(origin, 1, { u: 0, v: 0, angle: 0 });
   const deferred = new Int32Array(Math.min(BLOCK, Math.max(1, pointCount)));
+  const listed = new Int32Array(Math.min(BLOCK, Math.max(1, pointCount)));
   const cell = new Float64Array(2);
 
   /** The contract's formula for the deferred points. */
@@ -112,66 +230,6 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
     }
   }
 
-  function countBlock(out: Int32Array, start: number, end: number): void {
-    const qx = reals[0]!;
-    const qy = reals[1]!;
-    const rx = reals[2]!;
-    const ry = reals[3]!;
-    const shiftQ = reals[4]!;
-    const shiftR = reals[5]!;
-    const band = reals[6]!;
-    const nx = integers[2]!;
-    const ny = integers[3]!;
-    const upperQ = nx + 1;
-    const upperR = ny + 1;
-    const data = points;
-    const pending = deferred;
-    const corners = CORNER_TABLE;
-    const ox = originX;
-    const oy = originY;
-    let deferredCount = 0;
-    for (let p = start; p < end; p++) {
-      const dx = data[2 * p]! - ox;
-      const dy = data[2 * p + 1]! - oy;
-      // axial coordinates shifted so that grid column c (0-based) spans q in [c + 1/3, c + 5/3]: `| 0` floors
-      const q = dx * qx + dy * qy - shiftQ;
-      const r = dx * rx + dy * ry - shiftR;
-      if (q > 1 && q < nx && r > 1 && r < ny) {
-        // every corner (q0 or q0 + 1, r0 or r0 + 1) is a grid cell: columns and rows 1..nx, 1..ny
-        // q * 2^7 is exact, so its integer part holds q0 above 7 bits and the table column in the low 7 bits
-        const qScaled = (q * TABLE_SIZE) | 0;
-        const rScaled = (r * TABLE_SIZE) | 0;
-        const corner = corners[((qScaled & TABLE_MASK) << TABLE_BITS) | (rScaled & TABLE_MASK)]!;
-        if (corner === NEAR_BISECTOR) {
-          // second level: the bisectors of the axial unit cell (header comment); q0, r0 >= 1, so fq and fr are exact
-          const q0 = qScaled >> TABLE_BITS;
-          const r0 = rScaled >> TABLE_BITS;
-          const fq = q - q0;
-          const fr = r - r0;
-          const s1 = 2 * fq + fr;
-          const s2 = fq + 2 * fr;
-          const d = fq - fr;
-          if (
-            Math.abs(s1 - 1) < band ||
-            Math.abs(s2 - 1) < band ||
-            Math.abs(s1 - 2) < band ||
-            Math.abs(s2 - 2) < band ||
-            Math.abs(d) < band
-          ) {
-            pending[deferredCount++] = p;
-          } else if (s1 < 1 && s2 < 1) out[(r0 - 1) * nx + q0 - 1]!++;
-          else if (s1 > 2 && s2 > 2) out[r0 * nx + q0]!++;
-          else if (d > 0) out[(r0 - 1) * nx + q0]!++;
-          else out[r0 * nx + q0 - 1]!++;
-        } else out[((rScaled >> TABLE_BITS) - 1 + (corner >> 1)) * nx + (qScaled >> TABLE_BITS) - 1 + (corner & 1)]!++;
-      } else if (q > 0 && q < upperQ && r > 0 && r < upperR) {
-        // the grid's outer strip (a region's points never lie there: hexCoverage pads the grid by 2/3)
-        pending[deferredCount++] = p;
-      }
-    }
-    countExactly(out, deferredCount);
-  }
-
   /** Every point by the exact pass (grids so far from the origin that the table's margin would not cover the error). */
   function countAllExactly(out: Int32Array): void {
     for (let start = 0; start < pointCount; start += BLOCK) {
@@ -191,20 +249,20 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
       exactFrame = createHexFrame(origin, cellSize, placement);
       const { cos, sin } = cosSinDegrees(placement.angle);
       const { sqrt3Side, threeSide, oneHalfSide } = exactFrame;
-      // q = x'/(sqrt3 a) - y'/(3a) - u with x' = dx cos + dy sin, y' = -dx sin + dy cos; r = y'/(1.5 a) - v
-      reals[0] = cos / sqrt3Side + sin / threeSide;
-      reals[1] = sin / sqrt3Side - cos / threeSide;
-      reals[2] = -sin / oneHalfSide;
-      reals[3] = cos / oneHalfSide;
-      reals[4] = placement.u + grid.i0 - 1;
-      reals[5] = placement.v + grid.j0 - 1;
-
+      // q = x'/(sqrt3 a) - y'/(3a) - u with x' = dx cos + dy sin, y' = -dx sin + dy cos; r = y'/(1.5 a) - v; all
+      // times 2^7 (exact, so q 2^7 is the unscaled value's 2^7 multiple bit for bit)
+      reals[0] = TABLE_SIZE * (cos / sqrt3Side + sin / threeSide);
+      reals[1] = TABLE_SIZE * (sin / sqrt3Side - cos / threeSide);
+      reals[2] = TABLE_SIZE * (-sin / oneHalfSide);
+      reals[3] = TABLE_SIZE * (cos / oneHalfSide);
+      reals[4] = TABLE_SIZE * (placement.u + grid.i0 - 1);
+      reals[5] = TABLE_SIZE * (placement.v + grid.j0 - 1);
       integers[0] = grid.i0;
       integers[1] = grid.j0;
       integers[2] = grid.nx;
       integers[3] = grid.ny;
-      // the fast (q, r) differ from the contract's by less than nearSideBand in each coordinate, so s1 = 2 fq + fr,
-      // s2 and d by less than 3 times that plus their own rounding
+      // the fast (q, r) differ from the contract's by less than nearSideBand in each coordinate, so 2 fq + fr,
+      // fq + 2 fr and fq - fr by less than 3 times that plus their own rounding
       reals[6] = 4 * nearSideBand(grid);
       out.fill(0, 0, grid.nx * grid.ny);
       // far from the origin the table's margin would not cover the fast path's rounding; beyond 2^24 columns or rows
@@ -214,7 +272,10 @@ export function createHexCounter(xy: Float64Array, origin: Origin): CellCounter 
         countAllExactly(out);
         return;
       }
-      for (let start = 0; start < pointCount; start += BLOCK) countBlock(out, start, Math.min(pointCount, start + BLOCK));
+      for (let start = 0; start < pointCount; start += BLOCK) {
+        countFastBlock(points, start, Math.min(pointCount, start + BLOCK), reals, integers, CORNER_TABLE, listed, deferred, out);
+        countExactly(out, countListed(points, reals, integers, listed, deferred, out));
+      }
     },
   };
 }

@@ -91,6 +91,15 @@ export function hexCellOfPoint(frame: HexFrame, px: number, py: number): [number
   return roundHex(q, r);
 }
 
+/** hexCellOfPoint written to cell[0], cell[1] without allocating (hexAxial's expressions, in the same order). */
+export function hexCellOfPointInto(frame: HexFrame, px: number, py: number, cell: Float64Array): void {
+  const dx = px - frame.originX;
+  const dy = py - frame.originY;
+  const xPrime = dx * frame.cos + dy * frame.sin;
+  const yPrime = -dx * frame.sin + dy * frame.cos;
+  roundHexInto(xPrime / frame.sqrt3Side - yPrime / frame.threeSide - frame.u, yPrime / frame.oneHalfSide - frame.v, cell);
+}
+
 /** Grid-frame coordinates (x', y') to planar metres: rotate by +t and add the origin. */
 function toPlanar(frame: HexFrame, xPrime: number, yPrime: number): [number, number] {
   return [frame.originX + xPrime * frame.cos - yPrime * frame.sin, frame.originY + xPrime * frame.sin + yPrime * frame.cos];

@@ -6,12 +6,12 @@
 import { frameFromRules, type Lattice } from '../lattice.js';
 import { createHexCounter } from './hex-counter.js';
 import { hexCoverage } from './hex-coverage.js';
-import { createHexFrame, hexCellOfPoint, hexCorners } from './hex-frame.js';
+import { createHexFrame, hexCellOfPoint, hexCellOfPointInto, hexCorners } from './hex-frame.js';
 
 export const hexLattice: Lattice = {
   shape: 'hex',
   anglePeriod: 60,
   coverage: hexCoverage,
   createCounter: createHexCounter,
-  frame: frameFromRules(createHexFrame, hexCellOfPoint, hexCorners),
+  frame: frameFromRules(createHexFrame, hexCellOfPoint, hexCellOfPointInto, hexCorners),
 };
