@@ -103,8 +103,14 @@ describe('a plan within the old budget but over the new one', () => {
   describe('over HTTP', () => {
     let app: FastifyInstance;
     let close: () => Promise<void>;
+    // a server sweep also computes the stability surface (its own share of the budget, the same with or without a
+    // baseline: 2 km x 2 km at 250 m cells has 64 x 64 pixels of 31.25 m, x 100 placements x SURFACE_PIXEL_WEIGHT);
+    // the server's budget leaves room for it, so that only the baseline's work tips the plan over
+    const surfaceWork = estimateSweep({ ...plan, rotation: true, design: 'halton', minCoverage: 0.5, alpha: 0.05 }, N, budget, {
+      surface: { bbox: { minX: 0, minY: 0, maxX: 2000, maxY: 2000 }, cellSizes: [250] },
+    }).surfaceWork as number;
     beforeAll(async () => {
-      ({ app, close } = await testApp({ workBudget: budget }));
+      ({ app, close } = await testApp({ workBudget: budget + surfaceWork }));
     });
     afterAll(async () => close());
 
