@@ -59,22 +59,21 @@ export function composeMapImage(map: OlMap, metresPerPixel: number, legend: read
   if (bar) drawScaleBar(context, bar, 16, height - 12);
   context.strokeStyle = NEUTRAL.lightGrey;
   context.strokeRect(0.5, 0.5, width - 1, height - 1);
-  let y = height + 10;
-  context.fillStyle = NEUTRAL.ink;
-  context.textBaseline = 'top';
-  context.font = 'bold 13px sans-serif';
-  for (const line of titleLines) {
-    context.fillText(line, 10, y);
-    y += 17;
-  }
-  y += 6;
+  let y = drawTextLines(context, titleLines, 'bold 13px sans-serif', 17, height + 10) + 6;
   y += drawLegend(context, legend, 10, y, width - 20) + 4;
+  drawTextLines(context, noteLines, '11px sans-serif', 14, y);
+  return output;
+}
+
+/** Writes lines of ink text from the left margin downwards, starting at y; returns the y below the last line. */
+function drawTextLines(context: CanvasRenderingContext2D, lines: readonly string[], font: string, lineHeight: number, y: number): number {
   context.fillStyle = NEUTRAL.ink;
   context.textBaseline = 'top';
-  context.font = '11px sans-serif';
-  for (const line of noteLines) {
-    context.fillText(line, 10, y);
-    y += 14;
+  context.font = font;
+  let top = y;
+  for (const line of lines) {
+    context.fillText(line, 10, top);
+    top += lineHeight;
   }
-  return output;
+  return top;
 }
