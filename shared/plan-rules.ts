@@ -6,6 +6,8 @@
  * Pure: numbers in, numbers and words out.
  */
 import type { BaselineSize } from '../workers/baseline/baseline.js';
+import type { BBox } from '../workers/types.js';
+import { stabilityRaster } from '../workers/stability/stability-raster.js';
 
 /** Allowed ranges of the plan fields. */
 export const PLAN_LIMITS = Object.freeze({
@@ -103,6 +105,20 @@ export const BASELINE_VERTEX_WORK = 8;
  * 2-core test machine under load (load average 8 to 12).
  */
 export const SURFACE_PIXEL_WEIGHT = 12;
+
+/**
+ * Raster pixels of the stability surfaces of a sweep over `bbox` (planar metres): the raster of each cell side
+ * (workers/stability/stability-raster.ts), once per shape. The server and the page's estimate both count with it.
+ * Cost O(sides).
+ */
+export function surfacePixelCount(bbox: BBox, cellSizes: readonly number[], shapes: number): number {
+  let pixels = 0;
+  for (const side of cellSizes) {
+    const raster = stabilityRaster({ bbox }, side);
+    pixels += raster.width * raster.height;
+  }
+  return pixels * shapes;
+}
 
 /** What a sweep costs: the quantities the budget and the limits are checked against. */
 export interface PlanWork {

@@ -10,8 +10,7 @@ import type { BaselineSize } from '../../workers/baseline/baseline.js';
 import type { BBox } from '../../workers/types.js';
 import { budgetError } from '../errors.js';
 import { planShapes } from './plan.js';
-import { DEFAULT_WORK_BUDGET, MAX_EVALUATIONS, MAX_SIMULATED_BYTES, planWork, SURFACE_PIXEL_WEIGHT } from '../../shared/plan-rules.js';
-import { stabilityRaster } from '../../workers/stability/stability-raster.js';
+import { DEFAULT_WORK_BUDGET, MAX_EVALUATIONS, MAX_SIMULATED_BYTES, planWork, SURFACE_PIXEL_WEIGHT, surfacePixelCount } from '../../shared/plan-rules.js';
 
 export { DEFAULT_WORK_BUDGET } from '../../shared/plan-rules.js';
 
@@ -53,12 +52,7 @@ export interface SurfacePlan {
 
 /** Raster pixels of the stability surfaces of a plan: the raster of each cell side, once per shape. Cost O(sides). */
 export function surfacePixels(plan: Plan, surface: SurfacePlan): number {
-  let pixels = 0;
-  for (const side of surface.cellSizes) {
-    const raster = stabilityRaster({ bbox: surface.bbox }, side);
-    pixels += raster.width * raster.height;
-  }
-  return pixels * planShapes(plan).length;
+  return surfacePixelCount(surface.bbox, surface.cellSizes, planShapes(plan).length);
 }
 
 /**

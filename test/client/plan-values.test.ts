@@ -91,6 +91,21 @@ describe('planCost(plan, nInside, budget)', () => {
     expect(cost.refusal).toBeNull();
   });
 
+  it('counts the stability surface over the dataset box as the server does, and refuses when the surface tips it over', () => {
+    const bbox = { minX: 0, minY: 0, maxX: 1000, maxY: 800 };
+    const cost = planCost(plan, 564, 2e10, undefined, bbox);
+    const server = estimateSweep(plan, 564, 2e10, { surface: { bbox, cellSizes: plan.cells } });
+    // cells 100, 200, 300 m: pixels of 12.5, 25 and 37.5 m: 80 x 64 + 40 x 32 + 27 x 22 = 6994, x 64 placements x 12
+    expect(cost.surfaceWork).toBe(6994 * 64 * 12);
+    expect(cost.surfaceWork).toBe(server.surfaceWork);
+    expect(cost.work).toBe(server.work);
+    const budget = cost.work + cost.surfaceWork;
+    expect(planCost(plan, 564, budget, undefined, bbox).refusal).toBeNull();
+    expect(planCost(plan, 564, budget - 1, undefined, bbox).refusal).toMatch(/^Too large: .* or larger cells/);
+    // without the box (no dataset yet) the surface is not counted
+    expect(planCost(plan, 564, budget - 1).refusal).toBeNull();
+  });
+
   it('refuses above the budget with the shrink factor, and above the evaluation limit', () => {
     const large = { ...plan, placements: 65536, sims: 9999 };
     const cost = planCost(large, 564, 2e10);

@@ -84,11 +84,11 @@ function buildForm(container: HTMLElement, store: Store): void {
       return null;
     }
     const budget = store.state.health?.workBudget ?? null;
-    const cost = planCost(reading.plan, dataset.nInside, budget, dataset.baseline);
+    const cost = planCost(reading.plan, dataset.nInside, budget, dataset.baseline, dataset.bbox);
     const share = cost.shareOfBudget === null ? '' : ` (${formatNumber(100 * cost.shareOfBudget, 2)} % of the budget of ${budget!.toExponential(1)})`;
     clear(
       estimate,
-      el('p', {}, `Cost: ${dataset.nInside} points x ${reading.plan.placements} placements x ${reading.plan.cells!.length} cell sides${shapeCount(reading.plan.shape)} x (1 + ${reading.plan.sims}) patterns${cost.baselineWork > 0 ? ` + ${cost.baselineWork.toExponential(2)} for the population at risk` : ''} = ${cost.work.toExponential(2)} point-placements${share}.`),
+      el('p', {}, `Cost: ${dataset.nInside} points x ${reading.plan.placements} placements x ${reading.plan.cells!.length} cell sides${shapeCount(reading.plan.shape)} x (1 + ${reading.plan.sims}) patterns${cost.baselineWork > 0 ? ` + ${cost.baselineWork.toExponential(2)} for the population at risk` : ''} = ${cost.work.toExponential(2)} point-placements${cost.surfaceWork > 0 ? `, plus ${cost.surfaceWork.toExponential(2)} for the stability surface` : ''}${share}.`),
       cost.refusal ? message('error', cost.refusal) : null,
     );
     start.disabled = cost.refusal !== null;
