@@ -45,7 +45,11 @@ export interface StabilitySurface {
 }
 
 export class StabilityAccumulator {
-  private readonly kept: Float64Array;
+  /** placements folded so far, and per valid pixel those in which it lies in no kept cell */
+  private placementsSeen = 0;
+  private readonly notKept: Float64Array;
+  /** per valid pixel: placements in which it lies in a kept cell (placementsSeen − notKept), made by finish() */
+  private kept: Float64Array = new Float64Array(0);
   private readonly excess: Float64Array;
   private readonly deficit: Float64Array;
   /** per (2 r + kind): pixel position -> placements */
@@ -57,20 +61,19 @@ export class StabilityAccumulator {
     readonly pixels: Uint32Array,
     private readonly sims: number,
   ) {
-    this.kept = new Float64Array(pixels.length);
+    this.notKept = new Float64Array(pixels.length);
     this.excess = new Float64Array(pixels.length);
     this.deficit = new Float64Array(pixels.length);
     this.simulated = Array.from({ length: 2 * sims }, () => new Map<number, number>());
   }
 
-  /** Adds a chunk result's stability part, found at `offset`. Cost O(V + simulated pairs). */
+  /** Adds a chunk result's stability part, found at `offset`. Cost O(listed pixels + simulated pairs). */
   addChunk(result: Float64Array, offset: number): void {
-    const part = decodeStability(result, offset, this.pixels.length);
-    for (let q = 0; q < this.pixels.length; q++) {
-      this.kept[q]! += part.kept[q]!;
-      this.excess[q]! += part.excess[q]!;
-      this.deficit[q]! += part.deficit[q]!;
-    }
+    const part = decodeStability(result, offset);
+    this.placementsSeen += part.placements;
+    addPairs(part.notKept, this.notKept);
+    addPairs(part.excess, this.excess);
+    addPairs(part.deficit, this.deficit);
     const pairs = part.simulated;
     for (let t = 0; t < pairs.length; t += 2) {
       const map = this.simulated[pairs[t]!]!;
@@ -88,6 +91,8 @@ export class StabilityAccumulator {
     const stableExcess = new Uint8Array(size);
     const stableDeficit = new Uint8Array(size);
     const least = MIN_KEPT_FRACTION * placements;
+    this.kept = new Float64Array(this.pixels.length);
+    for (let q = 0; q < this.pixels.length; q++) this.kept[q] = this.placementsSeen - this.notKept[q]!;
     let calibration: StabilityCalibration | null = null;
     if (this.sims > 0) {
       const excessMaxima = new Float64Array(this.sims);
@@ -132,4 +137,9 @@ export class StabilityAccumulator {
     }
     return largest;
   }
+}
+
+/** Adds sparse (q, count) pairs into per-pixel totals. */
+function addPairs(pairs: Float64Array, into: Float64Array): void {
+  for (let t = 0; t < pairs.length; t += 2) into[pairs[t]!]! += pairs[t + 1]!;
 }

@@ -1,7 +1,8 @@
 /**
  * `stability-<side>m.tif`: the stability surface of one cell size as a GeoTIFF (OGC GeoTIFF 1.1 / GeoTIFF 1.0 keys),
- * written with the registry library geotiff: float32, two bands interleaved per pixel (band 1 excess share, band 2
- * deficit share), NaN outside the valid region (and where no placement keeps the pixel), GDAL_NODATA "nan".
+ * written by tiff-encoder.ts (the registry library geotiff reads it back in the tests): float32, two bands
+ * interleaved per pixel (band 1 excess share, band 2 deficit share), NaN outside the valid region (and where no
+ * placement keeps the pixel), GDAL_NODATA "nan".
  *
  * Georeferencing in the working coordinates: ModelTiepoint (raster corner (0, 0) = the upper-left corner) and
  * ModelPixelScale, pixels as areas (GTRasterTypeGeoKey = 1). The coordinate system:
@@ -11,10 +12,10 @@
  *   WGS 84 datum; metres), and its proj4 definition in PCSCitationGeoKey;
  * - `crs planar`: a user-defined projected system in metres, the citation saying the system is unknown.
  */
-import { writeArrayBuffer, type GeotiffWriterMetadata } from 'geotiff';
 import type { ProjectionInfo } from '../../shared/contracts.js';
 import { workingSystem } from '../grid-export/working-system.js';
 import type { StabilitySurface } from './stability-accumulator.js';
+import { encodeFloat32Tiff, TIFF_ASCII, TIFF_DOUBLE, TIFF_SHORT, type TiffField } from './tiff-encoder.js';
 
 /** GeoTIFF 1.0 codes (OGC 19-008r4, tables of the GeoKeys). */
 const MODEL_TYPE_PROJECTED = 1;
@@ -40,8 +41,13 @@ const KEY_IDS: Readonly<Record<string, number>> = {
   ProjCenterLongGeoKey: 3088,
   ProjCenterLatGeoKey: 3089,
 };
+/** GeoTIFF tags (OGC 19-008r4, section 7.1) and GDAL's no-data tag (42113, GDAL's TIFF documentation, from memory). */
+const MODEL_PIXEL_SCALE = 33550;
+const MODEL_TIEPOINT = 33922;
+const GEO_KEY_DIRECTORY = 34735;
 const GEO_DOUBLE_PARAMS = 34736;
 const GEO_ASCII_PARAMS = 34737;
+const GDAL_NODATA = 42113;
 
 /** A GeoKey's value: a SHORT (number), a DOUBLE ([number]) or an ASCII text (string). */
 type GeoKeyValue = number | [number] | string;
@@ -108,27 +114,18 @@ export function stabilityGeoTiff(surface: StabilitySurface, projection: Projecti
     values[2 * p] = surface.excessShare[p]!;
     values[2 * p + 1] = surface.deficitShare[p]!;
   }
-  const keys = coordinateKeys(projection);
   const system = workingSystem(projection);
   const [cornerX, cornerY] = system.toStored(raster.x0, raster.y0);
   const [unitX] = system.toStored(raster.x0 + raster.side, raster.y0);
   const scale = unitX - cornerX;
-  const metadata = {
-    width: raster.width,
-    height: raster.height,
-    BitsPerSample: [32, 32],
-    SampleFormat: [3, 3],
-    SamplesPerPixel: 2,
-    PlanarConfiguration: 1,
-    PhotometricInterpretation: 1,
-    ExtraSamples: [0],
-    ModelPixelScale: [scale, scale, 0],
-    ModelTiepoint: [0, 0, 0, cornerX, cornerY, 0],
-    GDAL_NODATA: 'nan',
-    ...geoKeyTags(keys),
-    // the library fills in a whole-globe WGS 84 georeferencing unless one of these keys is named; the directory
-    // above already holds it
-    ProjectedCSTypeGeoKey: keys.ProjectedCSTypeGeoKey as number,
-  } as GeotiffWriterMetadata;
-  return new Uint8Array(writeArrayBuffer(values, metadata));
+  const geoKeys = geoKeyTags(coordinateKeys(projection));
+  const fields: TiffField[] = [
+    { tag: MODEL_PIXEL_SCALE, type: TIFF_DOUBLE, values: [scale, scale, 0] },
+    { tag: MODEL_TIEPOINT, type: TIFF_DOUBLE, values: [0, 0, 0, cornerX, cornerY, 0] },
+    { tag: GEO_KEY_DIRECTORY, type: TIFF_SHORT, values: geoKeys.GeoKeyDirectory },
+    ...(geoKeys.GeoDoubleParams === undefined ? [] : [{ tag: GEO_DOUBLE_PARAMS, type: TIFF_DOUBLE, values: geoKeys.GeoDoubleParams } as TiffField]),
+    ...(geoKeys.GeoAsciiParams === undefined ? [] : [{ tag: GEO_ASCII_PARAMS, type: TIFF_ASCII, values: geoKeys.GeoAsciiParams } as TiffField]),
+    { tag: GDAL_NODATA, type: TIFF_ASCII, values: 'nan' },
+  ];
+  return encodeFloat32Tiff(raster.width, raster.height, 2, values, fields);
 }
