@@ -130,6 +130,11 @@ export class StabilityChunk {
     start.fill(0, 0, m + 1);
     const { x0, y0, side, width } = raster;
     const { i0, j0, nx, ny } = grid;
+    // squares: the contract's floor((dx cos + dy sin) / s - u) through a multiplication by 1 / s, exact away from
+    // the cell edges; within `band` (cell units, far above the rounding of either form) of an edge the division
+    // decides, as in the counting kernel (workers/lattice/square/square-counter.ts)
+    const band = Math.max(2 ** -20, 2 ** -40 * (Math.abs(i0) + Math.abs(j0) + nx + ny + 2));
+    const inverse = square === null ? 0 : 1 / square.cellSize;
     for (let q = 0; q < pixels.length; q++) {
       const pixel = pixels[q]!;
       const row = Math.floor(pixel / width);
@@ -138,11 +143,19 @@ export class StabilityChunk {
       const py = y0 - (row + 0.5) * side;
       let cell: number;
       if (square !== null) {
-        // workers/geometry/grid-frame.ts cellUnitX / cellUnitY, the grid contract's order of operations, inline
         const dx = px - square.originX;
         const dy = py - square.originY;
-        const gi = Math.floor((dx * square.cos + dy * square.sin) / square.cellSize - square.u) - i0;
-        const gj = Math.floor((-dx * square.sin + dy * square.cos) / square.cellSize - square.v) - j0;
+        const x = (dx * square.cos + dy * square.sin) * inverse - square.u;
+        const y = (-dx * square.sin + dy * square.cos) * inverse - square.v;
+        let fi = Math.floor(x);
+        let fj = Math.floor(y);
+        if (x - fi < band || x - fi > 1 - band || y - fj < band || y - fj > 1 - band) {
+          // workers/geometry/grid-frame.ts cellUnitX / cellUnitY, the grid contract's order of operations, inline
+          fi = Math.floor((dx * square.cos + dy * square.sin) / square.cellSize - square.u);
+          fj = Math.floor((-dx * square.sin + dy * square.cos) / square.cellSize - square.v);
+        }
+        const gi = fi - i0;
+        const gj = fj - j0;
         cell = gi >= 0 && gi < nx && gj >= 0 && gj < ny ? gj * nx + gi : -1;
       } else {
         cell = cellOf(px, py);
