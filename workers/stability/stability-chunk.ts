@@ -21,6 +21,10 @@ import type { StabilityRaster } from './stability-raster.js';
 export const EXCESS = 0;
 export const DEFICIT = 1;
 
+/** Codes of the observed pattern's flags in the per-placement lists (simulated flags use 2 r + kind >= 0). */
+const OBSERVED_EXCESS = -1;
+const OBSERVED_DEFICIT = -2;
+
 /** Values before the lists: P, K, X, D, E. */
 const HEAD = 5;
 
@@ -69,7 +73,6 @@ interface ChunkBuffers {
   excess: PixelTally;
   deficit: PixelTally;
   pixelKept: Int32Array;
-  pixelsOfKept: Int32Array;
 }
 
 /** The thread's buffers, made again only when the number of valid pixels changes. */
@@ -83,7 +86,6 @@ function buffersFor(pixels: number): ChunkBuffers {
       excess: new PixelTally(pixels),
       deficit: new PixelTally(pixels),
       pixelKept: new Int32Array(pixels),
-      pixelsOfKept: new Int32Array(pixels),
     };
   }
   return buffers;
@@ -95,8 +97,14 @@ export class StabilityChunk {
   private readonly buffers: ChunkBuffers;
   private readonly flags: CellFlagScratch = createCellFlagScratch();
   private keptOfCell = new Int32Array(0);
-  /** kept cell k's pixels are pixelsOfKept[start[k] .. start[k+1]-1] */
-  private start = new Int32Array(0);
+  /**
+   * The current placement's flags, listed per kept cell and turned into pixels by one pass over the pixels when the
+   * placement ends (flushPlacement): head[k] is cell k's first entry (−1: none), entries hold a code (OBSERVED_EXCESS,
+   * OBSERVED_DEFICIT, or 2 r + kind for simulated pattern r) and the next entry of the same cell.
+   */
+  private head = new Int32Array(0);
+  private entryCode: number[] = [];
+  private entryNext: number[] = [];
 
   constructor(
     private readonly raster: StabilityRaster,
@@ -115,8 +123,7 @@ export class StabilityChunk {
    * Cost O(V) cell-of-point evaluations plus O(grid cells).
    */
   beginPlacement(cellOf: PixelCellLocator, grid: CoverageGrid, kept: KeptCells, square: SquarePixelFrame | null = null): void {
-    const { raster, pixels } = this;
-    const { pixelKept, pixelsOfKept, notKept } = this.buffers;
+    this.flushPlacement();
     this.placements += 1;
     const cells = grid.nx * grid.ny;
     if (this.keptOfCell.length < cells) this.keptOfCell = new Int32Array(cells);
@@ -124,60 +131,81 @@ export class StabilityChunk {
     keptOfCell.fill(-1, 0, cells);
     const m = kept.index.length;
     for (let k = 0; k < m; k++) keptOfCell[kept.index[k]!] = k;
+    if (this.head.length < m) this.head = new Int32Array(m);
+    this.head.fill(-1, 0, m);
+    if (square !== null) this.locateSquare(square, grid);
+    else this.locate(cellOf);
+  }
 
-    if (this.start.length < m + 1) this.start = new Int32Array(m + 1);
-    const start = this.start;
-    start.fill(0, 0, m + 1);
-    const { x0, y0, side, width } = raster;
-    const { i0, j0, nx, ny } = grid;
-    // squares: the contract's floor((dx cos + dy sin) / s - u) through a multiplication by 1 / s, exact away from
-    // the cell edges; within `band` (cell units, far above the rounding of either form) of an edge the division
-    // decides, as in the counting kernel (workers/lattice/square/square-counter.ts)
-    const band = Math.max(2 ** -20, 2 ** -40 * (Math.abs(i0) + Math.abs(j0) + nx + ny + 2));
-    const inverse = square === null ? 0 : 1 / square.cellSize;
+  /** pixelKept[q] = the kept cell of pixel q (−1: none, counted in notKept), any lattice through its locator. */
+  private locate(cellOf: PixelCellLocator): void {
+    const { pixels, keptOfCell } = this;
+    const { pixelKept, notKept } = this.buffers;
+    const { x0, y0, side, width } = this.raster;
     for (let q = 0; q < pixels.length; q++) {
       const pixel = pixels[q]!;
       const row = Math.floor(pixel / width);
       const col = pixel - row * width;
-      const px = x0 + (col + 0.5) * side;
-      const py = y0 - (row + 0.5) * side;
-      let cell: number;
-      if (square !== null) {
-        const dx = px - square.originX;
-        const dy = py - square.originY;
-        const x = (dx * square.cos + dy * square.sin) * inverse - square.u;
-        const y = (-dx * square.sin + dy * square.cos) * inverse - square.v;
-        let fi = Math.floor(x);
-        let fj = Math.floor(y);
-        if (x - fi < band || x - fi > 1 - band || y - fj < band || y - fj > 1 - band) {
-          // workers/geometry/grid-frame.ts cellUnitX / cellUnitY, the grid contract's order of operations, inline
-          fi = Math.floor((dx * square.cos + dy * square.sin) / square.cellSize - square.u);
-          fj = Math.floor((-dx * square.sin + dy * square.cos) / square.cellSize - square.v);
-        }
-        const gi = fi - i0;
-        const gj = fj - j0;
-        cell = gi >= 0 && gi < nx && gj >= 0 && gj < ny ? gj * nx + gi : -1;
-      } else {
-        cell = cellOf(px, py);
-      }
+      const cell = cellOf(x0 + (col + 0.5) * side, y0 - (row + 0.5) * side);
       const k = cell < 0 ? -1 : keptOfCell[cell]!;
       pixelKept[q] = k;
-      if (k >= 0) start[k + 1]! += 1;
-      else notKept.add(q);
+      if (k < 0) notKept.add(q);
     }
-    for (let k = 0; k < m; k++) start[k + 1]! += start[k]!;
-    const fill = start.slice(0, m);
+  }
+
+  /**
+   * locate() for squares: the contract's floor((dx cos + dy sin) / s - u) through multiplications by 1 / s (the row's
+   * terms once per row), exact away from the cell edges; within `band` (cell units, far above the rounding of either
+   * form) of an edge the contract's division decides, as in the counting kernel (workers/lattice/square).
+   */
+  private locateSquare(square: SquarePixelFrame, grid: CoverageGrid): void {
+    const { pixels, keptOfCell } = this;
+    const { pixelKept, notKept } = this.buffers;
+    const { x0, y0, side, width } = this.raster;
+    const { i0, j0, nx, ny } = grid;
+    const { originX, originY, cos, sin, cellSize, u, v } = square;
+    const band = Math.max(2 ** -20, 2 ** -40 * (Math.abs(i0) + Math.abs(j0) + nx + ny + 2));
+    const inverse = 1 / cellSize;
+    const cosOver = cos * inverse;
+    const sinOver = sin * inverse;
+    let rowStart = 0;
+    let rowEnd = -1;
+    let dy = 0;
+    let rowX = 0;
+    let rowY = 0;
     for (let q = 0; q < pixels.length; q++) {
-      const k = pixelKept[q]!;
-      if (k >= 0) pixelsOfKept[fill[k]!++] = q;
+      const pixel = pixels[q]!;
+      if (pixel >= rowEnd || pixel < rowStart) {
+        const row = Math.floor(pixel / width);
+        rowStart = row * width;
+        rowEnd = rowStart + width;
+        dy = y0 - (row + 0.5) * side - originY;
+        rowX = dy * sinOver - u;
+        rowY = dy * cosOver - v;
+      }
+      const dx = x0 + (pixel - rowStart + 0.5) * side - originX;
+      const x = dx * cosOver + rowX;
+      const y = rowY - dx * sinOver;
+      let fi = Math.floor(x);
+      let fj = Math.floor(y);
+      if (x - fi < band || x - fi > 1 - band || y - fj < band || y - fj > 1 - band) {
+        // workers/geometry/grid-frame.ts cellUnitX / cellUnitY, the grid contract's order of operations, inline
+        fi = Math.floor((dx * cos + dy * sin) / cellSize - u);
+        fj = Math.floor((-dx * sin + dy * cos) / cellSize - v);
+      }
+      const gi = fi - i0;
+      const gj = fj - j0;
+      const k = gi >= 0 && gi < nx && gj >= 0 && gj < ny ? keptOfCell[gj * nx + gi]! : -1;
+      pixelKept[q] = k;
+      if (k < 0) notKept.add(q);
     }
   }
 
   /** Adds the observed pattern's excess / deficit cells of the current placement (kept counts in kept order). */
   addObserved(counts: Float64Array, coverage: Float64Array): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags);
-    this.addPixels(this.flags.excess, found.excess, this.buffers.excess);
-    this.addPixels(this.flags.deficit, found.deficit, this.buffers.deficit);
+    this.listCells(this.flags.excess, found.excess, OBSERVED_EXCESS, null);
+    this.listCells(this.flags.deficit, found.deficit, OBSERVED_DEFICIT, null);
   }
 
   /**
@@ -187,37 +215,50 @@ export class StabilityChunk {
    */
   addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array, keptIndex: Int32Array | null = null): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags);
-    this.listPixels(this.flags.excess, found.excess, 2 * pattern + EXCESS, keptIndex);
-    this.listPixels(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT, keptIndex);
+    this.listCells(this.flags.excess, found.excess, 2 * pattern + EXCESS, keptIndex);
+    this.listCells(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT, keptIndex);
   }
 
-  /** Adds 1 at the pixels of the listed kept cells. */
-  private addPixels(cells: Int32Array, count: number, tally: PixelTally): void {
-    const { pixelsOfKept } = this.buffers;
-    for (let c = 0; c < count; c++) {
-      const k = cells[c]!;
-      for (let t = this.start[k]!; t < this.start[k + 1]!; t++) tally.add(pixelsOfKept[t]!);
-    }
-  }
-
-  /** Lists (code, pixel) for the pixels of the listed kept cells (mapped through keptIndex when given). */
-  private listPixels(cells: Int32Array, count: number, code: number, keptIndex: Int32Array | null): void {
-    const { pixelsOfKept } = this.buffers;
+  /** Lists `code` for the listed kept cells (mapped through keptIndex when given). */
+  private listCells(cells: Int32Array, count: number, code: number, keptIndex: Int32Array | null): void {
     for (let c = 0; c < count; c++) {
       const k = keptIndex === null ? cells[c]! : keptIndex[cells[c]!]!;
       if (k < 0) continue;
-      for (let t = this.start[k]!; t < this.start[k + 1]!; t++) this.simulated.push(code, pixelsOfKept[t]!);
+      this.entryCode.push(code);
+      this.entryNext.push(this.head[k]!);
+      this.head[k] = this.entryCode.length - 1;
     }
   }
 
-  /** Values this chunk appends to the chunk result. */
+  /** Ends the current placement: one pass over the pixels turns the listed cells into pixels (nothing when none). */
+  private flushPlacement(): void {
+    if (this.entryCode.length === 0) return;
+    const { head, entryCode, entryNext, simulated } = this;
+    const { pixelKept, excess, deficit } = this.buffers;
+    for (let q = 0; q < this.pixels.length; q++) {
+      const k = pixelKept[q]!;
+      if (k < 0) continue;
+      for (let e = head[k]!; e >= 0; e = entryNext[e]!) {
+        const code = entryCode[e]!;
+        if (code === OBSERVED_EXCESS) excess.add(q);
+        else if (code === OBSERVED_DEFICIT) deficit.add(q);
+        else simulated.push(code, q);
+      }
+    }
+    this.entryCode = [];
+    this.entryNext = [];
+  }
+
+  /** Values this chunk appends to the chunk result (ends the last placement). */
   get length(): number {
+    this.flushPlacement();
     const { notKept, excess, deficit } = this.buffers;
     return HEAD + 2 * (notKept.size + excess.size + deficit.size) + this.simulated.length;
   }
 
   /** Writes the layout of the file comment into out at offset; clears the thread's counters for the next chunk. */
   encode(out: Float64Array, offset: number): void {
+    this.flushPlacement();
     const { notKept, excess, deficit } = this.buffers;
     out[offset] = this.placements;
     out[offset + 1] = notKept.size;
