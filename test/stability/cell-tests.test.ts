@@ -127,7 +127,7 @@ describe('cell flags against the step-up over every cell', () => {
     return { excess: family(poissonUpperTail), deficit: family(poissonLowerTail) };
   }
 
-  it('the same flagged cells as the definition on 400 null and clustered patterns with partial cells', () => {
+  it('the same flagged cells as the definition on 400 null and clustered patterns with partial cells or weights', () => {
     const random = generator(20261203);
     const scratch = createCellFlagScratch();
     let flaggedCases = 0;
@@ -135,8 +135,12 @@ describe('cell flags against the step-up over every cell', () => {
       const m = 2 + Math.floor(random() * (trial % 4 === 0 ? 4000 : 300));
       const mean = [0.4, 2, 5, 30][trial % 4]!;
       const alpha = trial % 3 === 0 ? 0.1 : 0.05;
-      const coverage = Float64Array.from({ length: m }, () => (random() < 0.15 ? 0.5 + random() / 2 : 1));
-      const counts = Float64Array.from(coverage, (a) => poisson(mean * a * (trial % 2 === 1 && random() < 0.03 ? 4 : 1), random));
+      // coverages in (0.5, 1], or (every fifth trial) baseline weights between 0.2 and 3 (issue 15)
+      const weights = trial % 5 === 2;
+      const coverage = Float64Array.from({ length: m }, () => (weights ? 0.2 + 2.8 * random() : random() < 0.15 ? 0.5 + random() / 2 : 1));
+      // odd trials: about 3 % of the cells hold 4 times their mean, 3 % a twentieth of it
+      const factor = (): number => (trial % 2 === 0 ? 1 : [4, 0.05, 1][Math.min(2, Math.floor(random() / 0.03))]!);
+      const counts = Float64Array.from(coverage, (a) => poisson(mean * a * factor(), random));
       if (counts.every((c) => c === 0)) continue;
       const found = flagCells(counts, coverage, alpha, scratch);
       const expected = bruteForce(counts, coverage, alpha);

@@ -69,21 +69,25 @@ export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: n
   let total = 0;
   let area = 0;
   let leastPartial = 1;
+  let greatestPartial = 1;
   for (let k = 0; k < m; k++) {
     total += counts[k]!;
     const a = coverage[k]!;
     area += a;
     if (a < leastPartial) leastPartial = a;
+    if (a > greatestPartial) greatestPartial = a;
   }
   if (total === 0 || area <= 0) return { excess: 0, deficit: 0 };
   const rate = total / area;
   const { above, aboveP, below, belowP } = scratch;
   const upper = criticalUpper(rate, alpha);
   const lower = criticalLower(rate, alpha);
-  // partial cells: P(X >= o) grows and P(X <= o) shrinks with the mean, and a partial cell's mean lies between
-  // rate x leastPartial and rate, so only counts from the critical count of the smallest mean up, or up to `lower`,
-  // can have p <= alpha; their exact p-values are computed, the others skipped
+  // other cells: P(X >= o) grows and P(X <= o) shrinks with the mean, and a cell's mean lies between
+  // rate x leastPartial and rate x greatestPartial (weights above 1 come from a baseline, issue 15), so only counts
+  // from the critical count of the smallest mean up, or up to the critical count of the largest mean, can have
+  // p <= alpha; their exact p-values are computed, the others skipped
   const upperPartial = leastPartial < 1 ? criticalUpper(rate * leastPartial, alpha) : upper;
+  const lowerPartial = greatestPartial > 1 ? criticalLower(rate * greatestPartial, alpha) : lower;
   let nAbove = 0;
   let nBelow = 0;
   for (let k = 0; k < m; k++) {
@@ -99,7 +103,7 @@ export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: n
       }
       continue;
     }
-    if (o < upperPartial && o > lower) continue;
+    if (o < upperPartial && o > lowerPartial) continue;
     const mean = rate * a;
     if (o > mean) {
       const p = poissonUpperTail(o, mean);
