@@ -6,8 +6,10 @@
  * (and one float step off), on the unit cell's bisectors 2 fq + fr = 1, fq + 2 fr = 1, fq = fr, 2 fq + fr = 2,
  * fq + 2 fr = 2, on the corners of the corner table's squares, and exact ties at angle 0 (the contract's own
  * property test, hex-properties.test.ts, checks the rule itself against a direct implementation of the written rounding rule).
+ * Every case runs with both block functions of the kernel: the list of near-bisector points decided after the block
+ * (grids that fit in the second-level cache) and the decision at once (larger grids).
  */
-import { describe, it, expect } from 'vitest';
+import { beforeAll, describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { createHexCounter } from '../../../workers/lattice/hex/hex-counter.js';
 import { createHexFrame, hexCellOfPoint, hexCorners } from '../../../workers/lattice/hex/hex-frame.js';
@@ -69,7 +71,7 @@ function kernelCells(xy: number[], cellSize: number, placement: Placement): { ce
   const out = new Int32Array(grid.nx * grid.ny);
   const cells: ([number, number] | null)[] = [];
   for (let p = 0; p < xy.length; p += 2) {
-    createHexCounter(Float64Array.of(xy[p]!, xy[p + 1]!), origin).count(grid, cellSize, placement, out);
+    createHexCounter(Float64Array.of(xy[p]!, xy[p + 1]!), origin, inlineFrom).count(grid, cellSize, placement, out);
     const found = out.findIndex((count) => count > 0);
     cells.push(found < 0 ? null : [grid.i0 + (found % grid.nx), grid.j0 + Math.floor(found / grid.nx)]);
     if (found >= 0) expect(out.reduce((sum, count) => sum + count, 0)).toBe(1);
@@ -93,7 +95,17 @@ const angle = fc.oneof(fc.constantFrom(0, 30, 45), fc.double({ min: 0, max: 59.9
 const cellSize = fc.oneof(fc.constantFrom(100, 64, 0.1 * 3 * 100), fc.double({ min: 60, max: 140, noNaN: true }));
 const fractions = fc.array(fc.double({ min: 0, max: 0.999, noNaN: true }), { minLength: 8, maxLength: 8 });
 
-describe('hexagon counting kernel: the fast path gives the rule cell of every point', () => {
+/** The kernel's choice of block function: grids of at least this many cells decide near-bisector points at once. */
+let inlineFrom = Infinity;
+
+describe.each([
+  ['near-bisector points listed', Infinity],
+  ['near-bisector points decided at once', 0],
+])('hexagon counting kernel (%s): the fast path gives the rule cell of every point', (_name, threshold) => {
+  beforeAll(() => {
+    inlineFrom = threshold;
+  });
+
   it('points on sides, corners, bisectors and table squares (and one float step off), rotated and offset', () => {
     fc.assert(
       fc.property(offset, offset, angle, cellSize, fractions, (u, v, t, s, f) => {
@@ -158,7 +170,7 @@ describe('hexagon counting kernel: the fast path gives the rule cell of every po
         }
         const grid = hex.coverage(region, origin, s, placement);
         const together = new Int32Array(grid.nx * grid.ny);
-        createHexCounter(Float64Array.from(xy), origin).count(grid, s, placement, together);
+        createHexCounter(Float64Array.from(xy), origin, inlineFrom).count(grid, s, placement, together);
         const frame = createHexFrame(origin, s, placement);
         const byRule = new Int32Array(grid.nx * grid.ny);
         for (let p = 0; p < xy.length; p += 2) {
@@ -177,7 +189,7 @@ describe('hexagon counting kernel: the fast path gives the rule cell of every po
     const xy = pointsFor(s, placement, [0.1, 0.25, 0.4, 0.5, 0.62, 0.75, 0.9, 0.97]);
     const grid = hex.coverage(region, origin, s, placement);
     const together = new Int32Array(grid.nx * grid.ny);
-    createHexCounter(Float64Array.from(xy), origin).count(grid, s, placement, together);
+    createHexCounter(Float64Array.from(xy), origin, inlineFrom).count(grid, s, placement, together);
     const alone = new Int32Array(grid.nx * grid.ny);
     const { cells } = kernelCells(xy, s, placement);
     for (const cell of cells) if (cell !== null) alone[(cell[1] - grid.j0) * grid.nx + (cell[0] - grid.i0)]!++;
