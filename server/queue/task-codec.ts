@@ -7,7 +7,11 @@
 import { isCellShape, type CellShape } from '../../workers/lattice/cell-shape.js';
 import type { StabilityRaster } from '../../workers/stability/stability-raster.js';
 
-export const TASK_FORMAT = 1;
+/**
+ * The task and result format; a worker refuses tasks of another. 2: the chunk result's stability part is sparse
+ * (workers/stability/stability-chunk.ts), where format 1 carried three values per valid pixel.
+ */
+export const TASK_FORMAT = 2;
 
 export interface QueueTaskData {
   format: number;

@@ -139,7 +139,13 @@ export class StabilityAccumulator {
   }
 }
 
-/** Adds sparse (q, count) pairs into per-pixel totals. */
+/** Adds sparse (q, count) pairs into per-pixel totals. @throws Error for a pixel position outside the raster's */
 function addPairs(pairs: Float64Array, into: Float64Array): void {
-  for (let t = 0; t < pairs.length; t += 2) into[pairs[t]!]! += pairs[t + 1]!;
+  for (let t = 0; t < pairs.length; t += 2) {
+    const q = pairs[t]!;
+    if (!(q >= 0 && q < into.length && Number.isInteger(q))) {
+      throw new Error(`a chunk result names valid pixel ${q} of ${into.length} (update gridshake on every machine)`);
+    }
+    into[q]! += pairs[t + 1]!;
+  }
 }

@@ -48,7 +48,11 @@ function fieldCount(field: TiffField): number {
 
 function writeValues(view: DataView, offset: number, field: TiffField): void {
   if (typeof field.values === 'string') {
-    for (let k = 0; k < field.values.length; k++) view.setUint8(offset + k, field.values.charCodeAt(k) & 0x7f);
+    // TIFF 6.0 type 2 is 7-bit ASCII: any other character is written as '?'
+    for (let k = 0; k < field.values.length; k++) {
+      const code = field.values.charCodeAt(k);
+      view.setUint8(offset + k, code < 0x80 && code !== 0 ? code : 0x3f);
+    }
     view.setUint8(offset + field.values.length, 0);
     return;
   }
@@ -65,6 +69,9 @@ function writeValues(view: DataView, offset: number, field: TiffField): void {
  * samples (ExtraSamples 0), photometric interpretation BlackIsZero.
  */
 export function encodeFloat32Tiff(width: number, height: number, samplesPerPixel: number, samples: Float32Array, extra: readonly TiffField[]): Uint8Array {
+  if (!(Number.isInteger(width) && width >= 1 && Number.isInteger(height) && height >= 1 && Number.isInteger(samplesPerPixel) && samplesPerPixel >= 1)) {
+    throw new RangeError(`a TIFF image needs whole positive sizes, got ${width} x ${height} x ${samplesPerPixel}`);
+  }
   if (samples.length !== width * height * samplesPerPixel) {
     throw new RangeError(`a ${width} x ${height} image of ${samplesPerPixel} samples needs ${width * height * samplesPerPixel} values, got ${samples.length}`);
   }
@@ -94,6 +101,9 @@ export function encodeFloat32Tiff(width: number, height: number, samplesPerPixel
     ...extra,
   ];
   fields.sort((a, b) => a.tag - b.tag);
+  fields.forEach((field, k) => {
+    if (k > 0 && fields[k - 1]!.tag === field.tag) throw new RangeError(`TIFF tag ${field.tag} is given twice`);
+  });
 
   // directory: count (2), 12 bytes per entry, next-directory offset (4); long values follow, each word-aligned
   const directoryOffset = 8 + dataBytes;

@@ -2,11 +2,12 @@
  * The stability chunk's fast square path (a multiplication by 1 / s, the division near cell edges) finds the same cell
  * for every pixel centre as the grid contract's formula (shared/design.md: i = floor((dx cos t + dy sin t) / s - u),
  * through workers/stability/pixel-cells.ts), including centres that lie exactly on cell edges, and the sparse chunk
- * encoding lists exactly the pixels outside every kept cell. Invented geometry.
+ * encoding lists exactly the pixels outside every kept cell; results of another layout are refused. Invented geometry.
  */
 import { describe, expect, it } from 'vitest';
 import { decodeStability, StabilityChunk } from '../../workers/stability/stability-chunk.js';
 import { pixelCellLocator, squarePixelFrame } from '../../workers/stability/pixel-cells.js';
+import { StabilityAccumulator } from '../../server/stability/stability-accumulator.js';
 import type { CoverageGrid, KeptCells, Placement } from '../../workers/types.js';
 
 const raster = { x0: 0, y0: 800, side: 12.5, width: 64, height: 64 };
@@ -75,5 +76,33 @@ describe('stability chunk: pixel cells and sparse encoding', () => {
     }
     // the multiplication alone would disagree with the division at some of these edges: the band decides them
     expect(differs).toBeGreaterThan(0);
+  });
+});
+
+describe('stability chunk: refusals', () => {
+  it('a chunk result of another layout (the dense one of earlier versions) is refused with a message, not misread', () => {
+    // the earlier layout: three values per valid pixel, then E and the pairs
+    const dense = new Float64Array(3 * 10 + 1).fill(1);
+    expect(() => decodeStability(dense, 0)).toThrow(/update gridshake on every machine/);
+    const truncated = encoded({ u: 0.1, v: 0.2, angle: 0 }, true).slice(0, -1);
+    expect(() => decodeStability(truncated, 0)).toThrow(/stability layout/);
+  });
+
+  it('a pixel position outside the raster is refused by the accumulator', () => {
+    const accumulator = new StabilityAccumulator(raster, pixels, 0);
+    const part = Float64Array.of(1, 1, 0, 0, 0, pixels.length + 3, 1);
+    expect(() => accumulator.addChunk(part, 0)).toThrow(/valid pixel 4099 of 4096/);
+  });
+
+  it('two chunks at once in one thread: the first one refuses to go on (they share the thread\'s counters)', () => {
+    const placement = { u: 0.1, v: 0.2, angle: 0 };
+    const first = new StabilityChunk(raster, pixels, 0.05);
+    const second = new StabilityChunk(raster, pixels, 0.05);
+    const locate = pixelCellLocator('square', origin, cellSize, placement, grid);
+    expect(() => first.beginPlacement(locate, grid, kept, null)).toThrow(/two stability chunks were used at once/);
+    second.beginPlacement(locate, grid, kept, null);
+    const out = new Float64Array(second.length);
+    second.encode(out, 0);
+    expect(decodeStability(out, 0).placements).toBe(1);
   });
 });

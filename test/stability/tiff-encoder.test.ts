@@ -60,7 +60,15 @@ describe('float32 TIFF writer', () => {
     expect([1, 2, 3].map((k) => view.getFloat32(8 + 4 * (k - 1), true))).toEqual([1, 2, 3]);
   });
 
-  it('refuses a sample array of the wrong length', () => {
+  it('refuses a sample array of the wrong length, an empty image and a tag given twice', () => {
     expect(() => encodeFloat32Tiff(2, 2, 2, new Float32Array(7), [])).toThrow(/needs 8 values, got 7/);
+    expect(() => encodeFloat32Tiff(0, 2, 1, new Float32Array(0), [])).toThrow(/whole positive sizes/);
+    expect(() => encodeFloat32Tiff(1, 1, 1, new Float32Array(1), [{ tag: 256, type: TIFF_ASCII, values: 'x' }])).toThrow(/tag 256 is given twice/);
+  });
+
+  it('writes other characters than 7-bit ASCII as "?" (TIFF 6.0 type 2)', async () => {
+    const bytes = encodeFloat32Tiff(1, 1, 1, new Float32Array(1), [{ tag: 34737, type: TIFF_ASCII, values: 'Müller|' }]);
+    const text = new TextDecoder('latin1').decode(bytes);
+    expect(text).toContain('M?ller|');
   });
 });

@@ -70,19 +70,25 @@ class PixelTally {
 
 interface ChunkBuffers {
   pixels: number;
+  /** the chunk using them: one at a time per thread */
+  owner: StabilityChunk | null;
   notKept: PixelTally;
   excess: PixelTally;
   deficit: PixelTally;
   pixelKept: Int32Array;
 }
 
-/** The thread's buffers, made again only when the number of valid pixels changes. */
+/**
+ * The thread's buffers, made again only when the number of valid pixels changes; they stay allocated between sweeps
+ * (7 x 4 bytes per valid pixel: about 117 MB for the largest raster of MAX_STABILITY_PIXELS).
+ */
 let buffers: ChunkBuffers | null = null;
 
 function buffersFor(pixels: number): ChunkBuffers {
   if (buffers === null || buffers.pixels !== pixels) {
     buffers = {
       pixels,
+      owner: null,
       notKept: new PixelTally(pixels),
       excess: new PixelTally(pixels),
       deficit: new PixelTally(pixels),
@@ -114,6 +120,7 @@ export class StabilityChunk {
     private readonly alpha: number,
   ) {
     this.buffers = buffersFor(pixels.length);
+    this.buffers.owner = this;
     this.buffers.notKept.clear();
     this.buffers.excess.clear();
     this.buffers.deficit.clear();
@@ -124,6 +131,7 @@ export class StabilityChunk {
    * Cost O(V) cell-of-point evaluations plus O(grid cells).
    */
   beginPlacement(cellOf: PixelCellLocator, grid: CoverageGrid, kept: KeptCells, square: SquarePixelFrame | null = null): void {
+    this.checkOwner();
     this.flushPlacement();
     this.placements += 1;
     const cells = grid.nx * grid.ny;
@@ -231,6 +239,11 @@ export class StabilityChunk {
     }
   }
 
+  /** The thread's buffers hold one chunk's counts: a second chunk made meanwhile would have cleared them. */
+  private checkOwner(): void {
+    if (this.buffers.owner !== this) throw new Error('two stability chunks were used at once in one thread: evaluate one chunk after another');
+  }
+
   /** Ends the current placement: one pass over the pixels turns the listed cells into pixels (nothing when none). */
   private flushPlacement(): void {
     if (this.entryCode.length === 0) return;
@@ -259,6 +272,7 @@ export class StabilityChunk {
 
   /** Writes the layout of the file comment into out at offset; clears the thread's counters for the next chunk. */
   encode(out: Float64Array, offset: number): void {
+    this.checkOwner();
     this.flushPlacement();
     const { notKept, excess, deficit } = this.buffers;
     out[offset] = this.placements;
@@ -283,9 +297,16 @@ export interface DecodedStability {
   simulated: Float64Array;
 }
 
-/** Reads the stability part of a chunk result at `offset`. */
+/**
+ * Reads the stability part of a chunk result at `offset`, which must end the result.
+ * @throws Error when the part does not have this layout (a worker of another version: the queue's task format)
+ */
 export function decodeStability(result: Float64Array, offset: number): DecodedStability {
   const [placements, k, x, d, e] = [0, 1, 2, 3, 4].map((t) => result[offset + t]!) as [number, number, number, number, number];
+  const whole = [placements, k, x, d, e].every((value) => Number.isInteger(value) && value >= 0);
+  if (!whole || offset + HEAD + 2 * (k + x + d + e) !== result.length) {
+    throw new Error('a chunk result does not have the stability layout of this version (update gridshake on every machine)');
+  }
   let at = offset + HEAD;
   const take = (pairs: number): Float64Array => result.subarray(at, (at += 2 * pairs));
   return { placements, notKept: take(k), excess: take(x), deficit: take(d), simulated: take(e) };

@@ -9,7 +9,7 @@
  * Every case runs with both block functions of the kernel: the list of near-bisector points decided after the block
  * (grids that fit in the second-level cache) and the decision at once (larger grids).
  */
-import { beforeAll, describe, it, expect } from 'vitest';
+import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { createHexCounter } from '../../../workers/lattice/hex/hex-counter.js';
 import { createHexFrame, hexCellOfPoint, hexCorners } from '../../../workers/lattice/hex/hex-frame.js';
@@ -66,7 +66,7 @@ function pointsFor(cellSize: number, placement: Placement, fractions: number[]):
 }
 
 /** Each point counted alone by the kernel: its cell (i, j), or null when the kernel put it in no cell of the grid. */
-function kernelCells(xy: number[], cellSize: number, placement: Placement): { cells: ([number, number] | null)[]; inGrid: (i: number, j: number) => boolean } {
+function kernelCells(xy: number[], cellSize: number, placement: Placement, inlineFrom: number): { cells: ([number, number] | null)[]; inGrid: (i: number, j: number) => boolean } {
   const grid = hex.coverage(region, origin, cellSize, placement);
   const out = new Int32Array(grid.nx * grid.ny);
   const cells: ([number, number] | null)[] = [];
@@ -80,9 +80,9 @@ function kernelCells(xy: number[], cellSize: number, placement: Placement): { ce
   return { cells, inGrid };
 }
 
-function expectSameAsRule(xy: number[], cellSize: number, placement: Placement): void {
+function expectSameAsRule(xy: number[], cellSize: number, placement: Placement, inlineFrom: number): void {
   const frame = createHexFrame(origin, cellSize, placement);
-  const { cells, inGrid } = kernelCells(xy, cellSize, placement);
+  const { cells, inGrid } = kernelCells(xy, cellSize, placement, inlineFrom);
   for (let p = 0; p < xy.length; p += 2) {
     const rule = hexCellOfPoint(frame, xy[p]!, xy[p + 1]!);
     const expected = inGrid(rule[0], rule[1]) ? rule : null;
@@ -95,22 +95,17 @@ const angle = fc.oneof(fc.constantFrom(0, 30, 45), fc.double({ min: 0, max: 59.9
 const cellSize = fc.oneof(fc.constantFrom(100, 64, 0.1 * 3 * 100), fc.double({ min: 60, max: 140, noNaN: true }));
 const fractions = fc.array(fc.double({ min: 0, max: 0.999, noNaN: true }), { minLength: 8, maxLength: 8 });
 
-/** The kernel's choice of block function: grids of at least this many cells decide near-bisector points at once. */
-let inlineFrom = Infinity;
-
 describe.each([
   ['near-bisector points listed', Infinity],
   ['near-bisector points decided at once', 0],
 ])('hexagon counting kernel (%s): the fast path gives the rule cell of every point', (_name, threshold) => {
-  beforeAll(() => {
-    inlineFrom = threshold;
-  });
+  // threshold: grids of at least this many cells decide near-bisector points at once (createHexCounter's choice)
 
   it('points on sides, corners, bisectors and table squares (and one float step off), rotated and offset', () => {
     fc.assert(
       fc.property(offset, offset, angle, cellSize, fractions, (u, v, t, s, f) => {
         const placement = { u, v, angle: t };
-        expectSameAsRule(pointsFor(s, placement, f), s, placement);
+        expectSameAsRule(pointsFor(s, placement, f), s, placement, threshold);
       }),
       { numRuns: 30, seed: 1601 },
     );
@@ -128,7 +123,7 @@ describe.each([
           state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
           xy.push((state / 2 ** 32) * 1300 - 100);
         }
-        expectSameAsRule(xy, s, placement);
+        expectSameAsRule(xy, s, placement, threshold);
       }),
       { numRuns: 20, seed: 1602 },
     );
@@ -143,7 +138,7 @@ describe.each([
       const x = (k / 2) * Math.sqrt(3) * side;
       xy.push(x, 0, x, 1.5 * side * 2, nextUp(x), 0, nextDown(x), 0);
     }
-    expectSameAsRule(xy, s, placement);
+    expectSameAsRule(xy, s, placement, threshold);
   });
 
   it('many points near the bisectors at once (listed, decided after the block or deferred) count as the rule says', () => {
@@ -170,7 +165,7 @@ describe.each([
         }
         const grid = hex.coverage(region, origin, s, placement);
         const together = new Int32Array(grid.nx * grid.ny);
-        createHexCounter(Float64Array.from(xy), origin, inlineFrom).count(grid, s, placement, together);
+        createHexCounter(Float64Array.from(xy), origin, threshold).count(grid, s, placement, together);
         const frame = createHexFrame(origin, s, placement);
         const byRule = new Int32Array(grid.nx * grid.ny);
         for (let p = 0; p < xy.length; p += 2) {
@@ -189,9 +184,9 @@ describe.each([
     const xy = pointsFor(s, placement, [0.1, 0.25, 0.4, 0.5, 0.62, 0.75, 0.9, 0.97]);
     const grid = hex.coverage(region, origin, s, placement);
     const together = new Int32Array(grid.nx * grid.ny);
-    createHexCounter(Float64Array.from(xy), origin, inlineFrom).count(grid, s, placement, together);
+    createHexCounter(Float64Array.from(xy), origin, threshold).count(grid, s, placement, together);
     const alone = new Int32Array(grid.nx * grid.ny);
-    const { cells } = kernelCells(xy, s, placement);
+    const { cells } = kernelCells(xy, s, placement, threshold);
     for (const cell of cells) if (cell !== null) alone[(cell[1] - grid.j0) * grid.nx + (cell[0] - grid.i0)]!++;
     expect(Array.from(together)).toEqual(Array.from(alone));
   });
