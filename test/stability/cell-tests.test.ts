@@ -5,6 +5,7 @@
  * and the critical counts against the tails themselves.
  */
 import { describe, expect, it } from 'vitest';
+import { seededRandom } from '../fixtures/seeded-random.js';
 import { poissonLowerTail, poissonUpperTail } from '../../workers/stats/poisson-tails.js';
 import { benjaminiHochberg } from '../../workers/stability/benjamini-hochberg.js';
 import { createCellFlagScratch, criticalLower, criticalUpper, flagCells } from '../../workers/stability/cell-flags.js';
@@ -96,17 +97,6 @@ describe('critical counts and cell flags', () => {
 });
 
 describe('cell flags against the step-up over every cell', () => {
-  /** mulberry32 (T. Ettinger, public domain), a small seeded generator for the test data */
-  function generator(seed: number): () => number {
-    let a = seed >>> 0;
-    return () => {
-      a = (a + 0x6d2b79f5) >>> 0;
-      let t = a;
-      t = Math.imul(t ^ (t >>> 15), t | 1);
-      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-  }
   /** Poisson draws by multiplying uniforms (D. E. Knuth, The Art of Computer Programming 2, 3.4.1, from memory) */
   function poisson(mean: number, random: () => number): number {
     const limit = Math.exp(-mean);
@@ -128,7 +118,7 @@ describe('cell flags against the step-up over every cell', () => {
   }
 
   it('the same flagged cells as the definition on 400 null and clustered patterns with partial cells or weights', () => {
-    const random = generator(20261203);
+    const random = seededRandom(20261203);
     const scratch = createCellFlagScratch();
     let flaggedCases = 0;
     for (let trial = 0; trial < 400; trial++) {

@@ -11,6 +11,7 @@ import { areasGeoJson } from '../../server/stability/areas-geojson.js';
 import { pixelPolygons } from '../../server/stability/pixel-polygons.js';
 import type { StabilitySurface } from '../../server/stability/stability-accumulator.js';
 import { stabilitySummary } from '../../server/stability/stability-summary.js';
+import { calibratedSurface, shoelace } from './surface-stubs.js';
 
 // a 7 x 6 mask: a ring of pixels around a one-pixel hole, a pixel touching the ring only at a corner,
 // and a separate L-shaped area
@@ -18,30 +19,8 @@ const MASK_ROWS = ['1110000', '1010000', '1110000', '0001011', '0000001', '00000
 const raster = { x0: 500, y0: 900, side: 10, width: 7, height: 6 };
 const mask = Uint8Array.from(MASK_ROWS.join('').split('').map(Number));
 
-function shoelace(ring: [number, number][]): number {
-  let sum = 0;
-  for (let k = 0; k + 1 < ring.length; k++) sum += ring[k]![0] * ring[k + 1]![1] - ring[k + 1]![0] * ring[k]![1];
-  return sum / 2;
-}
-
 function surfaceWith(excess: Uint8Array): StabilitySurface {
-  const size = raster.width * raster.height;
-  const share = new Float32Array(size).fill(0.1);
-  excess.forEach((value, p) => {
-    if (value === 1) share[p] = 0.5 + p / 1000;
-  });
-  return {
-    shape: 'square',
-    cellSize: 80,
-    placements: 16,
-    raster,
-    excessShare: share,
-    deficitShare: new Float32Array(size),
-    assessed: new Uint8Array(size).fill(1),
-    calibration: { sims: 39, level: 0.025, excessMaxima: new Float64Array(39), deficitMaxima: new Float64Array(39), excessThreshold: 0.3, deficitThreshold: 0.3 },
-    stableExcess: excess,
-    stableDeficit: new Uint8Array(size),
-  };
+  return calibratedSurface(raster, excess, (p) => 0.5 + p / 1000);
 }
 
 describe('pixel polygons', () => {

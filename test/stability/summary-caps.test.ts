@@ -12,37 +12,16 @@ import { stabilityFiles } from '../../server/stability/stability-files.js';
 import { MAX_SUMMARY_AREAS, MAX_SUMMARY_VERTICES, stabilitySummary } from '../../server/stability/stability-summary.js';
 import { storeStabilityFiles } from '../../server/stability/stored-stability.js';
 import type { GridshakeStore } from '../../server/store/store.js';
+import { calibratedSurface, shoelace } from './surface-stubs.js';
 
 type Ring = [number, number][];
 interface AreasFile {
   features: { properties: { kind: string; maxShare: number; areaKm2: number }; geometry: { coordinates: Ring[] } }[];
 }
 
-function shoelace(ring: Ring): number {
-  let sum = 0;
-  for (let k = 0; k + 1 < ring.length; k++) sum += ring[k]![0] * ring[k + 1]![1] - ring[k + 1]![0] * ring[k]![1];
-  return sum / 2;
-}
-
 /** A calibrated surface whose stable excess pixels are `mask`; the share grows with the pixel index. */
 function surfaceWith(width: number, height: number, mask: Uint8Array): StabilitySurface {
-  const size = width * height;
-  const share = new Float32Array(size).fill(0.1);
-  mask.forEach((value, p) => {
-    if (value === 1) share[p] = 0.5 + (0.4 * p) / size;
-  });
-  return {
-    shape: 'square',
-    cellSize: 80,
-    placements: 16,
-    raster: { x0: 1000, y0: 9000, side: 10, width, height },
-    excessShare: share,
-    deficitShare: new Float32Array(size),
-    assessed: new Uint8Array(size).fill(1),
-    calibration: { sims: 39, level: 0.025, excessMaxima: new Float64Array(39), deficitMaxima: new Float64Array(39), excessThreshold: 0.3, deficitThreshold: 0.3 },
-    stableExcess: mask,
-    stableDeficit: new Uint8Array(size),
-  };
+  return calibratedSurface({ x0: 1000, y0: 9000, side: 10, width, height }, mask, (p) => 0.5 + (0.4 * p) / (width * height));
 }
 
 /** Every other pixel of every other row: isolated one-pixel areas (5 ring vertices each). */

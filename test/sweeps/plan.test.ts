@@ -4,6 +4,16 @@ import { GridshakeError } from '../../server/errors.js';
 import { normalizePlan, resolveCellSizes } from '../../server/sweeps/plan.js';
 import { assertWithinBudget, chunkPlacements, estimateSweep, surfacePixels, workBudgetFromEnv, DEFAULT_WORK_BUDGET } from '../../server/sweeps/sweep-budget.js';
 
+/** The error `action` throws (undefined when it throws none). */
+function thrownBy(action: () => unknown): GridshakeError | undefined {
+  try {
+    action();
+  } catch (caught) {
+    return caught as GridshakeError;
+  }
+  return undefined;
+}
+
 function parameterFailure(input: unknown): GridshakeError {
   try {
     normalizePlan(input);
@@ -73,19 +83,12 @@ describe('resolveCellSizes', () => {
   });
 
   it('refuses a cell size that leaves fewer than 2 cells in the valid region', () => {
-    const error = (() => {
-      try {
-        resolveCellSizes(normalizePlan({ cells: [100, 800] }), 1e6, 400);
-      } catch (caught) {
-        return caught as GridshakeError;
-      }
-      throw new Error('accepted');
-    })();
-    expect(error.code).toBe('GS_ERR_PARAMETER');
-    expect(error.message).toBe(
+    const error = thrownBy(() => resolveCellSizes(normalizePlan({ cells: [100, 800] }), 1e6, 400));
+    expect(error?.code).toBe('GS_ERR_PARAMETER');
+    expect(error?.message).toBe(
       'cell side 2 gives cells of 800 m, which leave fewer than 2 cells in the valid region of 1000000 m²; use cells of at most 707.107 m',
     );
-    expect(error.cliMessage).toMatch(/^--cells value 2 gives cells of 800 m/);
+    expect(error?.cliMessage).toMatch(/^--cells value 2 gives cells of 800 m/);
     expect(() => resolveCellSizes(normalizePlan({ perCell: [300] }), 1e6, 400)).toThrow(/the cell side for expected points per cell value 1 gives cells of/);
   });
 });
@@ -106,12 +109,7 @@ describe('estimateSweep and assertWithinBudget', () => {
   it('says by how much the plan is over and how to shrink it', () => {
     const estimate = estimateSweep(normalizePlan({ cells: [10, 20], placements: 1000, sims: 99 }), 1e5, 1e9);
     expect(estimate.work).toBe(2e10);
-    let error: GridshakeError | undefined;
-    try {
-      assertWithinBudget(estimate);
-    } catch (caught) {
-      error = caught as GridshakeError;
-    }
+    const error = thrownBy(() => assertWithinBudget(estimate));
     expect(error?.code).toBe('GS_ERR_BUDGET');
     expect(error?.message).toBe(
       'the plan needs 2.00e+10 point-placements (points x placements x sizes x (1 + sims)), 20.0 times the budget of ' +
@@ -141,12 +139,7 @@ describe('estimateSweep and assertWithinBudget', () => {
     const bbox = { minX: 0, minY: 0, maxX: 20000, maxY: 20000 };
     const estimate = estimateSweep(plan, 1000, 1e9, { surface: { bbox, cellSizes: [25, 50] } });
     expect(estimateSweep(plan, 1000, 1e9).work).toBeLessThan(1e9);
-    let error: GridshakeError | undefined;
-    try {
-      assertWithinBudget(estimate);
-    } catch (caught) {
-      error = caught as GridshakeError;
-    }
+    const error = thrownBy(() => assertWithinBudget(estimate));
     expect(error?.code).toBe('GS_ERR_BUDGET');
     expect(error?.statusCode).toBe(400);
     const pixels = 2 * 2048 * 2048;
