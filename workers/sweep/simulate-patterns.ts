@@ -20,6 +20,7 @@ export function simulatePatterns(sampler: CsrSampler | PatternSampler, pointCoun
   const length = pointCount * 2;
   for (let r = first; r < first + count; r++) {
     const xy = sampler.sample(pointCount, createRandom(deriveSeed(seed, r)));
-    out.set(pointCount >= MORTON_FROM_POINTS ? mortonSort(xy) : xy, r * length);
+    if (pointCount >= MORTON_FROM_POINTS) mortonSort(xy, out.subarray(r * length, (r + 1) * length));
+    else out.set(xy, r * length);
   }
 }

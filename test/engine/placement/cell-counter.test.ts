@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { placementCoverage } from '../../../workers/geometry/coverage.js';
 import { cellOfPoint, createGridFrame } from '../../../workers/geometry/grid-frame.js';
 import { createCellCounter } from '../../../workers/placement/cell-counter.js';
-import { mortonCodes, mortonSort } from '../../../workers/placement/morton-sort.js';
+import { isMortonSorted, mortonCodes, mortonSort } from '../../../workers/placement/morton-sort.js';
 import type { CoverageGrid, Origin, Placement } from '../../../workers/types.js';
 import { regionFromRings } from '../geometry/region-fixtures.js';
 
@@ -130,6 +130,36 @@ describe('mortonSort', () => {
     expect(mortonSort(xy, into)).toBe(into);
     expect(Array.from(into)).toEqual(Array.from(mortonSort(xy)));
     expect(() => mortonSort(xy, new Float64Array(4))).toThrow('mortonSort output holds 4 numbers, the points 10');
+  });
+
+  it('is stable: points with equal codes keep their input order (as a stable sort of the codes, ECMA-262 Array.prototype.sort)', () => {
+    // 3000 points on a 7 x 5 lattice of positions, so that many share a code; the y carries the input index in its
+    // fraction below the quantization step, so the order among equal codes shows
+    const n = 3000;
+    const xy = new Float64Array(2 * n);
+    for (let p = 0; p < n; p++) {
+      xy[2 * p] = ((p * 37) % 7) * 100;
+      xy[2 * p + 1] = ((p * 11) % 5) * 100 + p * 1e-6;
+    }
+    xy[1] = 0;
+    xy[2 * (n - 1) + 1] = 400 + 1e-3; // the box's corners fix the quantization
+    const codes = mortonCodes(xy);
+    const order = Array.from({ length: n }, (_, p) => p).sort((a, b) => codes[a]! - codes[b]!);
+    const expected = order.flatMap((p) => [xy[2 * p]!, xy[2 * p + 1]!]);
+    expect(Array.from(mortonSort(xy))).toEqual(expected);
+  });
+
+  it('isMortonSorted: true for a sorted copy and for 0 or 1 point, false once two points are swapped', () => {
+    const xy = Float64Array.from({ length: 200 }, (_, k) => ((k * 0.6180339887) % 1) * 1000);
+    const sorted = mortonSort(xy);
+    expect(isMortonSorted(sorted)).toBe(true);
+    expect(isMortonSorted(new Float64Array(0))).toBe(true);
+    expect(isMortonSorted(Float64Array.from([3, 4]))).toBe(true);
+    const codes = mortonCodes(sorted);
+    const p = codes.findIndex((code, k) => k > 0 && code > codes[k - 1]!);
+    const swapped = sorted.slice();
+    swapped.set([sorted[2 * p]!, sorted[2 * p + 1]!, sorted[2 * p - 2]!, sorted[2 * p - 1]!], 2 * p - 2);
+    expect(isMortonSorted(swapped)).toBe(false);
   });
 
   it('interleaves bits: x in even, y in odd positions (hand-worked corners of the box)', () => {

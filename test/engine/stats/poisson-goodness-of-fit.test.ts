@@ -35,6 +35,26 @@ describe('poissonFrequencyTable with unequal coverages', () => {
   });
 });
 
+describe('poissonFrequencyTable observed classes', () => {
+  // the observed class of a cell is min(count, K): numpy.bincount(numpy.minimum(counts, K), minlength=K + 1)
+  const bincount = (counts: number[], top: number): number[] => {
+    const out = new Array<number>(top + 1).fill(0);
+    for (const count of counts) out[Math.min(count, top)]! += 1;
+    return out;
+  };
+  it('tallies 10,003 cells (four lanes and the remainder) like numpy.bincount, with few or with over a thousand classes', () => {
+    const counts = Array.from({ length: 10003 }, (_, c) => (c * 7919) % 23);
+    const coverage = counts.map((_, c) => (c % 101 === 0 ? 0.5 : 1));
+    for (const top of [5, 23, 2000]) {
+      const table = poissonFrequencyTable(counts, coverage, top);
+      expect(table.map((entry) => entry.observed)).toEqual(bincount(counts, top));
+    }
+    // one cell with a count above a thousand: the open class starts past it (no lanes)
+    const spiked = [...counts.slice(0, 9), 1500];
+    expect(poissonFrequencyTable(spiked, spiked.map(() => 1), 1501).map((entry) => entry.observed)).toEqual(bincount(spiked, 1501));
+  });
+});
+
 describe('mergeSmallClasses: adjacent pooling until every expected count is >= 5', () => {
   // 30 whole cells with mean 245/30 = 8.1667: small classes at both ends and in the middle.
   // scipy: e = [30*poisson.pmf(k, lam) for k in range(14)] + [30*poisson.sf(13, lam)], pooled from the top:
