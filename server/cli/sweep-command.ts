@@ -4,13 +4,10 @@
  * progress bar on stderr and prints the per-size conclusions on stdout.
  */
 import type { Plan, SweepProgress } from '../../shared/contracts.js';
-import { renderReport } from '../report/render-report.js';
-import { reportMap } from '../report/report-map.js';
 import { normalizePlan, planShapes, resolveCellSizes } from '../sweeps/plan.js';
 import { DEFAULT_PLAN, PLACEMENT_DESIGNS, PLAN_LIMITS, PLAN_RANGE_WORDS } from '../../shared/plan-rules.js';
-import { stabilityFileNames, stabilityFiles } from '../stability/stability-files.js';
+import { stabilityFileNames } from '../stability/stability-files.js';
 import { stabilityLines } from '../stability/stability-notes.js';
-import { placementsToCsv } from '../sweeps/placements-csv.js';
 import { isAbortError } from '../sweeps/sweep-errors.js';
 import { SweepPool } from '../sweeps/sweep-pool.js';
 import {
@@ -30,6 +27,7 @@ import { DATASET_OPTIONS, INPUT_LIMIT_OPTIONS, loadDatasetFromFlags } from './da
 import { checkOutputFolder, SWEEP_OUTPUTS, writeOutputs } from './output-folder.js';
 import { LEVEL_OPTIONS } from './level-options.js';
 import { progressLine } from './sweep-progress.js';
+import { sweepOutputFiles } from './sweep-outputs.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
 
 /** "'halton' (default) or 'lattice'": the designs of shared/plan-rules.ts. */
@@ -115,16 +113,11 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   process.once('SIGINT', onInterrupt);
   const progress = progressWriter(io);
   try {
-    const { rows, summary, stability } = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update, stability: true });
+    const result = await pool.runSweep(dataset, plan, { signal: controller.signal, onProgress: progress.update, stability: true });
+    const { summary, stability } = result;
     progress.end();
     createOutDir();
-    const [csvName, summaryName, reportName] = SWEEP_OUTPUTS;
-    writeOutputs(outDir, [
-      [csvName, placementsToCsv(rows, { summary })],
-      [summaryName, `${JSON.stringify(summary, null, 2)}\n`],
-      [reportName, renderReport(summary, rows, reportMap(dataset, summary))],
-      ...stabilityFiles(stability, summary.stability ?? [], dataset.projection, dataset.name),
-    ]);
+    writeOutputs(outDir, sweepOutputFiles(dataset, result));
     // warnings first: a warning that makes a p-value meaningless is read before the p-value; the dataset's
     // warnings (first in the list) in the command line's words
     summary.warnings.forEach((warning, k) => io.stderr(`warning: ${dataset.warnings[k]?.cliMessage ?? warning}\n`));

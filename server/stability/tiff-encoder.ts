@@ -1,14 +1,21 @@
 /**
- * A small baseline TIFF writer (TIFF 6.0, Adobe 1992: header, one image file directory, uncompressed strips), little
- * endian, for one float32 image of several interleaved samples per pixel. The stability GeoTIFF writes its
- * georeferencing (OGC GeoTIFF 1.1 tags) through it. Written here because the registry library's writer builds the
- * file from JavaScript arrays of numbers: it took about 18 s of a 46 s sweep for three rasters of 0.6 to 3.2 million
- * pixels (CPU profile of `gridshake sweep`, 1e5 points), where copying the samples takes milliseconds.
+ * A small baseline TIFF writer (TIFF 6.0, Adobe 1992: header, one image file directory, strips), little endian, for
+ * one float32 image of several interleaved samples per pixel. The stability GeoTIFF writes its georeferencing (OGC
+ * GeoTIFF 1.1 tags) through it. Written here because the registry library's writer builds the file from JavaScript
+ * arrays of numbers: it took about 18 s of a 46 s sweep for three rasters of 0.6 to 3.2 million pixels (CPU profile
+ * of `gridshake sweep`, 1e5 points), where copying the samples takes milliseconds.
  *
- * Layout: the 8-byte header, the image data (strips one after another, from offset 8, so 4-byte aligned), then the
- * directory (entries in increasing tag order, as TIFF 6.0 section 2 requires) and the values too long for an entry.
- * Cost O(pixels x samples + tags).
+ * Strips are DEFLATE-compressed by default (Compression 8, "Adobe Deflate": each strip one zlib stream, RFC 1950,
+ * TIFF Technical Note / Supplement 2; what GDAL writes with COMPRESS=DEFLATE), zlib level 1: the surfaces are mostly
+ * repeated values, so a 34 MB raster of 3.2 million pixels became 0.56 MB in 34 ms (level 6: 0.33 MB in 152 ms),
+ * and a server sweep no longer spends a quarter of a second storing it (measured: 20 MB blobs took 210-280 ms to
+ * write into SQLite). `compression: 'none'` writes the samples as they are (Compression 1).
+ *
+ * Layout: the 8-byte header, the image data (strips one after another, from offset 8), then the directory (at an
+ * even offset; entries in increasing tag order, as TIFF 6.0 section 2 requires) and the values too long for an
+ * entry. Cost O(pixels x samples + tags), plus zlib's.
  */
+import { deflateSync } from 'node:zlib';
 
 /** TIFF 6.0 field types used here. */
 export const TIFF_ASCII = 2;
@@ -68,7 +75,15 @@ function writeValues(view: DataView, offset: number, field: TiffField): void {
  * with the image's own tags and `extra` (GeoTIFF and other tags). Samples after the first are unspecified extra
  * samples (ExtraSamples 0), photometric interpretation BlackIsZero.
  */
-export function encodeFloat32Tiff(width: number, height: number, samplesPerPixel: number, samples: Float32Array, extra: readonly TiffField[]): Uint8Array {
+export function encodeFloat32Tiff(
+  width: number,
+  height: number,
+  samplesPerPixel: number,
+  samples: Float32Array,
+  extra: readonly TiffField[],
+  options: { compression?: 'deflate' | 'none' } = {},
+): Uint8Array {
+  const deflate = (options.compression ?? 'deflate') === 'deflate';
   if (!(Number.isInteger(width) && width >= 1 && Number.isInteger(height) && height >= 1 && Number.isInteger(samplesPerPixel) && samplesPerPixel >= 1)) {
     throw new RangeError(`a TIFF image needs whole positive sizes, got ${width} x ${height} x ${samplesPerPixel}`);
   }
@@ -78,18 +93,28 @@ export function encodeFloat32Tiff(width: number, height: number, samplesPerPixel
   const rowBytes = width * samplesPerPixel * 4;
   const rowsPerStrip = Math.max(1, Math.min(height, Math.floor(STRIP_BYTES / Math.max(1, rowBytes))));
   const strips = Math.ceil(height / rowsPerStrip);
-  const dataBytes = samples.length * 4;
+  // the samples as little-endian float32 bytes, then each strip as it is stored
+  const raw = new Uint8Array(samples.length * 4);
+  const rawView = new DataView(raw.buffer);
+  for (let k = 0; k < samples.length; k++) rawView.setFloat32(4 * k, samples[k]!, true);
+  const stored: Uint8Array[] = [];
+  for (let s = 0; s < strips; s++) {
+    const strip = raw.subarray(s * rowsPerStrip * rowBytes, Math.min(height, (s + 1) * rowsPerStrip) * rowBytes);
+    stored.push(deflate ? deflateSync(strip, { level: 1 }) : strip);
+  }
   const stripOffsets: number[] = [];
   const stripBytes: number[] = [];
-  for (let s = 0; s < strips; s++) {
-    stripOffsets.push(8 + s * rowsPerStrip * rowBytes);
-    stripBytes.push(Math.min(rowsPerStrip, height - s * rowsPerStrip) * rowBytes);
+  let dataEnd = 8;
+  for (const strip of stored) {
+    stripOffsets.push(dataEnd);
+    stripBytes.push(strip.length);
+    dataEnd += strip.length;
   }
   const fields: TiffField[] = [
     { tag: IMAGE_WIDTH, type: TIFF_LONG, values: [width] },
     { tag: IMAGE_LENGTH, type: TIFF_LONG, values: [height] },
     { tag: BITS_PER_SAMPLE, type: TIFF_SHORT, values: new Array<number>(samplesPerPixel).fill(32) },
-    { tag: COMPRESSION, type: TIFF_SHORT, values: [1] },
+    { tag: COMPRESSION, type: TIFF_SHORT, values: [deflate ? 8 : 1] },
     { tag: PHOTOMETRIC, type: TIFF_SHORT, values: [1] },
     { tag: STRIP_OFFSETS, type: TIFF_LONG, values: stripOffsets },
     { tag: SAMPLES_PER_PIXEL, type: TIFF_SHORT, values: [samplesPerPixel] },
@@ -106,7 +131,7 @@ export function encodeFloat32Tiff(width: number, height: number, samplesPerPixel
   });
 
   // directory: count (2), 12 bytes per entry, next-directory offset (4); long values follow, each word-aligned
-  const directoryOffset = 8 + dataBytes;
+  const directoryOffset = dataEnd + (dataEnd % 2);
   let valueOffset = directoryOffset + 2 + 12 * fields.length + 4;
   const placed = fields.map((field) => {
     const bytes = fieldCount(field) * TYPE_SIZE[field.type]!;
@@ -120,7 +145,7 @@ export function encodeFloat32Tiff(width: number, height: number, samplesPerPixel
   view.setUint16(0, 0x4949, true); // "II": little endian
   view.setUint16(2, 42, true);
   view.setUint32(4, directoryOffset, true);
-  for (let k = 0; k < samples.length; k++) view.setFloat32(8 + 4 * k, samples[k]!, true);
+  stored.forEach((strip, k) => out.set(strip, stripOffsets[k]!));
   view.setUint16(directoryOffset, fields.length, true);
   placed.forEach(({ field, offset }, k) => {
     const entry = directoryOffset + 2 + 12 * k;

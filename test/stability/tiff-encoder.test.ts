@@ -1,8 +1,10 @@
 /**
  * The TIFF writer (server/stability/tiff-encoder.ts) checked against readers written apart from the project: the
  * registry library geotiff (fromArrayBuffer) and the byte layout of TIFF 6.0 (Adobe 1992, section 2: "II", 42, the
- * first directory's offset; entries sorted by tag; values of more than 4 bytes at word-aligned offsets).
+ * first directory's offset; entries sorted by tag; values of more than 4 bytes at word-aligned offsets), and its
+ * DEFLATE strips (Compression 8, TIFF Supplement 2: each strip one zlib stream, RFC 1950) inflated by node:zlib.
  */
+import { inflateSync } from 'node:zlib';
 import { fromArrayBuffer } from 'geotiff';
 import { describe, expect, it } from 'vitest';
 import { encodeFloat32Tiff, TIFF_ASCII, TIFF_DOUBLE } from '../../server/stability/tiff-encoder.js';
@@ -36,10 +38,17 @@ describe('float32 TIFF writer', () => {
   });
 
   it('header, sorted directory entries and word-aligned long values (TIFF 6.0 section 2)', () => {
-    const bytes = encodeFloat32Tiff(3, 1, 1, new Float32Array([1, 2, 3]), [
-      { tag: 33922, type: TIFF_DOUBLE, values: [0, 0, 0, 10, 20, 0] },
-      { tag: 33550, type: TIFF_DOUBLE, values: [1, 1, 0] },
-    ]);
+    const bytes = encodeFloat32Tiff(
+      3,
+      1,
+      1,
+      new Float32Array([1, 2, 3]),
+      [
+        { tag: 33922, type: TIFF_DOUBLE, values: [0, 0, 0, 10, 20, 0] },
+        { tag: 33550, type: TIFF_DOUBLE, values: [1, 1, 0] },
+      ],
+      { compression: 'none' },
+    );
     const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
     expect([view.getUint8(0), view.getUint8(1), view.getUint16(2, true)]).toEqual([0x49, 0x49, 42]);
     const directory = view.getUint32(4, true);
@@ -58,6 +67,35 @@ describe('float32 TIFF writer', () => {
     expect(tags).toContain(33550);
     expect(view.getUint32(directory + 2 + 12 * entries, true)).toBe(0); // no further directory
     expect([1, 2, 3].map((k) => view.getFloat32(8 + 4 * (k - 1), true))).toEqual([1, 2, 3]);
+  });
+
+  it('DEFLATE strips (the default): Compression 8, each strip a zlib stream of its rows as little-endian float32, and much smaller for a mostly constant surface', async () => {
+    const width = 400;
+    const height = 500;
+    const samples = new Float32Array(width * height * 2);
+    for (let k = 0; k < samples.length; k += 2) samples[k] = k % 1000 < 40 ? 0.25 : 0;
+    const bytes = encodeFloat32Tiff(width, height, 2, samples, []);
+    expect(bytes.length).toBeLessThan((samples.length * 4) / 20);
+    const image = await (await fromArrayBuffer(readable(bytes))).getImage();
+    const directory = image.fileDirectory as unknown as { loadValue(tag: string): Promise<ArrayLike<number> | number> };
+    const values = async (tag: string): Promise<number[]> => {
+      const value = await directory.loadValue(tag);
+      return typeof value === 'number' ? [value] : Array.from(value);
+    };
+    expect(await values('Compression')).toEqual([8]);
+    const offsets = await values('StripOffsets');
+    const counts = await values('StripByteCounts');
+    const rowsPerStrip = (await values('RowsPerStrip'))[0]!;
+    expect(offsets.length).toBeGreaterThan(1);
+    offsets.forEach((offset, s) => {
+      const strip = inflateSync(bytes.subarray(offset, offset + counts[s]!));
+      const view = new DataView(strip.buffer, strip.byteOffset, strip.byteLength);
+      const first = s * rowsPerStrip * width * 2;
+      expect(strip.length).toBe(Math.min(rowsPerStrip, height - s * rowsPerStrip) * width * 2 * 4);
+      for (let k = 0; k < strip.length / 4; k++) if (view.getFloat32(4 * k, true) !== samples[first + k]) expect(view.getFloat32(4 * k, true)).toBe(samples[first + k]);
+    });
+    const bands = (await image.readRasters()) as unknown as Float32Array[];
+    for (let p = 0; p < width * height; p++) if (bands[0]![p] !== samples[2 * p] || bands[1]![p] !== 0) expect([bands[0]![p], bands[1]![p]]).toEqual([samples[2 * p], 0]);
   });
 
   it('refuses a sample array of the wrong length, an empty image and a tag given twice', () => {

@@ -34,6 +34,15 @@ export function pointInRegion(region: Region, x: number, y: number): boolean {
 /** A point-in-region tester with a horizontal band index, built once per region. */
 export interface RegionLocator {
   contains(x: number, y: number): boolean;
+  /**
+   * The crossings of the horizontal line at y: for every edge that contains(x, y) would test (exactly one endpoint
+   * above y), its x at y by the same expression, written to out[0 ..] unsorted (out must hold them: at most the edge
+   * count); returns how many. contains(x, y) is then "x in the bounding box and an odd number of crossings > x".
+   * NaN-free for y within the bounding box; 0 outside it.
+   */
+  crossings(y: number, out: Float64Array): number;
+  /** edges of all rings (the most crossings a line can have) */
+  readonly edgeCount: number;
 }
 
 /**
@@ -97,6 +106,21 @@ export function createRegionLocator(region: Region): RegionLocator {
       }
       return inside;
     },
+    crossings(y: number, out: Float64Array): number {
+      if (!(y >= minY && y <= maxY)) return 0;
+      const band = bandOf(y);
+      let count = 0;
+      for (let m = bandStart[band]!, end = bandStart[band + 1]!; m < end; m++) {
+        const base = 4 * bandEdges[m]!;
+        const xa = edges[base]!;
+        const ya = edges[base + 1]!;
+        const xb = edges[base + 2]!;
+        const yb = edges[base + 3]!;
+        if (ya > y !== yb > y) out[count++] = xa + ((y - ya) * (xb - xa)) / (yb - ya);
+      }
+      return count;
+    },
+    edgeCount,
   };
 }
 

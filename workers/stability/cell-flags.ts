@@ -60,23 +60,55 @@ function stepUp(scratch: CellFlagScratch, n: number, m: number, alpha: number, o
 }
 
 /**
- * Flags the kept cells (counts and coverages in kept order, m = counts.length). Returns the numbers of excess and
- * deficit cells, listed (kept indices, increasing) in scratch.excess and scratch.deficit.
+ * What flagCells needs of the coverages (or weights), the same for every pattern tested on them: their sum in kept
+ * order, and the smallest and largest (1 when none is below, or above, 1).
  */
-export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: number, scratch: CellFlagScratch): { excess: number; deficit: number } {
-  const m = counts.length;
-  ensure(scratch, m);
-  let total = 0;
+export interface WeightSummary {
+  area: number;
+  leastPartial: number;
+  greatestPartial: number;
+}
+
+/** The WeightSummary of coverages or weights in kept order. Cost O(m). */
+export function summarizeWeights(coverage: Float64Array): WeightSummary {
   let area = 0;
   let leastPartial = 1;
   let greatestPartial = 1;
-  for (let k = 0; k < m; k++) {
-    total += counts[k]!;
+  for (let k = 0; k < coverage.length; k++) {
     const a = coverage[k]!;
     area += a;
     if (a < leastPartial) leastPartial = a;
     if (a > greatestPartial) greatestPartial = a;
   }
+  return { area, leastPartial, greatestPartial };
+}
+
+/** The points in the kept cells (sum of the counts) and the coverages' summary, when the caller has them already. */
+export interface KnownSums {
+  total: number;
+  weights: WeightSummary;
+}
+
+/**
+ * Flags the kept cells (counts and coverages in kept order, m = counts.length). Returns the numbers of excess and
+ * deficit cells, listed (kept indices, increasing) in scratch.excess and scratch.deficit. `known` saves the first
+ * pass over the cells (a placement's simulated patterns share its coverages, and their totals come with their
+ * chi-square); it must hold exactly the sums of these counts and coverages (the sum of the counts is exact in any
+ * order, the coverages' sum is taken in kept order by summarizeWeights as here).
+ */
+export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: number, scratch: CellFlagScratch, known?: KnownSums): { excess: number; deficit: number } {
+  const m = counts.length;
+  ensure(scratch, m);
+  let total = 0;
+  let weights: WeightSummary;
+  if (known === undefined) {
+    for (let k = 0; k < m; k++) total += counts[k]!;
+    weights = summarizeWeights(coverage);
+  } else {
+    total = known.total;
+    weights = known.weights;
+  }
+  const { area, leastPartial, greatestPartial } = weights;
   if (total === 0 || area <= 0) return { excess: 0, deficit: 0 };
   const rate = total / area;
   const { above, aboveP, below, belowP } = scratch;

@@ -16,7 +16,7 @@
  */
 import type { CoverageGrid, KeptCells } from '../types.js';
 import type { PixelCellLocator, SquarePixelFrame } from './pixel-cells.js';
-import { createCellFlagScratch, flagCells, type CellFlagScratch } from './cell-flags.js';
+import { createCellFlagScratch, flagCells, type CellFlagScratch, type KnownSums } from './cell-flags.js';
 import type { StabilityRaster } from './stability-raster.js';
 
 export const EXCESS = 0;
@@ -221,9 +221,10 @@ export class StabilityChunk {
    * Adds simulated pattern r's excess / deficit cells of the current placement to the sparse list. The tested cells
    * are the placement's kept cells, or, with `keptIndex` (random labelling: workers/baseline/relabelled-flags.ts),
    * cells of their own whose kept index is keptIndex[c] (−1: not a kept cell of the placement, no pixels).
+   * `known`: the counts' total and the coverages' summary when the caller has them (cell-flags.ts flagCells).
    */
-  addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array, keptIndex: Int32Array | null = null): void {
-    const found = flagCells(counts, coverage, this.alpha, this.flags);
+  addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array, keptIndex: Int32Array | null = null, known?: KnownSums): void {
+    const found = flagCells(counts, coverage, this.alpha, this.flags, known);
     this.listCells(this.flags.excess, found.excess, 2 * pattern + EXCESS, keptIndex);
     this.listCells(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT, keptIndex);
   }

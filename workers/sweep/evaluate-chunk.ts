@@ -12,6 +12,7 @@ import { poolCounts, relabelledChiSquare } from '../baseline/relabelled-chi-squa
 import { keptIndexOfCoverage, RelabelledFlagInput } from '../baseline/relabelled-flags.js';
 import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
 import { StabilityChunk } from '../stability/stability-chunk.js';
+import { summarizeWeights } from '../stability/cell-flags.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
@@ -73,18 +74,26 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
       );
       stability.addObserved(keptCounts(scratch, evaluated.kept, kept), flagWeights);
     }
+    // the flags of every simulated pattern test the same weights (flagWeights is expectation.weights here), and each
+    // pattern's total comes with its chi-square: flagCells skips its first pass (workers/stability/cell-flags.ts)
+    const weightSummary = stability !== null && pool === null ? summarizeWeights(flagWeights) : null;
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
       const counts = keptCounts(scratch, evaluated.kept, kept);
-      const { chi2, df } = pool !== null ? relabelledChiSquare(scratch, pool, expectation.coverageKept!) : dispersionChiSquare(counts, expectation.weights);
+      if (pool !== null) {
+        const { chi2, df } = relabelledChiSquare(scratch, pool, expectation.coverageKept!);
+        result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
+        result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
+        if (stability !== null && keptOf !== null) {
+          const m = labelling.fill(scratch, pool, expectation.coverageKept!, keptOf);
+          stability.addSimulated(r, labelling.counts.subarray(0, m), labelling.weights.subarray(0, m), labelling.keptIndex);
+        }
+        continue;
+      }
+      const { chi2, df, points } = dispersionChiSquare(counts, expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
-      if (stability !== null && keptOf !== null) {
-        const m = labelling.fill(scratch, pool!, expectation.coverageKept!, keptOf);
-        stability.addSimulated(r, labelling.counts.subarray(0, m), labelling.weights.subarray(0, m), labelling.keptIndex);
-      } else {
-        stability?.addSimulated(r, counts, flagWeights);
-      }
+      if (stability !== null) stability.addSimulated(r, counts, flagWeights, null, { total: points, weights: weightSummary! });
     }
   }
   if (stability === null) return result;
