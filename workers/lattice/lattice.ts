@@ -35,9 +35,11 @@ export interface Lattice {
   readonly anglePeriod: number;
   /**
    * Exact coverage |cell ∩ region| / s^2 of every cell the region may touch, all at once; the grid is tagged with the
-   * lattice's shape so that counts and coverage cannot come from different shapes.
+   * lattice's shape so that counts and coverage cannot come from different shapes. `into`: a buffer the grid may be
+   * written into (when it holds nx x ny values), so that a thread reuses one buffer from placement to placement; the
+   * grid's coverage is then a view of it, valid until the buffer is used again. A lattice may ignore it.
    */
-  coverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid;
+  coverage(region: Region, origin: Origin, cellSize: number, placement: Placement, into?: Float64Array): CoverageGrid;
   /** A counter of the flat points xy (x0, y0, x1, y1, ...; planar metres) with the lattice's fast path. */
   createCounter(xy: Float64Array, origin: Origin): CellCounter;
   frame(origin: Origin, cellSize: number, placement: Placement): LatticeFrame;

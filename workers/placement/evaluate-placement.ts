@@ -29,6 +29,24 @@ export interface EvaluatePlacementInput {
   scratch?: Int32Array;
   /** Expected counts proportional to this baseline instead of to area (workers/baseline); absent means area. */
   baseline?: BaselineWeigher;
+  /** Arrays to reuse (createPlacementBuffers); absent: new arrays for this placement. */
+  buffers?: PlacementBuffers;
+}
+
+/**
+ * Arrays one thread reuses from placement to placement (evaluateChunk keeps one set per chunk): the coverage grid,
+ * the kept cells and their counts. A placement evaluated with them returns views of them, valid until the next
+ * placement; each array is replaced by a larger one when a placement needs more. Reuse saves the fresh allocations,
+ * whose pages the system zeroes and maps: 0.3 to 1 ms for each 2 MB array, measured against 0.05 ms to refill one.
+ */
+export interface PlacementBuffers {
+  coverage: Float64Array;
+  kept: KeptCells;
+  observed: Float64Array;
+}
+
+export function createPlacementBuffers(): PlacementBuffers {
+  return { coverage: new Float64Array(0), kept: { index: new Int32Array(0), coverage: new Float64Array(0) }, observed: new Float64Array(0) };
 }
 
 /**
@@ -76,9 +94,14 @@ function describePlacement(cellSize: number, placement: Placement, shape: CellSh
  * (the message says at least 2 are needed and how to get them).
  */
 export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlacement {
-  const { counter, region, origin, cellSize, placement, minCoverage, alpha, shape, baseline } = input;
-  const grid = latticeOf(shape).coverage(region, origin, cellSize, placement);
-  const coverageKept = selectCells(grid, minCoverage);
+  const { counter, region, origin, cellSize, placement, minCoverage, alpha, shape, baseline, buffers } = input;
+  const grid = latticeOf(shape).coverage(region, origin, cellSize, placement, buffers?.coverage);
+  const coverageKept = selectCells(grid, minCoverage, buffers?.kept);
+  if (buffers !== undefined) {
+    // arrays made new for this placement (too small a buffer, or a lattice that does not reuse) serve the next ones
+    if (grid.coverage.buffer !== buffers.coverage.buffer) buffers.coverage = grid.coverage;
+    if (coverageKept.index.buffer !== buffers.kept.index.buffer) buffers.kept = coverageKept;
+  }
   const cellCount = grid.nx * grid.ny;
   const counts = input.scratch !== undefined && input.scratch.length >= cellCount ? input.scratch : new Int32Array(cellCount);
   let kept = coverageKept;
@@ -122,7 +145,8 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
     expectation.areaChi2PerDf = areaTest.chi2 / areaTest.df;
     expectation.areaVerdict = dispersionVerdict(areaTest.chi2, areaTest.df, alpha).verdict;
   }
-  const observed = keptCounts(counts, kept);
+  const observed = keptCounts(counts, kept, buffers?.observed);
+  if (buffers !== undefined && observed.buffer !== buffers.observed.buffer) buffers.observed = observed;
   const stats =
     baseline === undefined
       ? placementStatistics(observed, kept.coverage, alpha)

@@ -7,7 +7,12 @@ import type { CoverageGrid, KeptCells } from '../types.js';
 /** Tolerance below minCoverage that still keeps a cell (absorbs float noise in exact coverage). */
 export const COVERAGE_TOLERANCE = 1e-9;
 
-export function selectCells(grid: CoverageGrid, minCoverage: number): KeptCells {
+/**
+ * `into`: arrays the kept cells may be written into (KeptCells then holds views of them, valid until they are used
+ * again), so that a thread reuses them from placement to placement; used when they hold the kept cells, new arrays
+ * otherwise.
+ */
+export function selectCells(grid: CoverageGrid, minCoverage: number, into?: KeptCells): KeptCells {
   if (!(minCoverage >= 0 && minCoverage <= 1)) {
     throw new RangeError(`minCoverage must be a number in [0, 1], got ${minCoverage}`);
   }
@@ -18,8 +23,9 @@ export function selectCells(grid: CoverageGrid, minCoverage: number): KeptCells 
     const c = coverage[k]!;
     if (c > 0 && c >= threshold) keptCount++;
   }
-  const index = new Int32Array(keptCount);
-  const keptCoverage = new Float64Array(keptCount);
+  const reuse = into !== undefined && into.index.length >= keptCount && into.coverage.length >= keptCount;
+  const index = reuse ? into.index.subarray(0, keptCount) : new Int32Array(keptCount);
+  const keptCoverage = reuse ? into.coverage.subarray(0, keptCount) : new Float64Array(keptCount);
   let m = 0;
   for (let k = 0; k < coverage.length; k++) {
     const c = coverage[k]!;

@@ -3,7 +3,7 @@
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
  * pattern (CSR, or the baseline's null: workers/baseline) at the same kept cells with the same expected weights.
  */
-import { evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
+import { createPlacementBuffers, evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
@@ -50,9 +50,11 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   let kept: Float64Array = new Float64Array(0);
   const stability = context.stability === undefined ? null : new StabilityChunk(context.stability.raster, context.stability.pixels, context.alpha);
   const labelling = new RelabelledFlagInput();
+  // the grid, kept cells and counts of one placement live in these until the next placement
+  const buffers = createPlacementBuffers();
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
-    const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch });
+    const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch, buffers });
     encodeStatistics(evaluated.stats, evaluated.expectation, result, j * STATISTICS_FIELDS);
     scratch = evaluated.counts;
     if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);

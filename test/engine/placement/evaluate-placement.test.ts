@@ -4,7 +4,7 @@ import { placementCoverage } from '../../../workers/geometry/coverage.js';
 import { cellOfPoint, createGridFrame } from '../../../workers/geometry/grid-frame.js';
 import { pointInRegion } from '../../../workers/geometry/point-in-region.js';
 import { createCellCounter } from '../../../workers/placement/cell-counter.js';
-import { evaluatePlacement, keptCounts } from '../../../workers/placement/evaluate-placement.js';
+import { createPlacementBuffers, evaluatePlacement, keptCounts } from '../../../workers/placement/evaluate-placement.js';
 import { selectCells } from '../../../workers/placement/select-cells.js';
 import { createCsrSampler } from '../../../workers/random/csr-sampler.js';
 import { createRandom } from '../../../workers/random/seeded-random.js';
@@ -249,5 +249,39 @@ describe('evaluatePlacement end to end: Clarke (1946) flying-bomb squares', () =
         alpha: 0.05,
       }),
     ).toThrow(/keep 0 cell\(s\) with coverage >= 1; at least 2 are needed/);
+  });
+});
+
+describe('evaluatePlacement with reused buffers (createPlacementBuffers)', () => {
+  it('gives every placement the numbers a fresh evaluation gives, whatever larger or smaller placement used the buffers before (squares and hexagons)', () => {
+    const region = makeRegion(Array.from({ length: 30 }, (_, k) => (k * 0.37) % 1), Array.from({ length: 12 }, (_, k) => (k * 0.61) % 1));
+    const xy = clusteredPoints(region, 7);
+    const origin = { x: 0, y: 0 };
+    const counter = createCellCounter(xy, origin);
+    // sides and angles that make the grid grow and shrink from one placement to the next
+    const sequence: [number, Placement, number][] = [
+      [80, { u: 0.2, v: 0.7, angle: 0 }, 0.5],
+      [150, { u: 0.9, v: 0.1, angle: 45 }, 1],
+      [60, { u: 0.5, v: 0.5, angle: 30 }, 0.1],
+      [200, { u: 0, v: 0, angle: 10 }, 0.75],
+      [70, { u: 0.3, v: 0.3, angle: 60 }, 0.5],
+    ];
+    for (const shape of ['square', 'hex'] as const) {
+      const buffers = createPlacementBuffers();
+      let scratch = new Int32Array(0);
+      for (const [cellSize, placement, minCoverage] of sequence) {
+        const input = { counter, region, origin, cellSize, placement, minCoverage, alpha: 0.05, shape };
+        const before = buffers.coverage;
+        const reused = evaluatePlacement({ ...input, buffers, scratch });
+        scratch = reused.counts;
+        // after the 60 m grid (the largest), the square grids are written into the same buffer
+        if (shape === 'square' && cellSize >= 70 && cellSize !== 80 && cellSize !== 150) expect(buffers.coverage).toBe(before);
+        const fresh = evaluatePlacement(input);
+        expect(Array.from(reused.grid.coverage)).toEqual(Array.from(fresh.grid.coverage));
+        expect(Array.from(reused.kept.index)).toEqual(Array.from(fresh.kept.index));
+        expect(Array.from(reused.kept.coverage)).toEqual(Array.from(fresh.kept.coverage));
+        expect(reused.stats).toEqual(fresh.stats);
+      }
+    }
   });
 });
