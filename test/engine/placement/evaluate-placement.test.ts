@@ -268,7 +268,7 @@ describe('evaluatePlacement with reused buffers (createPlacementBuffers)', () =>
     ];
     for (const shape of ['square', 'hex'] as const) {
       const buffers = createPlacementBuffers();
-      let scratch = new Int32Array(0);
+      let scratch: Int32Array = new Int32Array(0);
       for (const [cellSize, placement, minCoverage] of sequence) {
         const input = { counter, region, origin, cellSize, placement, minCoverage, alpha: 0.05, shape };
         const before = buffers.coverage;
