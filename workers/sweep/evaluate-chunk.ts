@@ -47,7 +47,6 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   const sims = context.simulated.length;
   const result = new Float64Array(chunkResultLength(count, sims));
   let scratch: Int32Array = new Int32Array(0);
-  let kept: Float64Array = new Float64Array(0);
   const stability = context.stability === undefined ? null : new StabilityChunk(context.stability.raster, context.stability.pixels, context.alpha);
   const labelling = new RelabelledFlagInput();
   // the grid, kept cells and counts of one placement live in these until the next placement
@@ -57,7 +56,8 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, scratch, buffers });
     encodeStatistics(evaluated.stats, evaluated.expectation, result, j * STATISTICS_FIELDS);
     scratch = evaluated.counts;
-    if (kept.length < evaluated.kept.index.length) kept = new Float64Array(evaluated.kept.index.length);
+    // the observed kept counts are in the statistics now: their array holds each simulated pattern's in turn
+    const kept = buffers.observed;
     // controls: each simulated labelling has its own controls (the rest of the pool), so its own weights
     const { expectation } = evaluated;
     const relabel = expectation.expectedFrom === 'controls' && expectation.coverageKept !== undefined && expectation.gridWeights !== undefined;
