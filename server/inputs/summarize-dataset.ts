@@ -23,7 +23,9 @@ export function summarizeDataset(dataset: Dataset): DatasetSummary {
     crs: dataset.crs,
     projection: dataset.projection,
     projectionUsed: describeProjection(dataset.projection),
-    n: dataset.ids.length,
+    // one point per record id (every reader of server/inputs adds an id with each coordinate pair); the stored
+    // dataset reads its ids only when asked (server/store/dataset-store.ts)
+    n: dataset.xy.length / 2,
     nInside,
     nOutside: dataset.outsideIds.length,
     validArea,
