@@ -91,19 +91,25 @@ export function createRegionLocator(region: Region): RegionLocator {
     const last = bandOf(Math.max(ya, yb));
     for (let band = bandOf(Math.min(ya, yb)); band <= last; band++) bandEdges[fill[band]!++] = k;
   }
+  /**
+   * The x at which band edge m crosses the horizontal line at y, or NaN when it does not cross it (exactly one
+   * endpoint above y): the one expression both tests use, so that they decide alike.
+   */
+  const crossingX = (m: number, y: number): number => {
+    const base = 4 * bandEdges[m]!;
+    const xa = edges[base]!;
+    const ya = edges[base + 1]!;
+    const xb = edges[base + 2]!;
+    const yb = edges[base + 3]!;
+    return ya > y !== yb > y ? xa + ((y - ya) * (xb - xa)) / (yb - ya) : Number.NaN;
+  };
   return {
     contains(x: number, y: number): boolean {
       if (!(x >= minX && x <= maxX && y >= minY && y <= maxY)) return false;
       const band = bandOf(y);
       let inside = false;
-      for (let m = bandStart[band]!, end = bandStart[band + 1]!; m < end; m++) {
-        const base = 4 * bandEdges[m]!;
-        const xa = edges[base]!;
-        const ya = edges[base + 1]!;
-        const xb = edges[base + 2]!;
-        const yb = edges[base + 3]!;
-        if (ya > y !== yb > y && x < xa + ((y - ya) * (xb - xa)) / (yb - ya)) inside = !inside;
-      }
+      // NaN (no crossing) compares false
+      for (let m = bandStart[band]!, end = bandStart[band + 1]!; m < end; m++) if (x < crossingX(m, y)) inside = !inside;
       return inside;
     },
     crossings(y: number, out: Float64Array): number {
@@ -111,12 +117,8 @@ export function createRegionLocator(region: Region): RegionLocator {
       const band = bandOf(y);
       let count = 0;
       for (let m = bandStart[band]!, end = bandStart[band + 1]!; m < end; m++) {
-        const base = 4 * bandEdges[m]!;
-        const xa = edges[base]!;
-        const ya = edges[base + 1]!;
-        const xb = edges[base + 2]!;
-        const yb = edges[base + 3]!;
-        if (ya > y !== yb > y) out[count++] = xa + ((y - ya) * (xb - xa)) / (yb - ya);
+        const at = crossingX(m, y);
+        if (at === at) out[count++] = at;
       }
       return count;
     },
