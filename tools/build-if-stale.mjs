@@ -30,9 +30,10 @@ if (process.argv.includes('--stamp')) {
 } else {
   const built = existsSync(stamp) ? statSync(stamp).mtimeMs : 0;
   const newest = Math.max(...SOURCES.map((source) => newestSource(join(root, source))));
+  // on stderr, build output included: `npm run -s bench -- --json` keeps stdout for the JSON object alone
   if (built > newest) {
-    console.log('gridshake: the build in dist/ is up to date');
+    console.error('gridshake: the build in dist/ is up to date');
   } else {
-    execSync('npm run build', { cwd: root, stdio: 'inherit' });
+    execSync('npm run build', { cwd: root, stdio: [0, 2, 2] });
   }
 }

@@ -5,7 +5,8 @@
  *   npm run bench                     every table
  *   npm run bench -- sweep|cli|server|memory|kernel|phases|naive|hex|surface|queue   one group (queue: the Redis
  *                                     queue's figures, with a redis-server started on a free loopback port)
- *   npm run bench -- --json           the same, tables on stderr and one JSON object on stdout: one key per target
+ *   npm run -s bench -- --json        the same, tables on stderr and one JSON object alone on stdout (-s keeps npm's own
+ *                                     header off it): one key per target
  *                                     (wholeSweep, defaultPlanCli, monteCarlo, peakMemory, serverVsCli, and
  *                                     hexVsSquare: hexagon counting against square counting; surfaceWeight: the
  *                                     stability surface's measured cost per pixel-placement over the budget's
