@@ -2,7 +2,8 @@
  * The TIFF writer (server/stability/tiff-encoder.ts) checked against readers written apart from the project: the
  * registry library geotiff (fromArrayBuffer) and the byte layout of TIFF 6.0 (Adobe 1992, section 2: "II", 42, the
  * first directory's offset; entries sorted by tag; values of more than 4 bytes at word-aligned offsets), and its
- * DEFLATE strips (Compression 8, TIFF Supplement 2: each strip one zlib stream, RFC 1950) inflated by node:zlib.
+ * DEFLATE strips (Compression 8, Adobe's TIFF technical notes of 2002, from memory: each strip one zlib stream,
+ * RFC 1950) inflated by node:zlib.
  */
 import { inflateSync } from 'node:zlib';
 import { fromArrayBuffer } from 'geotiff';
