@@ -78,7 +78,7 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     }
     // the flags of every simulated pattern test the same weights (flagWeights is expectation.weights here), and each
     // pattern's total comes with its chi-square: flagCells skips its first pass (workers/stability/cell-flags.ts)
-    const weightSummary = stability !== null && pool === null ? summarizeWeights(flagWeights) : null;
+    const weightSummary = stability !== null && pool === null && sims > 0 ? summarizeWeights(flagWeights) : null;
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
       const counts = keptCounts(scratch, evaluated.kept, kept);
