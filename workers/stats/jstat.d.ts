@@ -1,6 +1,6 @@
 /**
- * Minimal type declarations for the parts of jStat (jstat on the npm registry, no bundled types) that the
- * statistics engine uses. jStat: Trevor Norris et al., "jStat: a JavaScript statistical library".
+ * Minimal type declarations for the parts of jStat (jstat on the npm registry, no bundled types) that the tests use as
+ * a reference. jStat: Trevor Norris et al., "jStat: a JavaScript statistical library".
  */
 declare module 'jstat' {
   interface ChiSquareDistribution {

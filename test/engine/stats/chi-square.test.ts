@@ -51,6 +51,19 @@ describe('chiSquareQuantile(p, df)', () => {
     }
   });
 
+  it('matches scipy in the far lower tail and at two million degrees of freedom', () => {
+    // scipy 1.17.1: python3 -c "from scipy.stats import chi2; print(chi2.ppf(p, df))"
+    const cases: Array<[number, number, number]> = [
+      [1e-100, 99, 0.36976262587770314],
+      [1e-100, 3, 5.2093970786779724e-67],
+      [1e-30, 1, 1.570796326794893e-60],
+      [0.005, 1, 3.9270422220515944e-5],
+      [0.025, 2_000_000, 1996081.9666805877],
+      [0.975, 2_000_000, 2003921.8219309007],
+    ];
+    for (const [p, df, expected] of cases) expect(Math.abs(chiSquareQuantile(p, df) / expected - 1)).toBeLessThan(1e-12);
+  });
+
   it('gives 0 at p=0, Infinity at p=1 and NaN outside [0, 1]', () => {
     expect(chiSquareQuantile(0, 4)).toBe(0);
     expect(chiSquareQuantile(1, 4)).toBe(Number.POSITIVE_INFINITY);
