@@ -59,6 +59,9 @@ export interface CoverageGrid {
   coverage: Float64Array;
 }
 
+/** A coverage grid's cells without their coverage: what counting and locating cells need. */
+export type GridExtent = Omit<CoverageGrid, 'coverage'>;
+
 /** The cells a placement keeps (coverage >= minCoverage - 1e-9 and > 0): their grid indices and coverages. */
 export interface KeptCells {
   index: Int32Array;

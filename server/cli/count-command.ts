@@ -8,7 +8,7 @@ import { labellingMonteCarlo } from '../../workers/baseline/labelling-test.js';
 import { pixelCellLocator } from '../../workers/stability/pixel-cells.js';
 import { monteCarloPValue } from '../summary/monte-carlo-p-value.js';
 import { parameterError } from '../errors.js';
-import { insideCoordinates, summarizeDataset } from '../inputs/index.js';
+import { insideCoordinates, insideCount, summarizeDataset } from '../inputs/index.js';
 import { assertCellCountWithinLimit } from '../sweeps/plan.js';
 import { fieldRef } from '../messages/field-names.js';
 import { assertWithinBudget, estimateSweep, workBudgetFromEnv } from '../sweeps/sweep-budget.js';
@@ -18,7 +18,7 @@ import { createBaselineWeigher } from '../../workers/baseline/baseline-weights.j
 import { baselineSize } from '../../workers/baseline/baseline.js';
 import { logPValues } from '../summary/log-p-values.js';
 import { DEFAULT_CELL_SHAPE, type CellShape } from '../../workers/lattice/cell-shape.js';
-import type { CoverageGrid, KeptCells, Origin, Placement } from '../../workers/types.js';
+import type { GridExtent, KeptCells, Origin, Placement } from '../../workers/types.js';
 import { latticeOf } from '../../workers/lattice/registry.js';
 import {
   parseAlpha,
@@ -112,7 +112,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
   // the server's limits on one placement: cells in the valid region (coverage costs O(cells)) and the work budget
   assertCellCountWithinLimit(parameters.cellSize, dataset.region.area, fieldRef('cell'));
   const plan = { ...DEFAULT_PLAN, cells: [parameters.cellSize], placements: 1, sims: labelling?.sims ?? 0 };
-  assertWithinBudget(estimateSweep(plan, dataset.inside.length, workBudgetFromEnv(), {
+  assertWithinBudget(estimateSweep(plan, insideCount(dataset), workBudgetFromEnv(), {
     baseline: dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine),
   }));
   const summary = summarizeDataset(dataset);
@@ -138,7 +138,7 @@ async function runCount(values: OptionValues, io: CliIo): Promise<number> {
     ...evaluated.stats,
     ...logPValues(evaluated.stats),
     pointsOutside: dataset.outsideIds.length,
-    pointsInLeftOutCells: dataset.inside.length - evaluated.stats.points,
+    pointsInLeftOutCells: insideCount(dataset) - evaluated.stats.points,
     pointsTotal: dataset.ids.length,
     expectedFrom: expectation.expectedFrom,
     baselineTotal: expectation.baselineTotal,
@@ -171,7 +171,7 @@ export interface CountLabellingInput {
   origin: Origin;
   cellSize: number;
   placement: Placement;
-  grid: CoverageGrid;
+  grid: GridExtent;
   coverageKept: KeptCells;
   alpha: number;
   sims: number;

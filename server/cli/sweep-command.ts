@@ -29,6 +29,7 @@ import { LEVEL_OPTIONS } from './level-options.js';
 import { progressLine } from './sweep-progress.js';
 import { sweepOutputFiles } from './sweep-outputs.js';
 import { QUEUE_OPTION, queueFromOptions } from './queue-option.js';
+import { insideCount } from '../inputs/inside-points.js';
 
 /** "'halton' (default) or 'lattice'": the designs of shared/plan-rules.ts. */
 function designChoices(): string {
@@ -102,7 +103,7 @@ async function runSweepCommand(values: OptionValues, io: CliIo): Promise<number>
   const dataset = loadDatasetFromFlags(values);
   // the stability files' names depend on the cell sides, known once the dataset is read (--per-cell)
   const shapes = planShapes(plan);
-  const sides = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
+  const sides = resolveCellSizes(plan, dataset.region.area, insideCount(dataset));
   checkOutputFolder(outDir, shapes.flatMap((shape) => sides.flatMap((side) => stabilityFileNames(side, shape, shapes.length > 1))));
   const pool =
     queue === null

@@ -17,6 +17,7 @@ import { duplicateWarning, outsideWarning, projectionWarning, skippedRowsWarning
 import { projectInputs } from './project-inputs.js';
 import { readPoints } from './read-points.js';
 import { toRegion } from './to-region.js';
+import { withEveryPointInside } from './inside-points.js';
 import { buildValidRegion, type LabelledRings } from './valid-region.js';
 import { fieldRef, twoWays } from '../messages/field-names.js';
 
@@ -124,18 +125,21 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
   if (baseline !== undefined) warnings.push(...baseline.warnings);
   const duplicates = findDuplicates(projected.xy);
   if (duplicates.length > 0) warnings.push(duplicateWarning(duplicates.length, duplicates.map((k) => raw.ids[k])));
-  const isInside = new Uint8Array(n);
-  for (const k of inside) isInside[k] = 1;
-  const outsideIds = raw.ids.filter((_, k) => isInside[k] === 0);
-  if (outsideIds.length > 0) warnings.push(outsideWarning(outsideIds.length, n, outsideIds));
+  const everyPointInside = inside.length === n;
+  let outsideIds: string[] = [];
+  if (!everyPointInside) {
+    const isInside = new Uint8Array(n);
+    for (const k of inside) isInside[k] = 1;
+    outsideIds = raw.ids.filter((_, k) => isInside[k] === 0);
+    warnings.push(outsideWarning(outsideIds.length, n, outsideIds));
+  }
 
-  return {
+  const dataset: Omit<Dataset, 'inside'> = {
     name: options.name ?? baseName(input.points.name),
     crs: system.crs,
     projection: projected.projector.info,
     xy: projected.xy,
     ids: raw.ids,
-    inside,
     outsideIds,
     studyArea: geometry.studyArea,
     noDataZones: geometry.noDataZones,
@@ -145,4 +149,6 @@ export function loadDataset(input: DatasetInput, options: DatasetOptions = {}): 
     warnings,
     ...(baseline === undefined ? {} : { baseline: { engine: baseline.baseline, info: baseline.info } }),
   };
+  // the usual case keeps no index of the inside points (server/inputs/inside-points.ts)
+  return everyPointInside ? withEveryPointInside(dataset) : { ...dataset, inside };
 }

@@ -2,6 +2,7 @@
 import type { Dataset, DatasetSummary } from '../../shared/contracts.js';
 import { cellSizeForExpected } from '../../workers/stats/expected-per-cell.js';
 import { describeProjection } from './describe-projection.js';
+import { insideCount } from './inside-points.js';
 import { multiPolygonArea, multiPolygonBBox } from './planar-rings.js';
 
 /**
@@ -16,7 +17,7 @@ export const CELL_SIZE_RULES: readonly { perCell: number; rule: string }[] = [
 ];
 
 export function summarizeDataset(dataset: Dataset): DatasetSummary {
-  const nInside = dataset.inside.length;
+  const nInside = insideCount(dataset);
   const validArea = dataset.region.area;
   return {
     name: dataset.name,

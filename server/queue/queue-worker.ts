@@ -16,6 +16,7 @@ import { simulateTasks } from '../sweeps/sweep-runner.js';
 import { unpackRegion } from '../../workers/sweep/region-buffer.js';
 import { engineErrorOf } from '../../workers/engine-error.js';
 import { unpackDataset } from './queue-dataset.js';
+import { withEveryPointInside } from '../inputs/inside-points.js';
 import { unpackBaseline } from '../../workers/baseline/baseline-buffer.js';
 import { BULL_PREFIX, datasetKey, resultKey, TASK_QUEUE } from './queue-keys.js';
 import { RESULT_TTL_SECONDS } from './queue-executor.js';
@@ -147,14 +148,13 @@ export class QueueWorker {
         if (bytes === null) throw new Error(`the dataset ${hash.slice(0, 12)}… is no longer in Redis (expired or removed); run the sweep again`);
         const packed = unpackDataset(bytes);
         const xy = new Float64Array(packed.points);
-        const dataset = {
+        const dataset = withEveryPointInside({
           xy,
-          inside: Uint32Array.from({ length: packed.pointCount }, (_, k) => k),
           region: unpackRegion(packed.region),
           origin: packed.origin,
           // the engine's part of the population at risk is all a worker needs (its description stays with the sweep)
           ...(packed.baseline === null ? {} : { baseline: { engine: unpackBaseline(packed.baseline) } }),
-        } as unknown as Dataset;
+        }) as unknown as Dataset;
         const shared: DatasetRef = { key: `queue:${hash}`, hash, pointCount: packed.pointCount };
         await this.executor.share(dataset, shared);
         return shared;

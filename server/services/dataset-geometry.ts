@@ -5,6 +5,7 @@
  * draws the same points, and the drawn ones are spread over the file order (cost O(n / k)).
  */
 import type { Dataset, DatasetGeometry } from '../../shared/contracts.js';
+import { isEveryPointInside } from '../inputs/inside-points.js';
 
 export const DEFAULT_DRAWN_POINTS = 5000;
 
@@ -39,7 +40,8 @@ export function datasetGeometry(dataset: Dataset, maxPoints: number = DEFAULT_DR
   const totalPoints = dataset.xy.length / 2;
   const stride = Math.max(1, Math.ceil(totalPoints / Math.max(1, maxPoints)));
   const isInside = new Uint8Array(totalPoints);
-  for (const index of dataset.inside) isInside[index] = 1;
+  if (isEveryPointInside(dataset)) isInside.fill(1);
+  else for (const index of dataset.inside) isInside[index] = 1;
   const points: number[] = [];
   const pointInside: number[] = [];
   for (let index = 0; index < totalPoints; index += stride) {

@@ -6,6 +6,7 @@ import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
 import { deserialize, serialize } from 'node:v8';
 import type { BaselineInfo, Dataset, DatasetSummary } from '../../shared/contracts.js';
+import { isEveryPointInside, withEveryPointInside } from '../inputs/inside-points.js';
 import type { Baseline } from '../../workers/baseline/baseline.js';
 import {
   bufferToFloat64,
@@ -40,6 +41,16 @@ type DatasetMeta = Omit<Dataset, 'xy' | 'ids' | 'inside' | 'region' | 'baseline'
   baselineInfo?: BaselineInfo;
 };
 
+/** The fields stored apart from meta_json (BLOBs and columns of their own). */
+const STORED_APART = new Set(['xy', 'ids', 'inside', 'region', 'baseline']);
+
+/** The dataset's other fields, read without touching the ones stored apart (an unread `inside` stays unbuilt). */
+function plainFields(dataset: Dataset): Record<string, unknown> {
+  const plain: Record<string, unknown> = {};
+  for (const key of Object.keys(dataset)) if (!STORED_APART.has(key)) plain[key] = dataset[key as keyof Dataset];
+  return plain;
+}
+
 export class DatasetStore {
   constructor(private readonly db: Database.Database) {}
 
@@ -48,9 +59,12 @@ export class DatasetStore {
     const id = randomUUID();
     const createdAt = new Date().toISOString();
     const stored: StoredDatasetSummary = { ...summary, id, createdAt, sample: sampleId };
-    const { xy, ids, inside, region, baseline, ...plain } = dataset;
+    // every point inside: an empty blob, never the index (server/inputs/inside-points.ts); a stored dataset always
+    // has points inside (server/inputs refuses one without), so an empty blob cannot mean "none inside"
+    const inside = isEveryPointInside(dataset) ? new Uint32Array(0) : dataset.inside;
+    const { xy, ids, region, baseline } = dataset;
     const meta: DatasetMeta = {
-      ...plain,
+      ...(plainFields(dataset) as Omit<DatasetMeta, 'region' | 'baselineInfo'>),
       region: { area: region.area, bbox: region.bbox },
       ...(baseline === undefined ? {} : { baselineInfo: baseline.info }),
     };
@@ -112,17 +126,17 @@ export class DatasetStore {
         : { baseline: { engine: deserialize(row.baseline) as Baseline, info: baselineInfo } };
     let ids: string[] | undefined;
     const idsJson = row.ids_json;
-    return {
+    const dataset: Omit<Dataset, 'inside'> = {
       ...meta,
       ...baseline,
       xy: bufferToFloat64(row.xy),
-      inside: bufferToUint32(row.inside),
       get ids(): string[] {
         ids ??= JSON.parse(idsJson) as string[];
         return ids;
       },
       region: { ...meta.region, rings: decodeRings(row.region_rings) },
     };
+    return row.inside.length === 0 ? withEveryPointInside(dataset) : { ...dataset, inside: bufferToUint32(row.inside) };
   }
 
   /** Delete a dataset; its sweeps and their rows go with it (foreign keys, one transaction). */

@@ -7,6 +7,7 @@
 import { createHash } from 'node:crypto';
 import type { Dataset } from '../../shared/contracts.js';
 import type { DatasetRef } from './executor.js';
+import { insideCount, isEveryPointInside } from '../inputs/inside-points.js';
 
 const memo = new WeakMap<Dataset, string>();
 
@@ -19,9 +20,11 @@ export function datasetContentHash(dataset: Dataset): string {
   let hash = memo.get(dataset);
   if (hash === undefined) {
     const digest = createHash('sha256');
-    const header = new Float64Array([dataset.inside.length, dataset.region.rings.length, dataset.origin.x, dataset.origin.y]);
+    // every point inside: no index to hash (a flag in the header instead; server/inputs/inside-points.ts)
+    const everyPointInside = isEveryPointInside(dataset);
+    const header = new Float64Array([insideCount(dataset), dataset.region.rings.length, dataset.origin.x, dataset.origin.y, everyPointInside ? 1 : 0]);
     digest.update(bytes(header));
-    digest.update(bytes(dataset.inside));
+    if (!everyPointInside) digest.update(bytes(dataset.inside));
     digest.update(bytes(dataset.xy));
     for (const ring of dataset.region.rings) {
       digest.update(bytes(new Float64Array([ring.length])));
@@ -51,5 +54,5 @@ export function datasetContentHash(dataset: Dataset): string {
 /** The dataset's share key: `<id>:<hash>`, or `anonymous:<hash>` without an id (CLI runs, tests). */
 export function datasetRef(dataset: Dataset, id?: string): DatasetRef {
   const hash = datasetContentHash(dataset);
-  return { key: `${id ?? 'anonymous'}:${hash}`, hash, pointCount: dataset.inside.length };
+  return { key: `${id ?? 'anonymous'}:${hash}`, hash, pointCount: insideCount(dataset) };
 }

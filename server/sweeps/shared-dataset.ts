@@ -3,6 +3,7 @@
  * (the only ones ever counted), Morton-sorted once so that the count array stays in cache, and the packed region.
  */
 import { insideCoordinates } from '../inputs/inside-coordinates.js';
+import { insideCount, isEveryPointInside } from '../inputs/inside-points.js';
 import type { Dataset } from '../../shared/contracts.js';
 import { isMortonSorted, mortonSort } from '../../workers/placement/index.js';
 import { packRegion } from '../../workers/sweep/region-buffer.js';
@@ -25,11 +26,9 @@ export interface SharedDataset {
  * inside the valid region in storage order, and already in Morton order. Cost O(n).
  */
 export function isShareableAsIs(dataset: Dataset): boolean {
-  const { xy, inside } = dataset;
+  const { xy } = dataset;
   if (!(xy.buffer instanceof SharedArrayBuffer) || xy.byteOffset !== 0 || xy.byteLength !== xy.buffer.byteLength) return false;
-  if (inside.length * 2 !== xy.length) return false;
-  for (let k = 0; k < inside.length; k++) if (inside[k] !== k) return false;
-  return isMortonSorted(xy);
+  return isEveryPointInside(dataset) && isMortonSorted(xy);
 }
 
 /**
@@ -40,7 +39,7 @@ export function isShareableAsIs(dataset: Dataset): boolean {
 export function shareDataset(dataset: Dataset, key: string): SharedDataset {
   const shared = {
     key,
-    pointCount: dataset.inside.length,
+    pointCount: insideCount(dataset),
     region: packRegion(dataset.region),
     origin: { x: dataset.origin.x, y: dataset.origin.y },
     baseline: dataset.baseline === undefined ? null : packBaseline(dataset.baseline.engine),
@@ -51,10 +50,9 @@ export function shareDataset(dataset: Dataset, key: string): SharedDataset {
   return { ...shared, points };
 }
 
-/** The inside points sorted straight into shared memory; the dataset's own array serves when every point is inside. */
+/** The inside points sorted straight into shared memory (insideCoordinates: no gathered copy when all are inside). */
 function sortedCopy(dataset: Dataset): SharedArrayBuffer {
-  const allInside = dataset.inside.length * 2 === dataset.xy.length && dataset.inside.every((index, k) => index === k);
-  const points = new SharedArrayBuffer(dataset.inside.length * 16);
-  mortonSort(allInside ? dataset.xy : insideCoordinates(dataset), new Float64Array(points));
+  const points = new SharedArrayBuffer(insideCount(dataset) * 16);
+  mortonSort(insideCoordinates(dataset), new Float64Array(points));
   return points;
 }

@@ -7,6 +7,7 @@
 import { setMaxListeners } from 'node:events';
 import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../../shared/contracts.js';
 import { summarizeDataset } from '../inputs/summarize-dataset.js';
+import { insideCount } from '../inputs/inside-points.js';
 import { PACKAGE_VERSION } from '../services/project-paths.js';
 import { buildSweepSummary } from '../summary/sweep-summary.js';
 import { datasetRef } from './dataset-key.js';
@@ -64,11 +65,11 @@ export class ExecutorSweepRunner {
   async runSweep(dataset: Dataset, planInput: Plan, options: SweepRunOptions = {}): Promise<SweepResult> {
     const startedAt = new Date();
     const plan = validatedPlan(planInput);
-    const cellSizes = resolveCellSizes(plan, dataset.region.area, dataset.inside.length);
+    const cellSizes = resolveCellSizes(plan, dataset.region.area, insideCount(dataset));
     // the baseline's own work from its engine data (pieces, vertices or controls), whatever its record says
     const baselineCost = dataset.baseline === undefined ? undefined : baselineSize(dataset.baseline.engine);
     const surface = options.stability === true ? { bbox: dataset.region.bbox, cellSizes } : undefined;
-    assertWithinBudget(estimateSweep(plan, dataset.inside.length, this.budget, { baseline: baselineCost, surface }));
+    assertWithinBudget(estimateSweep(plan, insideCount(dataset), this.budget, { baseline: baselineCost, surface }));
     if (options.signal?.aborted) throw sweepCancelledError();
     const controller = new AbortController();
     // every task in flight listens to the signal

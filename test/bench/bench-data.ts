@@ -5,6 +5,7 @@
  */
 import type { Dataset } from '../../shared/contracts.js';
 import { toRegion } from '../../server/inputs/to-region.js';
+import { withEveryPointInside } from '../../server/inputs/inside-points.js';
 import { createRegionLocator } from '../../workers/geometry/index.js';
 import { createRandom } from '../../workers/random/index.js';
 
@@ -60,15 +61,13 @@ export function cellSideForExpected(k: number, n: number): number {
  */
 export function benchDataset(xy: Float64Array): Dataset {
   const n = xy.length / 2;
-  const inside = new Uint32Array(n);
-  for (let k = 0; k < n; k++) inside[k] = k;
-  return {
+  // every point is inside: no index, as server/inputs builds such a dataset
+  return withEveryPointInside({
     name: 'fennick-vale-synthetic',
     crs: 'planar',
     projection: { kind: 'planar' },
     xy,
     ids: { length: n } as unknown as string[],
-    inside,
     outsideIds: [],
     studyArea: STUDY_AREA,
     noDataZones: NO_DATA,
@@ -76,7 +75,7 @@ export function benchDataset(xy: Float64Array): Dataset {
     region: BENCH_REGION,
     origin: BENCH_ORIGIN,
     warnings: [],
-  };
+  });
 }
 
 /** n clustered points in a new Float64Array and their Dataset. */

@@ -7,6 +7,7 @@ import { GridshakeStore } from '../../server/store/store.js';
 import { MIGRATIONS } from '../../server/store/migrations.js';
 import { fromStoredJson, toStoredJson, decodeRings, encodeRings } from '../../server/store/blob-codec.js';
 import type { Dataset, DatasetSummary, PlacementRow } from '../../shared/contracts.js';
+import { isEveryPointInside, withEveryPointInside } from '../../server/inputs/inside-points.js';
 
 const folders: string[] = [];
 function tempFolder(): string {
@@ -111,6 +112,23 @@ describe('GridshakeStore', () => {
     db.pragma(`user_version = ${MIGRATIONS.length + 1}`);
     db.close();
     expect(() => GridshakeStore.open(folder)).toThrow(/newer gridshake/);
+  });
+
+  it('stores a dataset whose points are all inside without an index, and reads back the same points and index', () => {
+    const folder = tempFolder();
+    const { dataset: withOutside, summary } = squareDataset();
+    const { inside: _dropped, ...rest } = withOutside;
+    const dataset = withEveryPointInside({ ...rest, xy: new Float64Array([10.125, 20.5, 0.3, 99.999999999]), ids: ['a', 'c'], outsideIds: [] });
+    const store = GridshakeStore.open(folder);
+    const stored = store.datasets.insert(dataset, { ...summary, n: 2, nOutside: 0 });
+    const row = (store as unknown as { db: Database.Database }).db.prepare('SELECT length(inside) AS bytes FROM datasets').get() as { bytes: number };
+    expect(row.bytes).toBe(0);
+    const loaded = store.datasets.load(stored.id as string) as Dataset;
+    expect(isEveryPointInside(loaded)).toBe(true);
+    expect(Array.from(loaded.xy)).toEqual(Array.from(dataset.xy));
+    expect(Array.from(loaded.inside)).toEqual([0, 1]);
+    expect(loaded.ids).toEqual(['a', 'c']);
+    store.close();
   });
 
   it('stores a dataset and reads back the identical engine input after reopening', () => {

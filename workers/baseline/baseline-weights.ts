@@ -15,20 +15,20 @@
  */
 import { latticeOf } from '../lattice/registry.js';
 import { createCellCounter } from '../placement/cell-counter.js';
-import type { CoverageGrid, Origin, Placement } from '../types.js';
+import type { GridExtent, Origin, Placement } from '../types.js';
 import { BASELINE_SHARE_NOISE, type Baseline, type ExpectedFrom, type PolygonBaseline } from './baseline.js';
 
 /** A baseline ready for placements: its kind and the weights of a coverage grid's cells (w[k] for grid cell k). */
 export interface BaselineWeigher {
   readonly expectedFrom: Exclude<ExpectedFrom, 'area'>;
-  weights(grid: CoverageGrid, cellSize: number, placement: Placement): Float64Array;
+  weights(grid: GridExtent, cellSize: number, placement: Placement): Float64Array;
 }
 
 /** Areal weighting of the polygon pieces onto the grid's cells (header comment). */
 export function polygonWeights(
   baseline: PolygonBaseline,
   origin: Origin,
-  grid: CoverageGrid,
+  grid: GridExtent,
   cellSize: number,
   placement: Placement,
 ): Float64Array {

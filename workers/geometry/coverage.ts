@@ -62,18 +62,21 @@ export function ringsExtent(rings: Float64Array[]): [number, number, number, num
   return [minX, minY, maxX, maxY];
 }
 
-/** Accumulate every edge of one ring (cell units) into the grid whose lower-left cell is (i0, j0). */
-function accumulateRing(coverage: Float64Array, ring: Float64Array, i0: number, j0: number, nx: number, ny: number): void {
+/**
+ * Accumulate every edge of one ring (cell units) into the grid whose lower-left cell is (i0, j0); `rowFrom`, `ny`:
+ * only the band of grid rows [rowFrom, rowFrom + ny), held from row rowFrom on (accumulateEdge).
+ */
+export function accumulateRing(coverage: Float64Array, ring: Float64Array, i0: number, j0: number, nx: number, ny: number, rowFrom = 0): void {
   const vertexCount = ring.length >> 1;
   let previous = vertexCount - 1;
   for (let k = 0; k < vertexCount; k++) {
-    accumulateEdge(coverage, nx, ny, ring[2 * previous]! - i0, ring[2 * previous + 1]! - j0, ring[2 * k]! - i0, ring[2 * k + 1]! - j0);
+    accumulateEdge(coverage, nx, ny, ring[2 * previous]! - i0, ring[2 * previous + 1]! - j0, ring[2 * k]! - i0, ring[2 * k + 1]! - j0, rowFrom);
     previous = k;
   }
 }
 
-/** Prefix sums along each row turn accumulated signed areas into coverages; float noise is clamped. */
-function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
+/** Prefix sums along each of ny rows turn accumulated signed areas into coverages; float noise is clamped. */
+export function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
   for (let row = 0; row < ny; row++) {
     let running = 0;
     const offset = row * nx;
@@ -89,12 +92,22 @@ export function gridExtent(region: Region, origin: Origin, cellSize: number, pla
   return extentOf(ringsInCellUnits(region, origin, cellSize, placement));
 }
 
-function extentOf(rings: Float64Array[]): Omit<CoverageGrid, 'coverage'> {
+/** The grid over rings already in cell units: the cells of their bounding box. Cost O(vertices). */
+export function extentOf(rings: Float64Array[]): Omit<CoverageGrid, 'coverage'> {
   const [minX, minY, maxX, maxY] = ringsExtent(rings);
   if (!(maxX >= minX && maxY >= minY)) throw new RangeError('region has no vertices: cannot compute cell coverage');
   const i0 = Math.floor(minX);
   const j0 = Math.floor(minY);
   return { i0, j0, nx: Math.max(1, Math.ceil(maxX) - i0), ny: Math.max(1, Math.ceil(maxY) - j0) };
+}
+
+/** Throws a RangeError naming `what` (the cell size) when a grid of nx x ny cells exceeds MAX_GRID_CELLS. */
+export function assertGridSize(nx: number, ny: number, what: string): void {
+  if (nx * ny > MAX_GRID_CELLS) {
+    throw new RangeError(
+      `${what} gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
+    );
+  }
 }
 
 /**
@@ -104,11 +117,7 @@ function extentOf(rings: Float64Array[]): Omit<CoverageGrid, 'coverage'> {
  */
 export function unitCellCoverage(rings: Float64Array[], what: string, into?: Float64Array): CoverageGrid {
   const { i0, j0, nx, ny } = extentOf(rings);
-  if (nx * ny > MAX_GRID_CELLS) {
-    throw new RangeError(
-      `${what} gives a grid of ${nx} x ${ny} cells over the region, more than ${MAX_GRID_CELLS}: choose a larger cell size`,
-    );
-  }
+  assertGridSize(nx, ny, what);
   // a reused buffer (Lattice.coverage) saves a fresh allocation, whose pages the system must zero and map
   const coverage = into !== undefined && into.length >= nx * ny ? into.subarray(0, nx * ny).fill(0) : new Float64Array(nx * ny);
   for (const ring of rings) accumulateRing(coverage, ring, i0, j0, nx, ny);

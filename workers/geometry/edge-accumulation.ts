@@ -12,7 +12,12 @@
  * Cost O(1 + rows crossed + columns crossed) per edge.
  */
 
-/** Add one directed edge (x0, y0) -> (x1, y1) in local cell units to the accumulator (length nx*ny). */
+/**
+ * Add one directed edge (x0, y0) -> (x1, y1) in local cell units to the accumulator. The accumulator holds the
+ * band of rows [rowFrom, rowFrom + ny), row r at (r - rowFrom) * nx (rowFrom 0: the whole grid, length nx * ny);
+ * the edge's pieces in other rows are skipped. Each row's pieces are computed from the same numbers whatever the
+ * band, so a grid accumulated band by band holds exactly the values of the grid accumulated at once.
+ */
 export function accumulateEdge(
   accumulator: Float64Array,
   nx: number,
@@ -21,6 +26,7 @@ export function accumulateEdge(
   y0: number,
   x1: number,
   y1: number,
+  rowFrom = 0,
 ): void {
   if (y0 === y1) return;
   // Walk from the lower to the upper endpoint; the sign restores the edge's direction.
@@ -30,15 +36,15 @@ export function accumulateEdge(
   const xHigh = sign > 0 ? x1 : x0;
   const yHigh = sign > 0 ? y1 : y0;
   const slope = (xHigh - xLow) / (yHigh - yLow);
-  const firstRow = Math.max(0, Math.floor(yLow));
-  const lastRow = Math.min(ny - 1, Math.ceil(yHigh) - 1);
+  const firstRow = Math.max(rowFrom, Math.floor(yLow));
+  const lastRow = Math.min(rowFrom + ny - 1, Math.ceil(yHigh) - 1);
   for (let row = firstRow; row <= lastRow; row++) {
     const yStart = yLow > row ? yLow : row;
     const yEnd = yHigh < row + 1 ? yHigh : row + 1;
     if (!(yEnd > yStart)) continue;
     const xStart = yStart === yLow ? xLow : xLow + (yStart - yLow) * slope;
     const xEnd = yEnd === yHigh ? xHigh : xLow + (yEnd - yLow) * slope;
-    accumulateRowPiece(accumulator, row * nx, nx, xStart, xEnd, sign * (yEnd - yStart));
+    accumulateRowPiece(accumulator, (row - rowFrom) * nx, nx, xStart, xEnd, sign * (yEnd - yStart));
   }
 }
 

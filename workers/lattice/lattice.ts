@@ -6,7 +6,8 @@
  *
  * A new shape is one folder under workers/lattice/ implementing this interface plus one line in registry.ts.
  */
-import type { CoverageGrid, Origin, Placement, Region } from '../types.js';
+import type { CoverageGrid, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
+import type { BandBuffers } from '../placement/select-cells-by-band.js';
 import type { CellShape } from './cell-shape.js';
 
 export interface CellCounter {
@@ -16,7 +17,7 @@ export interface CellCounter {
    * Fill out[(j - j0) * nx + (i - i0)] with the number of points in cell (i, j) of `grid` (out is zeroed first;
    * out.length >= nx * ny). Points whose cell is outside the grid are ignored.
    */
-  count(grid: CoverageGrid, cellSize: number, placement: Placement, out: Int32Array): void;
+  count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void;
 }
 
 /** One placement of a lattice: cell of a point and polygon of a cell, in planar metres. */
@@ -40,6 +41,12 @@ export interface Lattice {
    * grid's coverage is then a view of it, valid until the buffer is used again. A lattice may ignore it.
    */
   coverage(region: Region, origin: Origin, cellSize: number, placement: Placement, into?: Float64Array): CoverageGrid;
+  /**
+   * Optional: the grid and exactly the cells that selectCells(coverage(...), minCoverage) keeps, without holding
+   * the whole grid's coverage (workers/placement/select-cells-by-band.ts); the kept cells are views of
+   * buffers.kept, valid until the buffers are used again. A lattice without it is evaluated from its whole grid.
+   */
+  keptCells?(region: Region, origin: Origin, cellSize: number, placement: Placement, minCoverage: number, buffers: BandBuffers): { grid: GridExtent; kept: KeptCells };
   /** A counter of the flat points xy (x0, y0, x1, y1, ...; planar metres) with the lattice's fast path. */
   createCounter(xy: Float64Array, origin: Origin): CellCounter;
   frame(origin: Origin, cellSize: number, placement: Placement): LatticeFrame;

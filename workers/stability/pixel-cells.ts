@@ -7,7 +7,7 @@
 import { cellUnitX, cellUnitY, createGridFrame } from '../geometry/grid-frame.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import { latticeOf } from '../lattice/registry.js';
-import type { CoverageGrid, Origin, Placement } from '../types.js';
+import type { GridExtent, Origin, Placement } from '../types.js';
 
 export type PixelCellLocator = (px: number, py: number) => number;
 
@@ -27,7 +27,7 @@ export function squarePixelFrame(shape: CellShape | undefined, origin: Origin, c
   return (shape ?? 'square') === 'square' ? createGridFrame(origin, cellSize, placement) : null;
 }
 
-export function pixelCellLocator(shape: CellShape | undefined, origin: Origin, cellSize: number, placement: Placement, grid: CoverageGrid): PixelCellLocator {
+export function pixelCellLocator(shape: CellShape | undefined, origin: Origin, cellSize: number, placement: Placement, grid: GridExtent): PixelCellLocator {
   const { i0, j0, nx, ny } = grid;
   const index = (i: number, j: number): number => {
     const gi = i - i0;

@@ -14,7 +14,7 @@
  * adds) three values per valid pixel: making, filling and sending them took about a third of the workers' busy time
  * in a CPU profile of `gridshake sweep` (1e5 points, 32 placements, 99 sims).
  */
-import type { CoverageGrid, KeptCells } from '../types.js';
+import type { GridExtent, KeptCells } from '../types.js';
 import type { PixelCellLocator, SquarePixelFrame } from './pixel-cells.js';
 import { createCellFlagScratch, flagCells, type CellFlagScratch, type KnownSums } from './cell-flags.js';
 import type { StabilityRaster } from './stability-raster.js';
@@ -130,7 +130,7 @@ export class StabilityChunk {
    * Starts a placement: finds each valid pixel's kept cell (or none) and counts the pixels in no kept cell.
    * Cost O(V) cell-of-point evaluations plus O(grid cells).
    */
-  beginPlacement(cellOf: PixelCellLocator, grid: CoverageGrid, kept: KeptCells, square: SquarePixelFrame | null = null): void {
+  beginPlacement(cellOf: PixelCellLocator, grid: GridExtent, kept: KeptCells, square: SquarePixelFrame | null = null): void {
     this.checkOwner();
     this.flushPlacement();
     this.placements += 1;
@@ -167,7 +167,7 @@ export class StabilityChunk {
    * terms once per row), exact away from the cell edges; within `band` (cell units, far above the rounding of either
    * form) of an edge the contract's division decides, as in the counting kernel (workers/lattice/square).
    */
-  private locateSquare(square: SquarePixelFrame, grid: CoverageGrid): void {
+  private locateSquare(square: SquarePixelFrame, grid: GridExtent): void {
     const { pixels, keptOfCell } = this;
     const { pixelKept, notKept } = this.buffers;
     const { x0, y0, side, width } = this.raster;

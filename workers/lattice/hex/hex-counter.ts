@@ -29,7 +29,7 @@
  * Cost O(n + cells) per placement; memory: two 32 KB buffers of point indices besides the output.
  */
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
-import type { CoverageGrid, Origin, Placement } from '../../types.js';
+import type { GridExtent, Origin, Placement } from '../../types.js';
 import type { CellCounter } from '../lattice.js';
 import { createHexFrame, roundHexInto } from './hex-frame.js';
 
@@ -86,7 +86,7 @@ const CORNER_TABLE: Uint8Array = (() => {
 })();
 
 /** Half-width of the band near hexagon sides (axial units) where the exact pass decides; grows with the grid's reach. */
-function nearSideBand(grid: CoverageGrid): number {
+function nearSideBand(grid: GridExtent): number {
   return Math.max(2 ** -20, 2 ** -38 * (Math.abs(grid.i0) + Math.abs(grid.j0) + grid.nx + grid.ny + 2));
 }
 
@@ -326,7 +326,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin, inlineFromCel
 
   return {
     pointCount,
-    count(grid: CoverageGrid, cellSize: number, placement: Placement, out: Int32Array): void {
+    count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void {
       if (grid.shape !== 'hex') throw new RangeError(`the hexagon counter was given a ${grid.shape ?? 'square'} grid`);
       if (out.length < grid.nx * grid.ny) {
         throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);

@@ -14,7 +14,7 @@
  * slower as soon as a second counter (the simulated patterns) was alive in the thread. `npm run bench` measures it.
  * Cost O(n + cells) per placement; memory: a 32 KB buffer of deferred point indices besides the output.
  */
-import type { CoverageGrid, Origin, Placement } from '../../types.js';
+import type { GridExtent, Origin, Placement } from '../../types.js';
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
 import type { CellCounter } from '../lattice.js';
 
@@ -25,7 +25,7 @@ const BLOCK = 8192;
  * Half-width of the band around grid lines where the exact path decides (cell units): 2^-20, widened for grids far
  * from the origin so that it always exceeds the fast path's rounding error (a few ulps of |X| + |u + i0|).
  */
-function nearLineBand(grid: CoverageGrid): number {
+function nearLineBand(grid: GridExtent): number {
   return Math.max(2 ** -20, 2 ** -40 * (Math.abs(grid.i0) + Math.abs(grid.j0) + grid.nx + grid.ny + 2));
 }
 
@@ -108,7 +108,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
 
   return {
     pointCount,
-    count(grid: CoverageGrid, cellSize: number, placement: Placement, out: Int32Array): void {
+    count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void {
       if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
         throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
       }

@@ -7,6 +7,7 @@ import { placementCoverage } from '../../geometry/coverage.js';
 import { cellCorners, cellOfPoint, cellUnitX, cellUnitY, createGridFrame, type GridFrame } from '../../geometry/grid-frame.js';
 import { frameFromRules, type Lattice } from '../lattice.js';
 import { createSquareCounter } from './square-counter.js';
+import { selectCellsByBand } from '../../placement/select-cells-by-band.js';
 
 /** cellOfPoint without allocating: (floor(x'/s - u), floor(y'/s - v)) written to out. */
 function cellOfPointInto(frame: GridFrame, px: number, py: number, out: Float64Array): void {
@@ -18,6 +19,7 @@ export const squareLattice: Lattice = {
   shape: 'square',
   anglePeriod: 90,
   coverage: placementCoverage,
+  keptCells: selectCellsByBand,
   createCounter: createSquareCounter,
   frame: frameFromRules(createGridFrame, cellOfPoint, cellOfPointInto, cellCorners),
 };
