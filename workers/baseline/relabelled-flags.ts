@@ -24,7 +24,7 @@ export function keptIndexOfCoverage(coverageKept: KeptCells, kept: KeptCells): I
 
 /** Reusable buffers; after fill(), counts, weights and keptIndex hold `length` tested cells. */
 export class RelabelledFlagInput {
-  counts = new Float64Array(0);
+  counts = new Int32Array(0);
   weights = new Float64Array(0);
   keptIndex = new Int32Array(0);
   length = 0;
@@ -36,7 +36,7 @@ export class RelabelledFlagInput {
   fill(simulatedCounts: Int32Array, pool: Float64Array, coverageKept: KeptCells, keptOf: Int32Array): number {
     const m0 = pool.length;
     if (this.counts.length < m0) {
-      this.counts = new Float64Array(m0);
+      this.counts = new Int32Array(m0);
       this.weights = new Float64Array(m0);
       this.keptIndex = new Int32Array(m0);
     }

@@ -96,7 +96,7 @@ export interface KnownSums {
  * chi-square); it must hold exactly the sums of these counts and coverages (the sum of the counts is exact in any
  * order, the coverages' sum is taken in kept order by summarizeWeights as here).
  */
-export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: number, scratch: CellFlagScratch, known?: KnownSums): { excess: number; deficit: number } {
+export function flagCells(counts: ArrayLike<number>, coverage: Float64Array, alpha: number, scratch: CellFlagScratch, known?: KnownSums): { excess: number; deficit: number } {
   const m = counts.length;
   ensure(scratch, m);
   let total = 0;
@@ -162,7 +162,7 @@ export function flagCells(counts: Float64Array, coverage: Float64Array, alpha: n
  */
 function rejectFamily(
   scratch: CellFlagScratch,
-  counts: Float64Array,
+  counts: ArrayLike<number>,
   coverage: Float64Array,
   rate: number,
   cells: Int32Array,

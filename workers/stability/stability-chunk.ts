@@ -211,7 +211,7 @@ export class StabilityChunk {
   }
 
   /** Adds the observed pattern's excess / deficit cells of the current placement (kept counts in kept order). */
-  addObserved(counts: Float64Array, coverage: Float64Array): void {
+  addObserved(counts: ArrayLike<number>, coverage: Float64Array): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags);
     this.listCells(this.flags.excess, found.excess, OBSERVED_EXCESS, null);
     this.listCells(this.flags.deficit, found.deficit, OBSERVED_DEFICIT, null);
@@ -223,7 +223,7 @@ export class StabilityChunk {
    * cells of their own whose kept index is keptIndex[c] (−1: not a kept cell of the placement, no pixels).
    * `known`: the counts' total and the coverages' summary when the caller has them (cell-flags.ts flagCells).
    */
-  addSimulated(pattern: number, counts: Float64Array, coverage: Float64Array, keptIndex: Int32Array | null = null, known?: KnownSums): void {
+  addSimulated(pattern: number, counts: ArrayLike<number>, coverage: Float64Array, keptIndex: Int32Array | null = null, known?: KnownSums): void {
     const found = flagCells(counts, coverage, this.alpha, this.flags, known);
     this.listCells(this.flags.excess, found.excess, 2 * pattern + EXCESS, keptIndex);
     this.listCells(this.flags.deficit, found.deficit, 2 * pattern + DEFICIT, keptIndex);

@@ -3,7 +3,7 @@
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
  * pattern (CSR, or the baseline's null: workers/baseline) at the same kept cells with the same expected weights.
  */
-import { createPlacementBuffers, evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
+import { compactKeptCounts, createPlacementBuffers, evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
@@ -57,13 +57,14 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   const labelling = new RelabelledFlagInput();
   // the grid, kept cells and counts of one placement live in the thread's buffers until the next placement
   const buffers = THREAD_BUFFERS;
+  // kept counts over the start of the grid's counts, except with controls, whose labellings need the grid's counts
+  // (poolCounts, relabelledChiSquare); a simulated pattern's kept counts then replace the observed ones in place
+  const countsInKeptOrder = context.baseline?.expectedFrom !== 'controls';
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
-    const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, buffers });
+    const evaluated = evaluatePlacement({ ...context, counter: context.observed, placement, buffers, countsInKeptOrder });
     encodeStatistics(evaluated.stats, evaluated.expectation, result, j * STATISTICS_FIELDS);
     const scratch = evaluated.counts;
-    // the observed kept counts are in the statistics now: their array holds each simulated pattern's in turn
-    const kept = buffers.observed;
     // controls: each simulated labelling has its own controls (the rest of the pool), so its own weights
     const { expectation } = evaluated;
     const relabel = expectation.expectedFrom === 'controls' && expectation.coverageKept !== undefined && expectation.gridWeights !== undefined;
@@ -80,14 +81,13 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
         evaluated.kept,
         squarePixelFrame(context.shape, context.origin, context.cellSize, placement),
       );
-      stability.addObserved(keptCounts(scratch, evaluated.kept, kept), flagWeights);
+      stability.addObserved(evaluated.observed, flagWeights);
     }
     // the flags of every simulated pattern test the same weights (flagWeights is expectation.weights here), and each
     // pattern's total comes with its chi-square: flagCells skips its first pass (workers/stability/cell-flags.ts)
     const weightSummary = stability !== null && pool === null && sims > 0 ? summarizeWeights(flagWeights) : null;
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
-      const counts = keptCounts(scratch, evaluated.kept, kept);
       if (pool !== null) {
         const { chi2, df } = relabelledChiSquare(scratch, pool, expectation.coverageKept!);
         result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
@@ -98,6 +98,8 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
         }
         continue;
       }
+      // the observed kept counts are in the statistics now: their array holds each simulated pattern's in turn
+      const counts = countsInKeptOrder ? compactKeptCounts(scratch, evaluated.kept) : keptCounts(scratch, evaluated.kept, buffers.observed);
       const { chi2, df, points } = dispersionChiSquare(counts, expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
