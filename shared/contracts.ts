@@ -47,7 +47,10 @@ export interface Dataset {
   xy: Float64Array;
   /** record id of each point (the id column, the feature id, or the 1-based record number) */
   ids: string[];
-  /** indices (into xy/2) of the points inside the valid region: the only ones ever counted */
+  /**
+   * indices (into xy/2) of the points inside the valid region: the only ones ever counted. When every point is inside,
+   * server/inputs builds it only when read (server/inputs/inside-points.ts: ask insideCount / isEveryPointInside)
+   */
   inside: Uint32Array;
   /** ids of the points outside the valid region */
   outsideIds: string[];

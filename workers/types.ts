@@ -68,6 +68,14 @@ export interface KeptCells {
   coverage: Float64Array;
 }
 
+/** Arrays a thread reuses for kept cells computed band by band (workers/placement/select-cells-by-band.ts). */
+export interface BandBuffers {
+  /** one band of grid rows' coverage */
+  band: Float64Array;
+  /** the kept cells, at least as long as the bound of keptCellBound */
+  kept: KeptCells;
+}
+
 export type Verdict = 'clustered' | 'regular' | 'csr';
 
 /** One class of the Poisson frequency goodness-of-fit table, after merging (e.g. label "0", "1", ">=4"). */

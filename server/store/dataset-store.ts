@@ -136,7 +136,8 @@ export class DatasetStore {
       },
       region: { ...meta.region, rings: decodeRings(row.region_rings) },
     };
-    return row.inside.length === 0 ? withEveryPointInside(dataset) : { ...dataset, inside: bufferToUint32(row.inside) };
+    // no spread: it would call the ids getter (parsing every id)
+    return row.inside.length === 0 ? withEveryPointInside(dataset) : Object.assign(dataset, { inside: bufferToUint32(row.inside) });
   }
 
   /** Delete a dataset; its sweeps and their rows go with it (foreign keys, one transaction). */

@@ -60,4 +60,7 @@ export const MIGRATIONS: readonly string[] = [
   // 5: where a sweep's tasks ran ('local' or 'queue', shared/contracts.ts ExecutorChoice), so that a rerun runs there
   // too; NULL for sweeps stored before it was recorded (they ran on the server's default)
   `ALTER TABLE sweeps ADD COLUMN executor TEXT;`,
+  // 6: no new column: an empty datasets.inside BLOB now means that every point is inside (server/inputs/inside-points.ts),
+  // which an older gridshake would read as "no point inside"; the version step makes it refuse this store instead
+  `UPDATE datasets SET inside = inside WHERE 0;`,
 ];

@@ -75,7 +75,7 @@ describe('GridshakeStore', () => {
     db.close();
   });
 
-  it('upgrades a database written before the stability files (3), the baseline column (4) and the sweeps\' executor (5), keeping its datasets and sweeps', () => {
+  it('upgrades a database written before the stability files (3), the baseline column (4), the sweeps\' executor (5) and empty inside indexes (6), keeping its datasets and sweeps', () => {
     const folder = tempFolder();
     const { dataset, summary } = squareDataset();
     const first = GridshakeStore.open(folder);
@@ -96,8 +96,8 @@ describe('GridshakeStore', () => {
     expect(again.sweeps.get(oldSweep.id)).toEqual({ ...oldSweep, executor: null });
     again.close();
     const db = new Database(join(folder, 'gridshake.sqlite'));
-    expect(db.pragma('user_version', { simple: true })).toBe(5);
-    expect(MIGRATIONS.length).toBe(5);
+    expect(db.pragma('user_version', { simple: true })).toBe(6);
+    expect(MIGRATIONS.length).toBe(6);
     expect((db.prepare('PRAGMA table_info(sweeps)').all() as { name: string }[]).map((column) => column.name)).toContain('executor');
     const columns = (db.prepare('PRAGMA table_info(datasets)').all() as { name: string }[]).map((column) => column.name);
     expect(columns).toContain('baseline');

@@ -9,7 +9,7 @@
  * Reference for the idea: area-accumulation rasterizers (Levien 2016, font-rs); checked in the tests against
  * Sutherland & Hodgman (1974, "Reentrant polygon clipping", CACM 17:32-42) clipping per cell.
  */
-import type { CoverageGrid, Origin, Placement, Region } from '../types.js';
+import type { CoverageGrid, GridExtent, Origin, Placement, Region } from '../types.js';
 import { accumulateEdge } from './edge-accumulation.js';
 import { createGridFrame } from './grid-frame.js';
 
@@ -88,12 +88,12 @@ export function prefixSumRows(coverage: Float64Array, nx: number, ny: number): v
 }
 
 /** The cells (i0, j0, nx, ny) of the transformed region's bounding box, without allocating the grid. Cost O(vertices). */
-export function gridExtent(region: Region, origin: Origin, cellSize: number, placement: Placement): Omit<CoverageGrid, 'coverage'> {
+export function gridExtent(region: Region, origin: Origin, cellSize: number, placement: Placement): GridExtent {
   return extentOf(ringsInCellUnits(region, origin, cellSize, placement));
 }
 
 /** The grid over rings already in cell units: the cells of their bounding box. Cost O(vertices). */
-export function extentOf(rings: Float64Array[]): Omit<CoverageGrid, 'coverage'> {
+export function extentOf(rings: Float64Array[]): GridExtent {
   const [minX, minY, maxX, maxY] = ringsExtent(rings);
   if (!(maxX >= minX && maxY >= minY)) throw new RangeError('region has no vertices: cannot compute cell coverage');
   const i0 = Math.floor(minX);

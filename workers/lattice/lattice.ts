@@ -6,8 +6,7 @@
  *
  * A new shape is one folder under workers/lattice/ implementing this interface plus one line in registry.ts.
  */
-import type { CoverageGrid, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
-import type { BandBuffers } from '../placement/select-cells-by-band.js';
+import type { BandBuffers, CoverageGrid, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
 import type { CellShape } from './cell-shape.js';
 
 export interface CellCounter {

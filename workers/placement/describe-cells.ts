@@ -23,7 +23,7 @@ export interface CellDescription {
 }
 
 /** The same placement inputs as evaluatePlacement, without the statistics' alpha. */
-export type DescribeCellsInput = Omit<EvaluatePlacementInput, 'alpha' | 'scratch'>;
+export type DescribeCellsInput = Omit<EvaluatePlacementInput, 'alpha' | 'buffers' | 'countsInKeptOrder'>;
 
 /** One placement's cells in typed arrays: coverage grid, counts, kept flags and the sums behind E_c. */
 export interface CellGrid {

@@ -5,12 +5,11 @@
  */
 import { EngineError } from '../engine-error.js';
 import { dispersionChiSquare, dispersionVerdict, placementStatistics } from '../stats/index.js';
-import type { GridExtent, KeptCells, Origin, Placement, PlacementStatistics, Region, Verdict } from '../types.js';
+import type { BandBuffers, GridExtent, KeptCells, Origin, Placement, PlacementStatistics, Region, Verdict } from '../types.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from './cell-counter.js';
 import { selectCells } from './select-cells.js';
-import type { BandBuffers } from './select-cells-by-band.js';
 import type { ExpectedFrom } from '../baseline/baseline.js';
 import type { BaselineWeigher } from '../baseline/baseline-weights.js';
 import { keepBaselineCells } from '../baseline/keep-baseline-cells.js';
@@ -26,8 +25,6 @@ export interface EvaluatePlacementInput {
   alpha: number;
   /** The cells' shape (workers/lattice); absent means square. */
   shape?: CellShape;
-  /** Optional reusable count buffer (length >= nx * ny); a new one is made when absent or too short. */
-  scratch?: Int32Array;
   /** Expected counts proportional to this baseline instead of to area (workers/baseline); absent means area. */
   baseline?: BaselineWeigher;
   /** Arrays to reuse (createPlacementBuffers); absent: new arrays for this placement. */
@@ -40,7 +37,7 @@ export interface EvaluatePlacementInput {
 }
 
 /**
- * Arrays one thread reuses from placement to placement (evaluateChunk keeps one set per chunk): the coverage grid
+ * Arrays one thread reuses from placement to placement (evaluateChunk keeps one set per thread): the coverage grid
  * (lattices without Lattice.keptCells) or one band of it (with it), the kept cells and their counts. A placement
  * evaluated with them returns views of them, valid until the next placement; each array is replaced by a larger one
  * when a placement needs more. Reuse saves the fresh allocations, whose pages the system zeroes and maps: 0.3 to
@@ -150,7 +147,7 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
   const { counter, cellSize, placement, minCoverage, alpha, shape, baseline, buffers } = input;
   const { grid, kept: coverageKept } = keptCellsOf(input);
   const cellCount = grid.nx * grid.ny;
-  const scratch = input.scratch ?? buffers?.counts;
+  const scratch = buffers?.counts;
   const counts =
     scratch !== undefined && scratch.length >= cellCount ? scratch : new Int32Array(buffers === undefined ? cellCount : Math.ceil(cellCount * 1.3));
   if (buffers !== undefined) buffers.counts = counts;

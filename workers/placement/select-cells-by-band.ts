@@ -3,24 +3,17 @@
  * and selected one band of grid rows at a time (geometry/coverage.ts, the same edges' pieces per row), so a thread
  * holds one band (at most BAND_CELLS values) instead of nx x ny. The kept cells are exactly those of
  * selectCells(placementCoverage(...)): the same coverages (each row's values come from the same numbers in the same
- * order) in the same grid storage order. Measured at 1e7 points (3.3 million grid cells, 2 million kept): 27 MB less
- * per thread.
+ * order) in the same grid storage order. At 1e7 points (3.3 million grid cells, 2 million kept) a thread holds 2 MB of
+ * coverage instead of 27.
  * Cost O(cells + edge crossings + E x bands) for E ring edges: every band visits every edge, and the grids that have
  * more than one band are those with more than BAND_CELLS cells.
  */
 import { accumulateRing, assertGridSize, extentOf, prefixSumRows, ringsInCellUnits } from '../geometry/coverage.js';
-import type { KeptCells, Origin, Placement, Region } from '../types.js';
-import type { GridExtent } from '../types.js';
+import type { BandBuffers, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
 import { COVERAGE_TOLERANCE } from './select-cells.js';
 
 /** Cells per band: 2 MB of float64. */
 export const BAND_CELLS = 1 << 18;
-
-/** Arrays a thread reuses from placement to placement: the band, and the kept cells (grown when too small). */
-export interface BandBuffers {
-  band: Float64Array;
-  kept: KeptCells;
-}
 
 export function createBandBuffers(): BandBuffers {
   return { band: new Float64Array(0), kept: { index: new Int32Array(0), coverage: new Float64Array(0) } };
@@ -83,8 +76,7 @@ export function selectCellsByBand(
   const { i0, j0, nx, ny } = grid;
   assertGridSize(nx, ny, `cell size ${cellSize} m`);
   const bandRows = Math.max(1, Math.min(ny, Math.floor(bandCells / nx)));
-  // a full band's room at once: grids of other angles then fit without a new array (each dropped array stays in the
-  // process's resident memory after it is freed: the C allocator keeps freed blocks of this size for reuse)
+  // a full band's room at once: grids of other angles then fit without a new array (why: evaluate-chunk.ts THREAD_BUFFERS)
   if (buffers.band.length < bandRows * nx) buffers.band = new Float64Array(Math.max(bandRows * nx, Math.min(nx * ny, bandCells)));
   const bound = Math.min(nx * ny, keptCellBound(rings));
   if (buffers.kept.index.length < bound) buffers.kept = { index: new Int32Array(bound), coverage: new Float64Array(bound) };

@@ -105,7 +105,7 @@ function quantileStart(p: number, df: number): number {
  * bracket that the signs of the residuals have narrowed so far (a step outside it bisects instead); for p > 0.5 the
  * step uses the upper tail, (1 - p) - Q(x), to avoid cancellation. Stops when a step moves x by at most 1e-14
  * relative. Result accurate to about 1e-14 relative. p = 0 gives 0, p = 1 gives Infinity, p outside [0, 1] or
- * df <= 0 gives NaN.
+ * df <= 0 gives NaN; a quantile below the smallest double gives 0.
  *
  * Cost: O(1): typically 3 to 6 Newton steps (criticalValues caches the results per df and level).
  *
@@ -120,6 +120,8 @@ export function chiSquareQuantile(p: number, df: number): number {
   const useUpperTail = p > 0.5;
   const target = useUpperTail ? 1 - p : p;
   let x = quantileStart(p, df);
+  // a start that underflows to 0 (df 1 and p below about 1e-154): the quantile lies below the double range
+  if (x === 0) return 0;
   if (!(x > 0) || !Number.isFinite(x)) x = df;
   // the root lies in (below, above): F(below) < p < F(above)
   let below = 0;

@@ -270,13 +270,12 @@ describe('evaluatePlacement with reused buffers (createPlacementBuffers)', () =>
     ];
     for (const shape of ['square', 'hex'] as const) {
       const buffers = createPlacementBuffers();
-      let scratch: Int32Array = new Int32Array(0);
       for (const [cellSize, placement, minCoverage] of sequence) {
         const input = { counter, region, origin, cellSize, placement, minCoverage, alpha: 0.05, shape };
         // squares hold one band of the grid (select-cells-by-band.ts), hexagons the whole grid
         const before = shape === 'square' ? buffers.band : buffers.coverage;
-        const reused = evaluatePlacement({ ...input, buffers, scratch });
-        scratch = reused.counts;
+        const reused = evaluatePlacement({ ...input, buffers });
+        expect(reused.counts).toBe(buffers.counts);
         // after the 60 m grid (the largest), the square grids are written into the same buffer
         if (shape === 'square' && cellSize >= 70 && cellSize !== 80 && cellSize !== 150) expect(buffers.band).toBe(before);
         const fresh = evaluatePlacement(input);
@@ -284,6 +283,25 @@ describe('evaluatePlacement with reused buffers (createPlacementBuffers)', () =>
         expect(Array.from(reused.kept.index)).toEqual(Array.from(fresh.kept.index));
         expect(Array.from(reused.kept.coverage)).toEqual(Array.from(fresh.kept.coverage));
         expect(reused.stats).toEqual(fresh.stats);
+      }
+    }
+  });
+
+  it('gives the same statistics and kept counts when the kept counts are written over the grid counts (countsInKeptOrder)', () => {
+    const region = makeRegion(Array.from({ length: 30 }, (_, k) => (k * 0.29) % 1), Array.from({ length: 12 }, (_, k) => (k * 0.53) % 1));
+    const xy = clusteredPoints(region, 11);
+    const origin = { x: 0, y: 0 };
+    const counter = createCellCounter(xy, origin);
+    for (const shape of ['square', 'hex'] as const) {
+      const buffers = createPlacementBuffers();
+      for (const [cellSize, angle] of [[90, 0], [60, 35], [120, 80]] as const) {
+        const input = { counter, region, origin, cellSize, placement: { u: 0.4, v: 0.1, angle }, minCoverage: 0.5, alpha: 0.05, shape };
+        const fresh = evaluatePlacement(input);
+        const expected = Array.from(keptCounts(fresh.counts, fresh.kept));
+        const compacted = evaluatePlacement({ ...input, buffers, countsInKeptOrder: true });
+        expect(Array.from(compacted.observed)).toEqual(expected);
+        expect(Array.from(compacted.counts.subarray(0, expected.length))).toEqual(expected);
+        expect(compacted.stats).toEqual(fresh.stats);
       }
     }
   });

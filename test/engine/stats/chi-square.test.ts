@@ -66,6 +66,8 @@ describe('chiSquareQuantile(p, df)', () => {
 
   it('gives 0 at p=0, Infinity at p=1 and NaN outside [0, 1]', () => {
     expect(chiSquareQuantile(0, 4)).toBe(0);
+    // the df = 1 quantile of p = 1e-200 is about pi/2 x 1e-400, below the smallest double
+    expect(chiSquareQuantile(1e-200, 1)).toBe(0);
     expect(chiSquareQuantile(1, 4)).toBe(Number.POSITIVE_INFINITY);
     expect(chiSquareQuantile(1.5, 4)).toBeNaN();
     expect(chiSquareQuantile(0.5, 0)).toBeNaN();
