@@ -15,7 +15,20 @@
  * even offset; entries in increasing tag order, as TIFF 6.0 section 2 requires) and the values too long for an
  * entry. Cost O(pixels x samples + tags), plus zlib's.
  */
+import { endianness } from 'node:os';
 import { deflateSync } from 'node:zlib';
+
+/** True on a little-endian machine, where a Float32Array's own bytes are the file's. */
+const HOST_IS_LITTLE_ENDIAN = endianness() === 'LE';
+
+/** The samples as little-endian float32 bytes: a view of their own bytes where the host is little endian, else a copy. */
+function littleEndianBytes(samples: Float32Array): Uint8Array {
+  if (HOST_IS_LITTLE_ENDIAN) return new Uint8Array(samples.buffer, samples.byteOffset, samples.byteLength);
+  const raw = new Uint8Array(samples.length * 4);
+  const view = new DataView(raw.buffer);
+  for (let k = 0; k < samples.length; k++) view.setFloat32(4 * k, samples[k]!, true);
+  return raw;
+}
 
 /** TIFF 6.0 field types used here. */
 export const TIFF_ASCII = 2;
@@ -93,10 +106,8 @@ export function encodeFloat32Tiff(
   const rowBytes = width * samplesPerPixel * 4;
   const rowsPerStrip = Math.max(1, Math.min(height, Math.floor(STRIP_BYTES / Math.max(1, rowBytes))));
   const strips = Math.ceil(height / rowsPerStrip);
-  // the samples as little-endian float32 bytes, then each strip as it is stored
-  const raw = new Uint8Array(samples.length * 4);
-  const rawView = new DataView(raw.buffer);
-  for (let k = 0; k < samples.length; k++) rawView.setFloat32(4 * k, samples[k]!, true);
+  // the samples as little-endian float32 bytes (their own bytes on a little-endian machine), then each strip as stored
+  const raw = littleEndianBytes(samples);
   const stored: Uint8Array[] = [];
   for (let s = 0; s < strips; s++) {
     const strip = raw.subarray(s * rowsPerStrip * rowBytes, Math.min(height, (s + 1) * rowsPerStrip) * rowBytes);

@@ -115,17 +115,16 @@ export function assertGridSize(nx: number, ny: number, what: string): void {
  * with positive determinant: coverage is a ratio of areas, which such maps keep). The grid covers the rings' bounding
  * box. `what` names the cell size in the error for a grid that is too large.
  */
-export function unitCellCoverage(rings: Float64Array[], what: string, into?: Float64Array): CoverageGrid {
+export function unitCellCoverage(rings: Float64Array[], what: string): CoverageGrid {
   const { i0, j0, nx, ny } = extentOf(rings);
   assertGridSize(nx, ny, what);
-  // a reused buffer (Lattice.coverage) saves a fresh allocation, whose pages the system must zero and map
-  const coverage = into !== undefined && into.length >= nx * ny ? into.subarray(0, nx * ny).fill(0) : new Float64Array(nx * ny);
+  const coverage = new Float64Array(nx * ny);
   for (const ring of rings) accumulateRing(coverage, ring, i0, j0, nx, ny);
   prefixSumRows(coverage, nx, ny);
   return { i0, j0, nx, ny, coverage };
 }
 
-/** Exact coverage of all cells that the transformed region's bounding box touches (`into`: as Lattice.coverage). */
-export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement, into?: Float64Array): CoverageGrid {
-  return unitCellCoverage(ringsInCellUnits(region, origin, cellSize, placement), `cell size ${cellSize} m`, into);
+/** Exact coverage of all cells that the transformed region's bounding box touches. */
+export function placementCoverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid {
+  return unitCellCoverage(ringsInCellUnits(region, origin, cellSize, placement), `cell size ${cellSize} m`);
 }

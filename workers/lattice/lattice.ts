@@ -35,11 +35,9 @@ export interface Lattice {
   readonly anglePeriod: number;
   /**
    * Exact coverage |cell ∩ region| / s^2 of every cell the region may touch, all at once; the grid is tagged with the
-   * lattice's shape so that counts and coverage cannot come from different shapes. `into`: a buffer the grid may be
-   * written into (when it holds nx x ny values), so that a thread reuses one buffer from placement to placement; the
-   * grid's coverage is then a view of it, valid until the buffer is used again. A lattice may ignore it.
+   * lattice's shape so that counts and coverage cannot come from different shapes.
    */
-  coverage(region: Region, origin: Origin, cellSize: number, placement: Placement, into?: Float64Array): CoverageGrid;
+  coverage(region: Region, origin: Origin, cellSize: number, placement: Placement): CoverageGrid;
   /**
    * Optional: the grid and exactly the cells that selectCells(coverage(...), minCoverage) keeps, without holding
    * the whole grid's coverage (workers/placement/select-cells-by-band.ts); the kept cells are views of

@@ -37,14 +37,13 @@ export interface EvaluatePlacementInput {
 }
 
 /**
- * Arrays one thread reuses from placement to placement (evaluateChunk keeps one set per thread): the coverage grid
- * (lattices without Lattice.keptCells) or one band of it (with it), the kept cells and their counts. A placement
+ * Arrays one thread reuses from placement to placement (evaluateChunk keeps one set per thread): one band of the
+ * coverage grid (lattices with Lattice.keptCells), the kept cells and their counts. A placement
  * evaluated with them returns views of them, valid until the next placement; each array is replaced by a larger one
  * when a placement needs more. Reuse saves the fresh allocations, whose pages the system zeroes and maps: 0.3 to
  * 1 ms for each 2 MB array, measured against 0.05 ms to refill one.
  */
 export interface PlacementBuffers extends BandBuffers {
-  coverage: Float64Array;
   /** per-grid-cell counts; grown with 30 % more room, as the grids of other angles are larger (up to 26 % measured) */
   counts: Int32Array;
   /** kept counts in kept order, when they are not written over `counts` (countsInKeptOrder) */
@@ -53,7 +52,6 @@ export interface PlacementBuffers extends BandBuffers {
 
 export function createPlacementBuffers(): PlacementBuffers {
   return {
-    coverage: new Float64Array(0),
     band: new Float64Array(0),
     kept: { index: new Int32Array(0), coverage: new Float64Array(0) },
     counts: new Int32Array(0),
@@ -121,8 +119,8 @@ function describePlacement(cellSize: number, placement: Placement, shape: CellSh
 
 /**
  * The grid and the cells the coverage rule keeps: band by band where the lattice can (Lattice.keptCells), else from
- * the whole coverage grid (selectCells). Arrays made new for this placement (too small a buffer, or a lattice that
- * does not reuse) serve the next ones.
+ * the whole coverage grid (selectCells). Kept arrays made new for this placement (too small a buffer) serve the next
+ * ones.
  */
 function keptCellsOf(input: EvaluatePlacementInput): { grid: GridExtent; kept: KeptCells } {
   const { region, origin, cellSize, placement, minCoverage, shape, buffers } = input;
@@ -130,12 +128,9 @@ function keptCellsOf(input: EvaluatePlacementInput): { grid: GridExtent; kept: K
   if (lattice.keptCells !== undefined) {
     return lattice.keptCells(region, origin, cellSize, placement, minCoverage, buffers ?? createPlacementBuffers());
   }
-  const grid = lattice.coverage(region, origin, cellSize, placement, buffers?.coverage);
+  const grid = lattice.coverage(region, origin, cellSize, placement);
   const kept = selectCells(grid, minCoverage, buffers?.kept);
-  if (buffers !== undefined) {
-    if (grid.coverage.buffer !== buffers.coverage.buffer) buffers.coverage = grid.coverage;
-    if (kept.index.buffer !== buffers.kept.index.buffer) buffers.kept = kept;
-  }
+  if (buffers !== undefined && kept.index.buffer !== buffers.kept.index.buffer) buffers.kept = kept;
   return { grid, kept };
 }
 

@@ -10,7 +10,7 @@
  */
 import { accumulateRing, assertGridSize, extentOf, prefixSumRows, ringsInCellUnits } from '../geometry/coverage.js';
 import type { BandBuffers, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
-import { COVERAGE_TOLERANCE } from './select-cells.js';
+import { keepThreshold } from './select-cells.js';
 
 /** Cells per band: 2 MB of float64. */
 export const BAND_CELLS = 1 << 18;
@@ -55,7 +55,7 @@ function grow(kept: KeptCells, used: number, capacity: number): KeptCells {
 }
 
 /**
- * The grid extent and the kept cells (coverage >= minCoverage - COVERAGE_TOLERANCE and > 0, grid storage order) of
+ * The grid extent and the kept cells (coverage >= keepThreshold(minCoverage) and > 0, grid storage order) of
  * the square lattice's placement. `buffers`: reused and updated (the kept cells are views of buffers.kept, valid until
  * the next call). `bandCells`: cells per band (tests use small bands).
  */
@@ -68,9 +68,7 @@ export function selectCellsByBand(
   buffers: BandBuffers,
   bandCells = BAND_CELLS,
 ): { grid: GridExtent; kept: KeptCells } {
-  if (!(minCoverage >= 0 && minCoverage <= 1)) {
-    throw new RangeError(`minCoverage must be a number in [0, 1], got ${minCoverage}`);
-  }
+  const threshold = keepThreshold(minCoverage);
   const rings = ringsInCellUnits(region, origin, cellSize, placement);
   const grid = extentOf(rings);
   const { i0, j0, nx, ny } = grid;
@@ -80,7 +78,6 @@ export function selectCellsByBand(
   if (buffers.band.length < bandRows * nx) buffers.band = new Float64Array(Math.max(bandRows * nx, Math.min(nx * ny, bandCells)));
   const bound = Math.min(nx * ny, keptCellBound(rings));
   if (buffers.kept.index.length < bound) buffers.kept = { index: new Int32Array(bound), coverage: new Float64Array(bound) };
-  const threshold = minCoverage - COVERAGE_TOLERANCE;
   let m = 0;
   for (let rowFrom = 0; rowFrom < ny; rowFrom += bandRows) {
     const rows = Math.min(bandRows, ny - rowFrom);

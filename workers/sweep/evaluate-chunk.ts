@@ -3,7 +3,7 @@
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
  * pattern (CSR, or the baseline's null: workers/baseline) at the same kept cells with the same expected weights.
  */
-import { compactKeptCounts, createPlacementBuffers, evaluatePlacement, keptCounts, type CellCounter } from '../placement/index.js';
+import { compactKeptCounts, createPlacementBuffers, evaluatePlacement, type CellCounter } from '../placement/index.js';
 import { dispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
@@ -58,8 +58,8 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   const labelling = new RelabelledFlagInput();
   // the grid, kept cells and counts of one placement live in the thread's buffers until the next placement
   const buffers = THREAD_BUFFERS;
-  // kept counts over the start of the grid's counts, except with controls, whose labellings need the grid's counts
-  // (poolCounts, relabelledChiSquare); a simulated pattern's kept counts then replace the observed ones in place
+  // the observed kept counts over the start of the grid's counts, except with controls, whose labellings need the
+  // grid's counts (poolCounts, relabelledChiSquare)
   const countsInKeptOrder = context.baseline?.expectedFrom !== 'controls';
   for (let j = 0; j < count; j++) {
     const placement: Placement = { u: placements[3 * j], v: placements[3 * j + 1], angle: placements[3 * j + 2] };
@@ -99,8 +99,9 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
         }
         continue;
       }
-      // the observed kept counts are in the statistics now: their array holds each simulated pattern's in turn
-      const counts = countsInKeptOrder ? compactKeptCounts(scratch, evaluated.kept) : keptCounts(scratch, evaluated.kept, buffers.observed);
+      // the observed counts are in the statistics and the flags now, and nothing after this reads the grid's counts:
+      // the pattern's kept counts go over their start
+      const counts = compactKeptCounts(scratch, evaluated.kept);
       const { chi2, df, points } = dispersionChiSquare(counts, expectation.weights);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;

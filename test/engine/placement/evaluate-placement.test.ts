@@ -272,8 +272,8 @@ describe('evaluatePlacement with reused buffers (createPlacementBuffers)', () =>
       const buffers = createPlacementBuffers();
       for (const [cellSize, placement, minCoverage] of sequence) {
         const input = { counter, region, origin, cellSize, placement, minCoverage, alpha: 0.05, shape };
-        // squares hold one band of the grid (select-cells-by-band.ts), hexagons the whole grid
-        const before = shape === 'square' ? buffers.band : buffers.coverage;
+        // squares hold one band of the grid (select-cells-by-band.ts)
+        const before = buffers.band;
         const reused = evaluatePlacement({ ...input, buffers });
         expect(reused.counts).toBe(buffers.counts);
         // after the 60 m grid (the largest), the square grids are written into the same buffer
