@@ -17,6 +17,9 @@ import { unpackBaseline } from './baseline/baseline-buffer.js';
 import { createBaselineWeigher, type BaselineWeigher } from './baseline/baseline-weights.js';
 import { createLabellingSampler, createPolygonSampler, type PatternSampler } from './baseline/baseline-sampler.js';
 import { validPixels, type StabilityRaster } from './stability/stability-raster.js';
+import { pixelRuns } from './stability/pixel-runs.js';
+import { pixelsNearBoundary } from './stability/boundary-pixels.js';
+import type { SquareCellPixels } from './stability/stability-chunk.js';
 
 interface DatasetEntry {
   region: Region;
@@ -28,14 +31,27 @@ const samplers = new TaskCache<CsrSampler | PatternSampler>();
 const weighers = new TaskCache<BaselineWeigher>();
 // one simulation at a time: its patterns can be large, and a sweep's patterns are not reused by the next
 const simulations = new TaskCache<PatternCounter[]>(1);
-// the valid pixels of a stability raster, per dataset and raster
+// the valid pixels of a stability raster, per dataset and raster, and for squares their runs and those near the
+// boundary, per cell size too
 const rasterPixels = new TaskCache<Uint32Array>(4);
+const squarePixels = new TaskCache<SquareCellPixels>(4);
 
-function stabilityOf(task: ChunkTask, region: Region): { raster: StabilityRaster; pixels: Uint32Array } | undefined {
+/** Pixels farther than this from the boundary lie in whole cells only: the cell diagonal, a millionth wider. */
+function squareCellReach(cellSize: number): number {
+  return cellSize * Math.SQRT2 * (1 + 1e-6);
+}
+
+function stabilityOf(task: ChunkTask, region: Region): { raster: StabilityRaster; pixels: Uint32Array; squareCells?: SquareCellPixels } | undefined {
   const raster = task.stability;
   if (raster === undefined) return undefined;
   const key = `${task.datasetKey}:${raster.x0},${raster.y0},${raster.side},${raster.width},${raster.height}`;
-  return { raster, pixels: rasterPixels.get(key, () => validPixels(region, raster)) };
+  const pixels = rasterPixels.get(key, () => validPixels(region, raster));
+  if ((task.shape ?? 'square') !== 'square') return { raster, pixels };
+  const squareCells = squarePixels.get(`${key}:${task.cellSize}`, () => ({
+    runs: pixelRuns(pixels, raster.width, raster.height),
+    nearBoundary: pixelsNearBoundary(region, raster, pixels, squareCellReach(task.cellSize)),
+  }));
+  return { raster, pixels, squareCells };
 }
 
 function runChunk(task: ChunkTask): Float64Array {

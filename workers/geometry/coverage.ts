@@ -75,6 +75,11 @@ export function accumulateRing(coverage: Float64Array, ring: Float64Array, i0: n
   }
 }
 
+/** A running coverage sum with its rounding noise removed: 0 below COVERAGE_NOISE, 1 within it of 1. */
+export function settledCoverage(running: number): number {
+  return running < NOISE ? 0 : running > 1 - NOISE ? 1 : running;
+}
+
 /** Prefix sums along each of ny rows turn accumulated signed areas into coverages; float noise is clamped. */
 export function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
   for (let row = 0; row < ny; row++) {
@@ -82,7 +87,7 @@ export function prefixSumRows(coverage: Float64Array, nx: number, ny: number): v
     const offset = row * nx;
     for (let column = 0; column < nx; column++) {
       running += coverage[offset + column]!;
-      coverage[offset + column] = running < NOISE ? 0 : running > 1 - NOISE ? 1 : running;
+      coverage[offset + column] = settledCoverage(running);
     }
   }
 }

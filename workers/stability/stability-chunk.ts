@@ -16,6 +16,8 @@
  */
 import type { GridExtent, KeptCells } from '../types.js';
 import type { PixelCellLocator, SquarePixelFrame } from './pixel-cells.js';
+import type { PixelRuns } from './pixel-runs.js';
+import { SquarePixelCells } from './square-pixel-cells.js';
 import { createCellFlagScratch, flagCells, type CellFlagScratch, type KnownSums } from './cell-flags.js';
 import type { StabilityRaster } from './stability-raster.js';
 
@@ -98,6 +100,26 @@ function buffersFor(pixels: number): ChunkBuffers {
   return buffers;
 }
 
+/**
+ * What lets a square placement skip most pixels (built once per raster and cell size, workers/pool-task.ts): the valid
+ * pixels as row runs, and those near the region's boundary (boundary-pixels.ts, distance above the cell diagonal).
+ */
+export interface SquareCellPixels {
+  runs: PixelRuns;
+  nearBoundary: Uint32Array;
+}
+
+/**
+ * The placement's cells as the pixel listing needs them (square placements whose whole cells are all kept). The
+ * kept cells' arrays are the thread's and hold the next placement's cells when this one is flushed: each listed
+ * cell's grid index is taken when it is listed.
+ */
+interface CellListing {
+  cells: SquarePixelCells;
+  grid: GridExtent;
+  kept: KeptCells;
+}
+
 export class StabilityChunk {
   private simulated: number[] = [];
   private placements = 0;
@@ -112,12 +134,18 @@ export class StabilityChunk {
   private head = new Int32Array(0);
   private entryCode: number[] = [];
   private entryNext: number[] = [];
+  /** (kept index, grid index) of the kept cells with entries, in the order of their first entry (while `listing` is set) */
+  private flagged: number[] = [];
+  /** set when the current placement's flags become pixels cell by cell rather than by a pass over every pixel */
+  private listing: CellListing | null = null;
 
   constructor(
     private readonly raster: StabilityRaster,
     /** valid pixels, row * width + col (stability-raster.ts validPixels) */
     private readonly pixels: Uint32Array,
     private readonly alpha: number,
+    /** for square placements: see SquareCellPixels (absent: every pixel is located in every placement) */
+    private readonly squareCells: SquareCellPixels | null = null,
   ) {
     this.buffers = buffersFor(pixels.length);
     this.buffers.owner = this;
@@ -128,9 +156,12 @@ export class StabilityChunk {
 
   /**
    * Starts a placement: finds each valid pixel's kept cell (or none) and counts the pixels in no kept cell.
-   * Cost O(V) cell-of-point evaluations plus O(grid cells).
+   * Cost O(V) cell-of-point evaluations plus O(grid cells). A square placement that keeps every cell of coverage 1
+   * (`wholeCellsKept`: no baseline narrows the kept cells), with the chunk's SquareCellPixels, locates only the pixels
+   * near the boundary: every other pixel's cell has coverage 1 in every placement (boundary-pixels.ts), so it is kept;
+   * its flags then become pixels cell by cell (flushPlacement). Cost O(boundary pixels) plus O(grid cells).
    */
-  beginPlacement(cellOf: PixelCellLocator, grid: GridExtent, kept: KeptCells, square: SquarePixelFrame | null = null): void {
+  beginPlacement(cellOf: PixelCellLocator, grid: GridExtent, kept: KeptCells, square: SquarePixelFrame | null = null, wholeCellsKept = false): void {
     this.checkOwner();
     this.flushPlacement();
     this.placements += 1;
@@ -142,7 +173,12 @@ export class StabilityChunk {
     for (let k = 0; k < m; k++) keptOfCell[kept.index[k]!] = k;
     if (this.head.length < m) this.head = new Int32Array(m);
     this.head.fill(-1, 0, m);
-    if (square !== null) this.locateSquare(square, grid);
+    this.listing = null;
+    if (square !== null && this.squareCells !== null && wholeCellsKept) {
+      const listing = { cells: new SquarePixelCells(this.raster, square, grid), grid, kept };
+      this.locateNearBoundary(listing.cells, this.squareCells.nearBoundary);
+      this.listing = listing;
+    } else if (square !== null) this.locateSquare(new SquarePixelCells(this.raster, square, grid));
     else this.locate(cellOf);
   }
 
@@ -162,51 +198,46 @@ export class StabilityChunk {
     }
   }
 
-  /**
-   * locate() for squares: the contract's floor((dx cos + dy sin) / s - u) through multiplications by 1 / s (the row's
-   * terms once per row), exact away from the cell edges; within `band` (cell units, far above the rounding of either
-   * form) of an edge the contract's division decides, as in the counting kernel (workers/lattice/square).
-   */
-  private locateSquare(square: SquarePixelFrame, grid: GridExtent): void {
+  /** locate() for squares (square-pixel-cells.ts), every valid pixel. */
+  private locateSquare(cells: SquarePixelCells): void {
     const { pixels, keptOfCell } = this;
     const { pixelKept, notKept } = this.buffers;
-    const { x0, y0, side, width } = this.raster;
-    const { i0, j0, nx, ny } = grid;
-    const { originX, originY, cos, sin, cellSize, u, v } = square;
-    const band = Math.max(2 ** -20, 2 ** -40 * (Math.abs(i0) + Math.abs(j0) + nx + ny + 2));
-    const inverse = 1 / cellSize;
-    const cosOver = cos * inverse;
-    const sinOver = sin * inverse;
+    const width = this.raster.width;
     let rowStart = 0;
     let rowEnd = -1;
-    let dy = 0;
-    let rowX = 0;
-    let rowY = 0;
     for (let q = 0; q < pixels.length; q++) {
       const pixel = pixels[q]!;
       if (pixel >= rowEnd || pixel < rowStart) {
         const row = Math.floor(pixel / width);
         rowStart = row * width;
         rowEnd = rowStart + width;
-        dy = y0 - (row + 0.5) * side - originY;
-        rowX = dy * sinOver - u;
-        rowY = dy * cosOver - v;
+        cells.setRow(row);
       }
-      const dx = x0 + (pixel - rowStart + 0.5) * side - originX;
-      const x = dx * cosOver + rowX;
-      const y = rowY - dx * sinOver;
-      let fi = Math.floor(x);
-      let fj = Math.floor(y);
-      if (x - fi < band || x - fi > 1 - band || y - fj < band || y - fj > 1 - band) {
-        // workers/geometry/grid-frame.ts cellUnitX / cellUnitY, the grid contract's order of operations, inline
-        fi = Math.floor((dx * cos + dy * sin) / cellSize - u);
-        fj = Math.floor((-dx * sin + dy * cos) / cellSize - v);
-      }
-      const gi = fi - i0;
-      const gj = fj - j0;
-      const k = gi >= 0 && gi < nx && gj >= 0 && gj < ny ? keptOfCell[gj * nx + gi]! : -1;
+      const cell = cells.cellOf(pixel - rowStart);
+      const k = cell < 0 ? -1 : keptOfCell[cell]!;
       pixelKept[q] = k;
       if (k < 0) notKept.add(q);
+    }
+  }
+
+  /** Counts the pixels near the boundary (positions `near`) that lie in no kept cell; the others are all kept. */
+  private locateNearBoundary(cells: SquarePixelCells, near: Uint32Array): void {
+    const { pixels, keptOfCell } = this;
+    const { notKept } = this.buffers;
+    const width = this.raster.width;
+    let rowStart = 0;
+    let rowEnd = -1;
+    for (let t = 0; t < near.length; t++) {
+      const q = near[t]!;
+      const pixel = pixels[q]!;
+      if (pixel >= rowEnd || pixel < rowStart) {
+        const row = Math.floor(pixel / width);
+        rowStart = row * width;
+        rowEnd = rowStart + width;
+        cells.setRow(row);
+      }
+      const cell = cells.cellOf(pixel - rowStart);
+      if (cell < 0 || keptOfCell[cell]! < 0) notKept.add(q);
     }
   }
 
@@ -234,6 +265,7 @@ export class StabilityChunk {
     for (let c = 0; c < count; c++) {
       const k = keptIndex === null ? cells[c]! : keptIndex[cells[c]!]!;
       if (k < 0) continue;
+      if (this.listing !== null && this.head[k] === -1) this.flagged.push(k, this.listing.kept.index[k]!);
       this.entryCode.push(code);
       this.entryNext.push(this.head[k]!);
       this.head[k] = this.entryCode.length - 1;
@@ -245,23 +277,88 @@ export class StabilityChunk {
     if (this.buffers.owner !== this) throw new Error('two stability chunks were used at once in one thread: evaluate one chunk after another');
   }
 
-  /** Ends the current placement: one pass over the pixels turns the listed cells into pixels (nothing when none). */
+  /**
+   * Ends the current placement: the listed cells become pixels, by one pass over the pixels, or, when the placement
+   * is listed cell by cell, by visiting each listed cell's pixels (nothing when no cell is listed).
+   */
   private flushPlacement(): void {
     if (this.entryCode.length === 0) return;
-    const { head, entryCode, entryNext, simulated } = this;
-    const { pixelKept, excess, deficit } = this.buffers;
-    for (let q = 0; q < this.pixels.length; q++) {
-      const k = pixelKept[q]!;
-      if (k < 0) continue;
-      for (let e = head[k]!; e >= 0; e = entryNext[e]!) {
-        const code = entryCode[e]!;
-        if (code === OBSERVED_EXCESS) excess.add(q);
-        else if (code === OBSERVED_DEFICIT) deficit.add(q);
-        else simulated.push(code, q);
+    if (this.listing !== null) this.flushCells(this.listing);
+    else {
+      const { pixelKept } = this.buffers;
+      for (let q = 0; q < this.pixels.length; q++) {
+        const k = pixelKept[q]!;
+        if (k >= 0) this.addEntries(k, q);
       }
     }
     this.entryCode = [];
     this.entryNext = [];
+    this.flagged = [];
+  }
+
+  /** The entries of kept cell k for pixel q. */
+  private addEntries(k: number, q: number): void {
+    const { head, entryCode, entryNext, simulated } = this;
+    const { excess, deficit } = this.buffers;
+    for (let e = head[k]!; e >= 0; e = entryNext[e]!) {
+      const code = entryCode[e]!;
+      if (code === OBSERVED_EXCESS) excess.add(q);
+      else if (code === OBSERVED_DEFICIT) deficit.add(q);
+      else simulated.push(code, q);
+    }
+  }
+
+  /**
+   * Each listed cell's pixels: the valid pixels whose centres lie in the rows and columns that the cell's corners
+   * span, one pixel wider each way, are located (square-pixel-cells.ts, the same arithmetic as locating every pixel)
+   * and take the cell's entries when they fall in it. Cost O(listed cells x (pixels per cell + rows per cell)).
+   */
+  private flushCells(listing: CellListing): void {
+    const { cells, grid } = listing;
+    const { rowFirst, col0, col1, q0 } = this.squareCells!.runs;
+    const { x0, y0, side, width, height } = this.raster;
+    const frame = cells.frame;
+    const flagged = this.flagged;
+    for (let f = 0; f < flagged.length; f += 2) {
+      const k = flagged[f]!;
+      const index = flagged[f + 1]!;
+      const gj = Math.floor(index / grid.nx);
+      const i = index - gj * grid.nx + grid.i0;
+      const j = gj + grid.j0;
+      // the cell's corners in planar metres (grid-frame.ts fromCellUnits: x' = (X + u) s, then rotated by +t)
+      let xMin = Infinity;
+      let xMax = -Infinity;
+      let yMin = Infinity;
+      let yMax = -Infinity;
+      for (let corner = 0; corner < 4; corner++) {
+        const xPrime = (i + (corner & 1) + frame.u) * frame.cellSize;
+        const yPrime = (j + (corner >> 1) + frame.v) * frame.cellSize;
+        const x = frame.originX + xPrime * frame.cos - yPrime * frame.sin;
+        const y = frame.originY + xPrime * frame.sin + yPrime * frame.cos;
+        if (x < xMin) xMin = x;
+        if (x > xMax) xMax = x;
+        if (y < yMin) yMin = y;
+        if (y > yMax) yMax = y;
+      }
+      const rowFrom = Math.max(0, Math.floor((y0 - yMax) / side - 0.5) - 1);
+      const rowTo = Math.min(height - 1, Math.ceil((y0 - yMin) / side - 0.5) + 1);
+      const colFrom = Math.max(0, Math.floor((xMin - x0) / side - 0.5) - 1);
+      const colTo = Math.min(width - 1, Math.ceil((xMax - x0) / side - 0.5) + 1);
+      for (let row = rowFrom; row <= rowTo; row++) {
+        let rowSet = false;
+        for (let t = rowFirst[row]!; t < rowFirst[row + 1]!; t++) {
+          const from = Math.max(colFrom, col0[t]!);
+          const to = Math.min(colTo + 1, col1[t]!);
+          for (let col = from; col < to; col++) {
+            if (!rowSet) {
+              cells.setRow(row);
+              rowSet = true;
+            }
+            if (cells.cellOf(col) === index) this.addEntries(k, q0[t]! + col - col0[t]!);
+          }
+        }
+      }
+    }
   }
 
   /** Values this chunk appends to the chunk result (ends the last placement). */

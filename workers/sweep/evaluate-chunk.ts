@@ -11,7 +11,7 @@ import type { BaselineWeigher } from '../baseline/baseline-weights.js';
 import { poolCounts, relabelledChiSquare } from '../baseline/relabelled-chi-square.js';
 import { keptIndexOfCoverage, RelabelledFlagInput } from '../baseline/relabelled-flags.js';
 import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
-import { StabilityChunk } from '../stability/stability-chunk.js';
+import { StabilityChunk, type SquareCellPixels } from '../stability/stability-chunk.js';
 import { summarizeWeights } from '../stability/cell-flags.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
@@ -33,7 +33,7 @@ export interface ChunkContext {
   /** expected counts proportional to this baseline (workers/baseline) instead of area; absent means area */
   baseline?: BaselineWeigher;
   /** the stability surface's raster and its valid pixels (workers/stability); absent: no surface */
-  stability?: { raster: StabilityRaster; pixels: Uint32Array };
+  stability?: { raster: StabilityRaster; pixels: Uint32Array; squareCells?: SquareCellPixels };
 }
 
 /**
@@ -54,7 +54,7 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
   const count = placements.length / 3;
   const sims = context.simulated.length;
   const result = new Float64Array(chunkResultLength(count, sims));
-  const stability = context.stability === undefined ? null : new StabilityChunk(context.stability.raster, context.stability.pixels, context.alpha);
+  const stability = context.stability === undefined ? null : new StabilityChunk(context.stability.raster, context.stability.pixels, context.alpha, context.stability.squareCells ?? null);
   const labelling = new RelabelledFlagInput();
   // the grid, kept cells and counts of one placement live in the thread's buffers until the next placement
   const buffers = THREAD_BUFFERS;
@@ -81,6 +81,8 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
         evaluated.grid,
         evaluated.kept,
         squarePixelFrame(context.shape, context.origin, context.cellSize, placement),
+        // without a baseline the kept cells are those of the coverage rule, every whole cell among them
+        context.baseline === undefined,
       );
       stability.addObserved(evaluated.observed, flagWeights);
     }
