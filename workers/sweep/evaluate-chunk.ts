@@ -3,8 +3,8 @@
  * the kept cells, the observed counts and all statistics, then the dispersion chi-square of every simulated
  * pattern (CSR, or the baseline's null: workers/baseline) at the same kept cells with the same expected weights.
  */
-import { compactKeptCounts, createPlacementBuffers, evaluatePlacement, type CellCounter } from '../placement/index.js';
-import { dispersionChiSquare, isSignificant } from '../stats/index.js';
+import { createPlacementBuffers, evaluatePlacement, type CellCounter } from '../placement/index.js';
+import { gatheredDispersionChiSquare, isSignificant } from '../stats/index.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { Origin, Placement, Region } from '../types.js';
 import type { BaselineWeigher } from '../baseline/baseline-weights.js';
@@ -103,8 +103,8 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
       }
       // the observed counts are in the statistics and the flags now, and nothing after this reads the grid's counts:
       // the pattern's kept counts go over their start
-      const counts = compactKeptCounts(scratch, evaluated.kept);
-      const { chi2, df, points } = dispersionChiSquare(counts, expectation.weights);
+      const { chi2, df, points } = gatheredDispersionChiSquare(scratch, evaluated.kept.index, expectation.weights);
+      const counts = scratch.subarray(0, evaluated.kept.index.length);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
       if (stability !== null) stability.addSimulated(r, counts, flagWeights, null, { total: points, weights: weightSummary! });

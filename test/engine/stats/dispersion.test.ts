@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   cellSizeForExpected, criticalValues, dispersionChiSquare, dispersionVerdict, expectedPointsPerCell,
-  isSignificant, varianceToMeanRatio, verdictByCriticalValues,
+  gatheredDispersionChiSquare, isSignificant, varianceToMeanRatio, verdictByCriticalValues,
 } from '../../../workers/stats/index.js';
 
 describe('dispersionChiSquare(counts, coverage)', () => {
@@ -47,6 +47,28 @@ describe('dispersionChiSquare(counts, coverage)', () => {
         return df === list.length - 1 && Math.abs(chi2 - expected) <= 1e-9 * Math.max(1, expected);
       }),
       { seed: 20240611, numRuns: 500 },
+    );
+  });
+});
+
+describe('gatheredDispersionChiSquare(gridCounts, keptIndex, coverage)', () => {
+  it('gives dispersionChiSquare of the gathered counts to the last bit and leaves them over the start of the grid (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.record({ count: fc.nat(40), kept: fc.boolean(), whole: fc.boolean(), share: fc.double({ min: 1e-6, max: 1, noNaN: true }) }), { minLength: 2, maxLength: 300 }),
+        (cells) => {
+          const grid = Int32Array.from(cells, (cell) => cell.count);
+          const keptIndex = Int32Array.from(cells.flatMap((cell, k) => (cell.kept ? [k] : [])));
+          const coverage = Float64Array.from(keptIndex, (k) => (cells[k]!.whole ? 1 : cells[k]!.share));
+          const gathered = Float64Array.from(keptIndex, (k) => grid[k]!);
+          const expected = dispersionChiSquare(gathered, coverage);
+          const result = gatheredDispersionChiSquare(grid, keptIndex, coverage);
+          expect(Object.is(result.chi2, expected.chi2)).toBe(true);
+          expect([result.df, result.points]).toEqual([expected.df, expected.points]);
+          expect(Array.from(grid.subarray(0, keptIndex.length))).toEqual(Array.from(gathered));
+        },
+      ),
+      { numRuns: 300 },
     );
   });
 });
