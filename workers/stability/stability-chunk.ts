@@ -309,42 +309,59 @@ export class StabilityChunk {
   }
 
   /**
-   * Each listed cell's pixels: the valid pixels whose centres lie in the rows and columns that the cell's corners
-   * span, one pixel wider each way, are located (square-pixel-cells.ts, the same arithmetic as locating every pixel)
-   * and take the cell's entries when they fall in it. Cost O(listed cells x (pixels per cell + rows per cell)).
+   * Each listed cell's pixels: in each raster row the cell's corners span, the valid pixels whose centres lie within
+   * one pixel of the cell's extent along that row (its edges cut by the row's centre line) are located
+   * (square-pixel-cells.ts, the same arithmetic as locating every pixel) and take the cell's entries when they fall in
+   * it. A pixel the contract puts in the cell lies in it to within rounding (far below a pixel), so none is missed.
+   * Cost O(listed cells x (pixels per cell + rows per cell)).
    */
   private flushCells(listing: CellListing): void {
     const { cells, grid } = listing;
     const { rowFirst, col0, col1, q0 } = this.squareCells!.runs;
-    const { x0, y0, side, width, height } = this.raster;
+    const { x0, y0, side, height } = this.raster;
     const frame = cells.frame;
     const flagged = this.flagged;
+    // the cell's corners in order around it: (i, j), (i + 1, j), (i + 1, j + 1), (i, j + 1)
+    const cornerX = new Float64Array(4);
+    const cornerY = new Float64Array(4);
     for (let f = 0; f < flagged.length; f += 2) {
       const k = flagged[f]!;
       const index = flagged[f + 1]!;
       const gj = Math.floor(index / grid.nx);
       const i = index - gj * grid.nx + grid.i0;
       const j = gj + grid.j0;
-      // the cell's corners in planar metres (grid-frame.ts fromCellUnits: x' = (X + u) s, then rotated by +t)
-      let xMin = Infinity;
-      let xMax = -Infinity;
       let yMin = Infinity;
       let yMax = -Infinity;
       for (let corner = 0; corner < 4; corner++) {
-        const xPrime = (i + (corner & 1) + frame.u) * frame.cellSize;
-        const yPrime = (j + (corner >> 1) + frame.v) * frame.cellSize;
-        const x = frame.originX + xPrime * frame.cos - yPrime * frame.sin;
-        const y = frame.originY + xPrime * frame.sin + yPrime * frame.cos;
-        if (x < xMin) xMin = x;
-        if (x > xMax) xMax = x;
-        if (y < yMin) yMin = y;
-        if (y > yMax) yMax = y;
+        // planar metres (grid-frame.ts fromCellUnits: x' = (X + u) s, then rotated by +t)
+        const xPrime = (i + (corner === 1 || corner === 2 ? 1 : 0) + frame.u) * frame.cellSize;
+        const yPrime = (j + (corner >= 2 ? 1 : 0) + frame.v) * frame.cellSize;
+        cornerX[corner] = frame.originX + xPrime * frame.cos - yPrime * frame.sin;
+        cornerY[corner] = frame.originY + xPrime * frame.sin + yPrime * frame.cos;
+        yMin = Math.min(yMin, cornerY[corner]!);
+        yMax = Math.max(yMax, cornerY[corner]!);
       }
       const rowFrom = Math.max(0, Math.floor((y0 - yMax) / side - 0.5) - 1);
       const rowTo = Math.min(height - 1, Math.ceil((y0 - yMin) / side - 0.5) + 1);
-      const colFrom = Math.max(0, Math.floor((xMin - x0) / side - 0.5) - 1);
-      const colTo = Math.min(width - 1, Math.ceil((xMax - x0) / side - 0.5) + 1);
       for (let row = rowFrom; row <= rowTo; row++) {
+        // the cell's extent along the row's centre line (clamped into the cell's y-range for the rows beyond it)
+        const y = Math.min(yMax, Math.max(yMin, y0 - (row + 0.5) * side));
+        let xLow = Infinity;
+        let xHigh = -Infinity;
+        for (let edge = 0; edge < 4; edge++) {
+          const ax = cornerX[edge]!;
+          const ay = cornerY[edge]!;
+          const bx = cornerX[(edge + 1) & 3]!;
+          const by = cornerY[(edge + 1) & 3]!;
+          if (y < Math.min(ay, by) || y > Math.max(ay, by)) continue;
+          const x = ay === by ? ax : ax + ((y - ay) * (bx - ax)) / (by - ay);
+          const other = ay === by ? bx : x;
+          xLow = Math.min(xLow, x, other);
+          xHigh = Math.max(xHigh, x, other);
+        }
+        if (!(xLow <= xHigh)) continue;
+        const colFrom = Math.floor((xLow - x0) / side - 0.5) - 1;
+        const colTo = Math.ceil((xHigh - x0) / side - 0.5) + 1;
         let rowSet = false;
         for (let t = rowFirst[row]!; t < rowFirst[row + 1]!; t++) {
           const from = Math.max(colFrom, col0[t]!);
