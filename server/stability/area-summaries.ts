@@ -1,7 +1,8 @@
 /**
  * Every stable area of a stability surface (stable-areas.ts) as summary.json and the areas' GeoJSON write it: kind,
  * largest share, area in km^2 (6 significant digits) and the planar rings rounded to the centimetre. summary.json keeps
- * a capped list of these (stability-summary.ts); the GeoJSON files all of them. Cost O(pixels + ring vertices).
+ * a capped list of these (stability-summary.ts); the GeoJSON files all of them. Cost O(pixels + ring vertices) the first
+ * time per surface; both callers of a sweep (the summary, then the files) get the same list, traced once.
  */
 import type { StableAreaSummary } from '../../shared/contracts.js';
 import type { StabilitySurface } from './stability-accumulator.js';
@@ -9,7 +10,18 @@ import { stableAreas } from './stable-areas.js';
 
 const round = (value: number): number => Math.round(value * 100) / 100;
 
-export function areaSummaries(surface: StabilitySurface): StableAreaSummary[] {
+const traced = new WeakMap<StabilitySurface, readonly StableAreaSummary[]>();
+
+export function areaSummaries(surface: StabilitySurface): readonly StableAreaSummary[] {
+  let summaries = traced.get(surface);
+  if (summaries === undefined) {
+    summaries = traceAreas(surface);
+    traced.set(surface, summaries);
+  }
+  return summaries;
+}
+
+function traceAreas(surface: StabilitySurface): StableAreaSummary[] {
   return stableAreas(surface).map((area) => ({
     kind: area.kind,
     maxShare: area.maxShare,

@@ -19,8 +19,11 @@ export class SizeResults {
   private readonly observedSignificant: Uint8Array;
   private readonly simulated: Float64Array;
   private readonly simulatedSignificant: Uint8Array;
-  /** the stability surface being folded (null when the sweep computes none) */
+  /** the stability surface being folded (null when the sweep computes none), and once finished the surface */
   private stability: StabilityAccumulator | null = null;
+  private surface: StabilitySurface | null = null;
+  /** placements whose chunk results are in */
+  private received = 0;
 
   constructor(
     readonly sizeIndex: number,
@@ -50,9 +53,20 @@ export class SizeResults {
     return this.stability?.raster;
   }
 
-  /** The stability surface and its calibration at the two-sided level alpha; null when not enabled. */
+  /** Whether every placement's chunk result is in. */
+  get complete(): boolean {
+    return this.received === this.placements.length / 3;
+  }
+
+  /**
+   * The stability surface and its calibration at the two-sided level alpha; null when not enabled. Made once, when
+   * every chunk is in (the sweep asks as soon as this size is complete, while the workers go on with the next).
+   */
   stabilitySurface(alpha: number): StabilitySurface | null {
-    return this.stability?.finish(this.shape, this.cellSize, this.placements.length / 3, alpha) ?? null;
+    if (this.stability === null) return null;
+    if (!this.complete) throw new Error(`the stability surface of cell size ${this.cellSize} m was asked for before all its placements were in`);
+    this.surface ??= this.stability.finish(this.shape, this.cellSize, this.placements.length / 3, alpha);
+    return this.surface;
   }
 
   /** Stores the result of the chunk of placements first .. first + count - 1. Cost O(count (F + R)). */
@@ -81,6 +95,7 @@ export class SizeResults {
       }
     }
     this.stability?.addChunk(result, chunkResultLength(count, this.sims));
+    this.received += count;
   }
 
   /** The size summary with the placement-robust Monte Carlo test when sims > 0. */

@@ -5,7 +5,7 @@
  * not change a single number of the result.
  */
 import { setMaxListeners } from 'node:events';
-import type { Dataset, PlacementRow, Plan, SweepProgress, SweepSummary } from '../../shared/contracts.js';
+import type { Dataset, PlacementRow, Plan, StabilitySizeSummary, SweepProgress, SweepSummary } from '../../shared/contracts.js';
 import { summarizeDataset } from '../inputs/summarize-dataset.js';
 import { insideCount } from '../inputs/inside-points.js';
 import { PACKAGE_VERSION } from '../services/project-paths.js';
@@ -97,10 +97,26 @@ export class ExecutorSweepRunner {
         const placements = planPlacements(plan, latticeOf(shape).anglePeriod);
         return cellSizes.map((cellSize, index) => new SizeResults(shapeIndex * cellSizes.length + index, cellSize, placements, plan.sims, shape));
       });
-      if (options.stability === true) for (const size of sizes) size.enableStability(dataset.region);
+      const enableStability = (): void => {
+        if (options.stability === true) for (const size of sizes) size.enableStability(dataset.region);
+      };
       if (simulation !== null && !this.executor.simulatesInWorkers && !controller.signal.aborted) {
-        await runBounded(simulateTasks(ref, simulation), this.executor.maxInFlight, (work) => guard(this.executor.run(work, controller.signal)), () => controller.signal.aborted);
-      }
+        const simulating = runBounded(simulateTasks(ref, simulation), this.executor.maxInFlight, (work) => guard(this.executor.run(work, controller.signal)), () => controller.signal.aborted);
+        // the valid pixels of every raster are found while the workers draw the patterns
+        enableStability();
+        await simulating;
+      } else enableStability();
+      const bothShapes = new Set(sizes.map((size) => size.shape)).size > 1;
+      // each size's surface, calibration and areas are made as soon as its last chunk is in, while the workers go on
+      const stabilitySummaries = new Map<SizeResults, StabilitySizeSummary>();
+      const summarizeStability = (size: SizeResults): StabilitySizeSummary => {
+        let summary = stabilitySummaries.get(size);
+        if (summary === undefined) {
+          summary = stabilitySummary(size.stabilitySurface(plan.alpha) as StabilitySurface, size.sizeIndex, bothShapes);
+          stabilitySummaries.set(size, summary);
+        }
+        return summary;
+      };
       if (!controller.signal.aborted) {
         const total = sizes.length * plan.placements;
         let done = 0;
@@ -112,6 +128,7 @@ export class ExecutorSweepRunner {
             guard(
               this.executor.run(task, controller.signal).then((result) => {
                 size.addChunk(first, count, result);
+                if (options.stability === true && size.complete) summarizeStability(size);
                 done += count;
                 if (options.onProgress) {
                   const elapsedSeconds = (Date.now() - startedAt.getTime()) / 1000;
@@ -134,10 +151,7 @@ export class ExecutorSweepRunner {
         finishedAt: new Date(),
       });
       const stability = options.stability === true ? sizes.map((size) => size.stabilitySurface(plan.alpha) as StabilitySurface) : [];
-      if (stability.length > 0) {
-        const bothShapes = new Set(sizes.map((size) => size.shape)).size > 1;
-        summary.stability = stability.map((surface, k) => stabilitySummary(surface, sizes[k]!.sizeIndex, bothShapes));
-      }
+      if (stability.length > 0) summary.stability = sizes.map(summarizeStability);
       return { rows: sizes.flatMap((size) => size.rows), summary, stability };
     } finally {
       options.signal?.removeEventListener('abort', onAbort);
