@@ -9,6 +9,7 @@ import { seededRandom } from '../fixtures/seeded-random.js';
 import { poissonLowerTail, poissonUpperTail } from '../../workers/stats/poisson-tails.js';
 import { benjaminiHochberg } from '../../workers/stability/benjamini-hochberg.js';
 import { createCellFlagScratch, criticalLower, criticalUpper, flagCells, summarizeWeights } from '../../workers/stability/cell-flags.js';
+import { gatheredDispersionChiSquare, type ExtremeCells } from '../../workers/stats/dispersion-chi-square.js';
 
 // [k, lambda, scipy poisson.sf(k - 1, lam), scipy poisson.cdf(k, lam)]
 const POISSON: [number, number, number, number][] = [
@@ -117,6 +118,26 @@ describe('cell flags against the step-up over every cell', () => {
     return { excess: family(poissonUpperTail), deficit: family(poissonLowerTail) };
   }
 
+  /**
+   * A sweep's simulated patterns also bring the cells listed while their chi-square was summed (KnownSums.extremes):
+   * bounds that hold every candidate (rates 10 % off), or (every third such trial) a `from` above the critical
+   * count, which must make flagCells go over every cell instead.
+   */
+  function listedExtremes(counts: Float64Array, coverage: Float64Array, alpha: number, trial: number): ExtremeCells | undefined {
+    if (trial % 4 === 1) return undefined;
+    const rate = counts.reduce((sum, c) => sum + c, 0) / coverage.reduce((sum, a) => sum + a, 0);
+    const m = counts.length;
+    const tooHigh = trial % 3 === 0;
+    const extremes: ExtremeCells = {
+      from: tooHigh ? criticalUpper(rate, alpha) + 2 : criticalUpper(rate * 0.9, alpha),
+      to: criticalLower(rate * 1.1, alpha),
+      cells: new Int32Array(m),
+      count: 0,
+    };
+    gatheredDispersionChiSquare(Int32Array.from(counts), Int32Array.from({ length: m }, (_, k) => k), coverage, extremes);
+    return extremes;
+  }
+
   it('the same flagged cells as the definition on 400 null and clustered patterns with partial cells or weights', () => {
     const random = seededRandom(20261203);
     const scratch = createCellFlagScratch();
@@ -134,7 +155,7 @@ describe('cell flags against the step-up over every cell', () => {
       if (counts.every((c) => c === 0)) continue;
       // every other trial passes the sums as a sweep's simulated patterns do (the total with the chi-square, the
       // coverages' summary once per placement): the same flags either way
-      const known = trial % 2 === 0 ? undefined : { total: counts.reduce((sum, c) => sum + c, 0), weights: summarizeWeights(coverage) };
+      const known = trial % 2 === 0 ? undefined : { total: counts.reduce((sum, c) => sum + c, 0), weights: summarizeWeights(coverage), extremes: listedExtremes(counts, coverage, alpha, trial) };
       const found = flagCells(counts, coverage, alpha, scratch, known);
       const expected = bruteForce(counts, coverage, alpha);
       expect(Array.from(scratch.excess.subarray(0, found.excess))).toEqual(expected.excess);

@@ -15,6 +15,7 @@
  * are few (measured: the flags of the simulated patterns were a quarter of the workers' time before).
  */
 import { poissonLowerTail, poissonUpperTail } from '../stats/poisson-tails.js';
+import type { ExtremeCells } from '../stats/dispersion-chi-square.js';
 import { benjaminiHochberg } from './benjamini-hochberg.js';
 
 /** Reusable buffers of flagCells; after a call, excess[0 .. excessCount-1] lists the excess cells (kept order). */
@@ -83,10 +84,16 @@ export function summarizeWeights(coverage: Float64Array): WeightSummary {
   return { area, leastPartial, greatestPartial };
 }
 
-/** The points in the kept cells (sum of the counts) and the coverages' summary, when the caller has them already. */
+/**
+ * The points in the kept cells (sum of the counts) and the coverages' summary, when the caller has them already;
+ * `extremes`: the cells listed while the counts were read (stats gatheredDispersionChiSquare), which spare the pass
+ * over every cell when they hold every cell the first step can take: whole cells with counts from `from` up or up to
+ * `to` (from <= the critical count above, to >= the one below), and every partial cell. Otherwise the pass runs.
+ */
 export interface KnownSums {
   total: number;
   weights: WeightSummary;
+  extremes?: ExtremeCells;
 }
 
 /**
@@ -122,7 +129,11 @@ export function flagCells(counts: ArrayLike<number>, coverage: Float64Array, alp
   const lowerPartial = greatestPartial > 1 ? criticalLower(rate * greatestPartial, alpha) : lower;
   let nAbove = 0;
   let nBelow = 0;
-  for (let k = 0; k < m; k++) {
+  const extremes = known?.extremes;
+  const listed = extremes !== undefined && extremes.from <= upper && extremes.to >= lower ? extremes.cells : null;
+  const visits = listed === null ? m : extremes!.count;
+  for (let t = 0; t < visits; t++) {
+    const k = listed === null ? t : listed[t]!;
     const a = coverage[k]!;
     const o = counts[k]!;
     if (a === 1) {

@@ -35,24 +35,56 @@ export function dispersionChiSquare(counts: ArrayLike<number>, coverage: ArrayLi
 }
 
 /**
+ * Cells a caller wants listed while gatheredDispersionChiSquare reads the counts (workers/stability/cell-flags.ts):
+ * in kept order, every cell whose count is >= from or <= to or whose coverage is not 1. `count` is set by the call.
+ */
+export interface ExtremeCells {
+  from: number;
+  to: number;
+  cells: Int32Array;
+  count: number;
+}
+
+/**
  * dispersionChiSquare of kept cells whose counts are still in grid order: cell c's count is gridCounts[keptIndex[c]],
  * and it is written to gridCounts[c] on the way (the kept counts end up over the start of the grid's counts, as
  * workers/placement compactKeptCounts leaves them; safe because keptIndex increases, so keptIndex[c] >= c). One pass
  * instead of two for every simulated pattern; the same sums in the same order, so the same chi2 to the last bit
- * (x^2 / 1 is x^2 exactly: whole cells skip the division). Cost O(m).
+ * (x^2 / 1 is x^2 exactly: whole cells skip the division). `extremes` (cells.length >= m): its cells are listed in
+ * the same pass. Cost O(m).
  */
-export function gatheredDispersionChiSquare(gridCounts: Int32Array, keptIndex: Int32Array, coverage: ArrayLike<number>): DispersionResult {
+export function gatheredDispersionChiSquare(gridCounts: Int32Array, keptIndex: Int32Array, coverage: ArrayLike<number>, extremes?: ExtremeCells): DispersionResult {
   const cells = keptIndex.length;
   let points = 0;
   let coverageSum = 0;
   let weightedSquares = 0;
-  for (let c = 0; c < cells; c++) {
-    const x = gridCounts[keptIndex[c]!]!;
-    gridCounts[c] = x;
-    const a = coverage[c]!;
-    points += x;
-    coverageSum += a;
-    weightedSquares += a === 1 ? x * x : (x * x) / a;
+  if (extremes === undefined) {
+    for (let c = 0; c < cells; c++) {
+      const x = gridCounts[keptIndex[c]!]!;
+      gridCounts[c] = x;
+      const a = coverage[c]!;
+      points += x;
+      coverageSum += a;
+      weightedSquares += a === 1 ? x * x : (x * x) / a;
+    }
+  } else {
+    const { from, to, cells: listed } = extremes;
+    let count = 0;
+    for (let c = 0; c < cells; c++) {
+      const x = gridCounts[keptIndex[c]!]!;
+      gridCounts[c] = x;
+      const a = coverage[c]!;
+      points += x;
+      coverageSum += a;
+      if (a === 1) {
+        weightedSquares += x * x;
+        if (x >= from || x <= to) listed[count++] = c;
+      } else {
+        weightedSquares += (x * x) / a;
+        listed[count++] = c;
+      }
+    }
+    extremes.count = count;
   }
   return { chi2: chiSquareFromTotals(points, coverageSum, weightedSquares), df: cells - 1, points };
 }

@@ -12,13 +12,14 @@ import { poolCounts, relabelledChiSquare } from '../baseline/relabelled-chi-squa
 import { keptIndexOfCoverage, RelabelledFlagInput } from '../baseline/relabelled-flags.js';
 import { pixelCellLocator, squarePixelFrame } from '../stability/pixel-cells.js';
 import { StabilityChunk, type SquareCellPixels } from '../stability/stability-chunk.js';
-import { summarizeWeights } from '../stability/cell-flags.js';
+import { criticalLower, criticalUpper, summarizeWeights, type WeightSummary } from '../stability/cell-flags.js';
+import type { ExtremeCells } from '../stats/index.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
 import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
 
 /** Counts the points of one pattern per cell of a coverage grid (workers/placement createCellCounter). */
-export type PatternCounter = Pick<CellCounter, 'count'>;
+export type PatternCounter = Pick<CellCounter, 'count' | 'pointCount'>;
 
 export interface ChunkContext {
   region: Region;
@@ -43,6 +44,29 @@ export interface ChunkContext {
  * slower). evaluateChunk is synchronous, so one chunk at a time uses them.
  */
 const THREAD_BUFFERS = createPlacementBuffers();
+
+/** The thread's list of a simulated pattern's extreme cells (extremeBounds), grown to the largest placement's cells. */
+const THREAD_EXTREMES: ExtremeCells = { from: 0, to: 0, cells: new Int32Array(0), count: 0 };
+
+/**
+ * Bounds for listing a CSR pattern's extreme cells while its chi-square is summed (workers/stability/cell-flags.ts
+ * KnownSums): the critical counts of the rates the pattern's points in the kept cells N can give. N <= n, so
+ * `to` = the lower critical count at rate n / A is at least the pattern's own; N below its expectation n p
+ * (p = A s^2 / region area, the kept cells' share of the region) by more than 6 binomial standard deviations is
+ * so rare that `from` is the upper critical count there, and a pattern beyond it (flagCells then finds `from` too
+ * high) gets the full pass. Cost: a few Poisson tails per placement.
+ */
+function extremeBounds(weights: WeightSummary, pointCount: number, regionCells: number, alpha: number, m: number): ExtremeCells {
+  const share = Math.min(1, weights.area / regionCells);
+  const expected = pointCount * share;
+  const spread = Math.sqrt(expected * (1 - share));
+  const extremes = THREAD_EXTREMES;
+  if (extremes.cells.length < m) extremes.cells = new Int32Array(Math.ceil(m * 1.3));
+  extremes.from = criticalUpper(Math.max(0, expected - 6 * spread - 1) / weights.area, alpha);
+  extremes.to = criticalLower(pointCount / weights.area, alpha);
+  extremes.count = 0;
+  return extremes;
+}
 
 /**
  * Evaluates the placements (u, v, angle triples) of one chunk; returns the chunk result laid out as in
@@ -89,6 +113,11 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     // the flags of every simulated pattern test the same weights (flagWeights is expectation.weights here), and each
     // pattern's total comes with its chi-square: flagCells skips its first pass (workers/stability/cell-flags.ts)
     const weightSummary = stability !== null && pool === null && sims > 0 ? summarizeWeights(flagWeights) : null;
+    // CSR patterns (no baseline): their extreme cells are listed while their chi-square is summed
+    const extremes =
+      weightSummary !== null && expectation.expectedFrom === 'area'
+        ? extremeBounds(weightSummary, context.simulated[0]!.pointCount, context.region.area / (context.cellSize * context.cellSize), context.alpha, evaluated.kept.index.length)
+        : undefined;
     for (let r = 0; r < sims; r++) {
       context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
       if (pool !== null) {
@@ -103,11 +132,11 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
       }
       // the observed counts are in the statistics and the flags now, and nothing after this reads the grid's counts:
       // the pattern's kept counts go over their start
-      const { chi2, df, points } = gatheredDispersionChiSquare(scratch, evaluated.kept.index, expectation.weights);
+      const { chi2, df, points } = gatheredDispersionChiSquare(scratch, evaluated.kept.index, expectation.weights, extremes);
       const counts = scratch.subarray(0, evaluated.kept.index.length);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
-      if (stability !== null) stability.addSimulated(r, counts, flagWeights, null, { total: points, weights: weightSummary! });
+      if (stability !== null) stability.addSimulated(r, counts, flagWeights, null, { total: points, weights: weightSummary!, extremes });
     }
   }
   if (stability === null) return result;

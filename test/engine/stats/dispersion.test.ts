@@ -66,6 +66,13 @@ describe('gatheredDispersionChiSquare(gridCounts, keptIndex, coverage)', () => {
           expect(Object.is(result.chi2, expected.chi2)).toBe(true);
           expect([result.df, result.points]).toEqual([expected.df, expected.points]);
           expect(Array.from(grid.subarray(0, keptIndex.length))).toEqual(Array.from(gathered));
+          // the same pass lists the extreme cells: counts >= from or <= to, or coverage not 1
+          const again = Int32Array.from(cells, (cell) => cell.count);
+          const extremes = { from: 7, to: 1, cells: new Int32Array(keptIndex.length), count: 0 };
+          const listed = gatheredDispersionChiSquare(again, keptIndex, coverage, extremes);
+          expect(Object.is(listed.chi2, expected.chi2)).toBe(true);
+          const wanted = [...gathered.keys()].filter((c) => gathered[c]! >= 7 || gathered[c]! <= 1 || coverage[c] !== 1);
+          expect(Array.from(extremes.cells.subarray(0, extremes.count))).toEqual(wanted);
         },
       ),
       { numRuns: 300 },
