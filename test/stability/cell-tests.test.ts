@@ -86,6 +86,25 @@ describe('critical counts and cell flags', () => {
     expect(scratch.deficit[0]).toBe(1); // the cell holding 3
   });
 
+  it('a listing of extreme cells whose bounds miss a candidate is not used: every cell is visited', () => {
+    // as above (scipy: P(X >= 45; 20) = 1.06e-6); the listing starts at 46, above the critical count of the rate
+    const counts = Int32Array.from([45, 3, 20, 19, 21, 18, 22, 17, 16, 19]);
+    const coverage = new Float64Array(10).fill(1);
+    const keptIndex = Int32Array.from(counts.keys());
+    const extremes: ExtremeCells = { from: 46, to: 3, cells: new Int32Array(10), count: 0 };
+    const { points } = gatheredDispersionChiSquare(Int32Array.from(counts), keptIndex, coverage, extremes);
+    expect(Array.from(extremes.cells.subarray(0, extremes.count))).toEqual([1]);
+    const scratch = createCellFlagScratch();
+    const known = { total: points, weights: summarizeWeights(coverage), extremes };
+    expect(flagCells(counts, coverage, 0.05, scratch, known)).toEqual({ excess: 1, deficit: 1 });
+    expect(scratch.excess[0]).toBe(0);
+    // bounds that hold: the same answer from the listed cells alone
+    const holding: ExtremeCells = { from: criticalUpper(20, 0.05), to: criticalLower(20, 0.05), cells: new Int32Array(10), count: 0 };
+    gatheredDispersionChiSquare(Int32Array.from(counts), keptIndex, coverage, holding);
+    expect(holding.count).toBeLessThan(10);
+    expect(flagCells(counts, coverage, 0.05, scratch, { ...known, extremes: holding })).toEqual({ excess: 1, deficit: 1 });
+  });
+
   it('a partial cell is tested against its own expected count', () => {
     // N = 60 over coverage 3.25: rate 18.46 per whole cell, the quarter cell expects 4.6 and holds 15
     // (P(X >= 15; 4.615) = 9.7e-5 < 0.05 / 4 by scipy poisson.sf(14, 60 / 3.25 * 0.25))
