@@ -92,7 +92,7 @@ describe('critical counts and cell flags', () => {
     const coverage = new Float64Array(10).fill(1);
     const keptIndex = Int32Array.from(counts.keys());
     const extremes: ExtremeCells = { from: 46, to: 3, cells: new Int32Array(10), count: 0 };
-    const { points } = gatheredDispersionChiSquare(Int32Array.from(counts), keptIndex, coverage, extremes);
+    const { points } = gatheredDispersionChiSquare(Float64Array.from(counts), keptIndex, coverage, extremes);
     expect(Array.from(extremes.cells.subarray(0, extremes.count))).toEqual([1]);
     const scratch = createCellFlagScratch();
     const known = { total: points, weights: summarizeWeights(coverage), extremes };
@@ -100,7 +100,7 @@ describe('critical counts and cell flags', () => {
     expect(scratch.excess[0]).toBe(0);
     // bounds that hold: the same answer from the listed cells alone
     const holding: ExtremeCells = { from: criticalUpper(20, 0.05), to: criticalLower(20, 0.05), cells: new Int32Array(10), count: 0 };
-    gatheredDispersionChiSquare(Int32Array.from(counts), keptIndex, coverage, holding);
+    gatheredDispersionChiSquare(Float64Array.from(counts), keptIndex, coverage, holding);
     expect(holding.count).toBeLessThan(10);
     expect(flagCells(counts, coverage, 0.05, scratch, { ...known, extremes: holding })).toEqual({ excess: 1, deficit: 1 });
   });
@@ -153,7 +153,7 @@ describe('cell flags against the step-up over every cell', () => {
       cells: new Int32Array(m),
       count: 0,
     };
-    gatheredDispersionChiSquare(Int32Array.from(counts), Int32Array.from({ length: m }, (_, k) => k), coverage, extremes);
+    gatheredDispersionChiSquare(Float64Array.from(counts), Int32Array.from({ length: m }, (_, k) => k), coverage, extremes);
     return extremes;
   }
 

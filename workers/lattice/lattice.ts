@@ -6,7 +6,7 @@
  *
  * A new shape is one folder under workers/lattice/ implementing this interface plus one line in registry.ts.
  */
-import type { BandBuffers, CoverageGrid, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
+import type { BandBuffers, CountArray, CoverageGrid, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
 import type { CellShape } from './cell-shape.js';
 
 export interface CellCounter {
@@ -16,7 +16,7 @@ export interface CellCounter {
    * Fill out[(j - j0) * nx + (i - i0)] with the number of points in cell (i, j) of `grid` (out is zeroed first;
    * out.length >= nx * ny). Points whose cell is outside the grid are ignored.
    */
-  count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void;
+  count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void;
 }
 
 /** One placement of a lattice: cell of a point and polygon of a cell, in planar metres. */

@@ -6,7 +6,7 @@
 import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from '../lattice/lattice.js';
 import type { CellShape } from '../lattice/cell-shape.js';
-import type { GridExtent, Origin, Placement } from '../types.js';
+import type { CountArray, GridExtent, Origin, Placement } from '../types.js';
 
 export type { CellCounter } from '../lattice/lattice.js';
 
@@ -16,7 +16,7 @@ export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter
   const others = new Map<CellShape, CellCounter>();
   return {
     pointCount: square.pointCount,
-    count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void {
+    count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       const shape = grid.shape;
       if (shape === undefined || shape === 'square') {
         square.count(grid, cellSize, placement, out);

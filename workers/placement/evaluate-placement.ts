@@ -48,6 +48,8 @@ export interface PlacementBuffers extends BandBuffers {
   counts: Int32Array;
   /** kept counts in kept order, when they are not written over `counts` (countsInKeptOrder) */
   observed: Int32Array;
+  /** a simulated pattern's per-grid-cell counts (workers/types.ts CountArray: float64), sized as `counts` */
+  simulatedCounts: Float64Array;
 }
 
 export function createPlacementBuffers(): PlacementBuffers {
@@ -56,6 +58,7 @@ export function createPlacementBuffers(): PlacementBuffers {
     kept: { index: new Int32Array(0), coverage: new Float64Array(0) },
     counts: new Int32Array(0),
     observed: new Int32Array(0),
+    simulatedCounts: new Float64Array(0),
   };
 }
 

@@ -53,7 +53,7 @@ export interface ExtremeCells {
  * (x^2 / 1 is x^2 exactly: whole cells skip the division). `extremes` (cells.length >= m): its cells are listed in
  * the same pass. Cost O(m).
  */
-export function gatheredDispersionChiSquare(gridCounts: Int32Array, keptIndex: Int32Array, coverage: ArrayLike<number>, extremes?: ExtremeCells): DispersionResult {
+export function gatheredDispersionChiSquare(gridCounts: Float64Array, keptIndex: Int32Array, coverage: ArrayLike<number>, extremes?: ExtremeCells): DispersionResult {
   const cells = keptIndex.length;
   let points = 0;
   let coverageSum = 0;

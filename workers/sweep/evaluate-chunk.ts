@@ -118,25 +118,28 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
       weightSummary !== null && expectation.expectedFrom === 'area'
         ? extremeBounds(weightSummary, context.simulated[0]!.pointCount, context.region.area / (context.cellSize * context.cellSize), context.alpha, evaluated.kept.index.length)
         : undefined;
+    // the patterns' counts in float64 (workers/types.ts CountArray), except for the labellings, whose pool is int32
+    if (pool === null && buffers.simulatedCounts.length < scratch.length) buffers.simulatedCounts = new Float64Array(scratch.length);
+    const simulatedCounts = buffers.simulatedCounts;
     for (let r = 0; r < sims; r++) {
-      context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
-      if (pool !== null) {
-        const { chi2, df } = relabelledChiSquare(scratch, pool, expectation.coverageKept!);
+      if (pool === null) {
+        // the kept counts go over the start of the pattern's grid counts as its chi-square is summed
+        context.simulated[r].count(evaluated.grid, context.cellSize, placement, simulatedCounts);
+        const { chi2, df, points } = gatheredDispersionChiSquare(simulatedCounts, evaluated.kept.index, expectation.weights, extremes);
+        const counts = simulatedCounts.subarray(0, evaluated.kept.index.length);
         result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
         result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
-        if (stability !== null && keptOf !== null) {
-          const m = labelling.fill(scratch, pool, expectation.coverageKept!, keptOf);
-          stability.addSimulated(r, labelling.counts.subarray(0, m), labelling.weights.subarray(0, m), labelling.keptIndex);
-        }
+        if (stability !== null) stability.addSimulated(r, counts, flagWeights, null, { total: points, weights: weightSummary!, extremes });
         continue;
       }
-      // the observed counts are in the statistics and the flags now, and nothing after this reads the grid's counts:
-      // the pattern's kept counts go over their start
-      const { chi2, df, points } = gatheredDispersionChiSquare(scratch, evaluated.kept.index, expectation.weights, extremes);
-      const counts = scratch.subarray(0, evaluated.kept.index.length);
+      context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
+      const { chi2, df } = relabelledChiSquare(scratch, pool, expectation.coverageKept!);
       result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
       result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
-      if (stability !== null) stability.addSimulated(r, counts, flagWeights, null, { total: points, weights: weightSummary!, extremes });
+      if (stability !== null && keptOf !== null) {
+        const m = labelling.fill(scratch, pool, expectation.coverageKept!, keptOf);
+        stability.addSimulated(r, labelling.counts.subarray(0, m), labelling.weights.subarray(0, m), labelling.keptIndex);
+      }
     }
   }
   if (stability === null) return result;

@@ -57,7 +57,7 @@ describe('gatheredDispersionChiSquare(gridCounts, keptIndex, coverage)', () => {
       fc.property(
         fc.array(fc.record({ count: fc.nat(40), kept: fc.boolean(), whole: fc.boolean(), share: fc.double({ min: 1e-6, max: 1, noNaN: true }) }), { minLength: 2, maxLength: 300 }),
         (cells) => {
-          const grid = Int32Array.from(cells, (cell) => cell.count);
+          const grid = Float64Array.from(cells, (cell) => cell.count);
           const keptIndex = Int32Array.from(cells.flatMap((cell, k) => (cell.kept ? [k] : [])));
           const coverage = Float64Array.from(keptIndex, (k) => (cells[k]!.whole ? 1 : cells[k]!.share));
           const gathered = Float64Array.from(keptIndex, (k) => grid[k]!);
@@ -67,7 +67,7 @@ describe('gatheredDispersionChiSquare(gridCounts, keptIndex, coverage)', () => {
           expect([result.df, result.points]).toEqual([expected.df, expected.points]);
           expect(Array.from(grid.subarray(0, keptIndex.length))).toEqual(Array.from(gathered));
           // the same pass lists the extreme cells: counts >= from or <= to, or coverage not 1
-          const again = Int32Array.from(cells, (cell) => cell.count);
+          const again = Float64Array.from(cells, (cell) => cell.count);
           const extremes = { from: 7, to: 1, cells: new Int32Array(keptIndex.length), count: 0 };
           const listed = gatheredDispersionChiSquare(again, keptIndex, coverage, extremes);
           expect(Object.is(listed.chi2, expected.chi2)).toBe(true);

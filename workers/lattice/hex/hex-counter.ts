@@ -29,7 +29,7 @@
  * Cost O(n + cells) per placement; memory: two 32 KB buffers of point indices besides the output.
  */
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
-import type { GridExtent, Origin, Placement } from '../../types.js';
+import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
 import type { CellCounter } from '../lattice.js';
 import { createHexFrame, roundHexInto } from './hex-frame.js';
 
@@ -118,7 +118,7 @@ function countFastBlock(
   steps: Int32Array,
   listed: Int32Array,
   deferred: Int32Array,
-  out: Int32Array,
+  out: CountArray,
 ): void {
   const qx = reals[0]!;
   const qy = reals[1]!;
@@ -176,7 +176,7 @@ function countInlineBlock(
   integers: Int32Array,
   corners: Uint8Array,
   deferred: Int32Array,
-  out: Int32Array,
+  out: CountArray,
 ): void {
   const qx = reals[0]!;
   const qy = reals[1]!;
@@ -235,7 +235,7 @@ function countInlineBlock(
  * the unit cell (header comment), without branches; a point within the band of a bisector goes to `deferred`.
  * q0, r0 >= 1, so fq and fr are exact. Returns the new number of deferred points.
  */
-function countListed(points: Float64Array, reals: Float64Array, integers: Int32Array, listed: Int32Array, deferred: Int32Array, out: Int32Array): number {
+function countListed(points: Float64Array, reals: Float64Array, integers: Int32Array, listed: Int32Array, deferred: Int32Array, out: CountArray): number {
   const qx = reals[0]!;
   const qy = reals[1]!;
   const rx = reals[2]!;
@@ -296,7 +296,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin, inlineFromCel
 
   /** The contract's formula for the deferred points. */
   // the same shape as square-counter.ts's exact pass, apart on purpose: shared, it measured slower (see DEVELOPERS.md)
-  function countExactly(out: Int32Array, deferredCount: number): void {
+  function countExactly(out: CountArray, deferredCount: number): void {
     const frame = exactFrame;
     const i0 = integers[0]!;
     const j0 = integers[1]!;
@@ -316,7 +316,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin, inlineFromCel
   }
 
   /** Every point by the exact pass (grids so far from the origin that the table's margin would not cover the error). */
-  function countAllExactly(out: Int32Array): void {
+  function countAllExactly(out: CountArray): void {
     for (let start = 0; start < pointCount; start += BLOCK) {
       const end = Math.min(pointCount, start + BLOCK);
       for (let p = start; p < end; p++) deferred[p - start] = p;
@@ -326,7 +326,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin, inlineFromCel
 
   return {
     pointCount,
-    count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void {
+    count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       if (grid.shape !== 'hex') throw new RangeError(`the hexagon counter was given a ${grid.shape ?? 'square'} grid`);
       if (out.length < grid.nx * grid.ny) {
         throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);

@@ -14,7 +14,7 @@
  * slower as soon as a second counter (the simulated patterns) was alive in the thread. `npm run bench` measures it.
  * Cost O(n + cells) per placement; memory: a 32 KB buffer of deferred point indices besides the output.
  */
-import type { GridExtent, Origin, Placement } from '../../types.js';
+import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
 import type { CellCounter } from '../lattice.js';
 
@@ -49,7 +49,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
 
   /** The contract's formula (division, Math.floor) for the deferred points. */
   // the same shape as hex-counter.ts's exact pass, apart on purpose: shared, it measured slower (see DEVELOPERS.md)
-  function countExactly(out: Int32Array, deferredCount: number): void {
+  function countExactly(out: CountArray, deferredCount: number): void {
     const ox = reals[0]!;
     const oy = reals[1]!;
     const cos = reals[2]!;
@@ -72,7 +72,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
   }
 
   /** The fast pass over points [start, end), then the exact pass over the points it deferred. */
-  function countBlock(out: Int32Array, start: number, end: number): void {
+  function countBlock(out: CountArray, start: number, end: number): void {
     const cosOverSize = reals[2]! * reals[4]!;
     const sinOverSize = reals[3]! * reals[4]!;
     const shiftX = reals[5]!;
@@ -108,7 +108,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
 
   return {
     pointCount,
-    count(grid: GridExtent, cellSize: number, placement: Placement, out: Int32Array): void {
+    count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
         throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
       }
