@@ -176,9 +176,9 @@ export class StabilityChunk {
     this.listing = null;
     if (square !== null && this.squareCells !== null && wholeCellsKept) {
       const listing = { cells: new SquarePixelCells(this.raster, square, grid), grid, kept };
-      this.locateNearBoundary(listing.cells, this.squareCells.nearBoundary);
+      this.locateSquare(listing.cells, this.squareCells.nearBoundary);
       this.listing = listing;
-    } else if (square !== null) this.locateSquare(new SquarePixelCells(this.raster, square, grid));
+    } else if (square !== null) this.locateSquare(new SquarePixelCells(this.raster, square, grid), null);
     else this.locate(cellOf);
   }
 
@@ -198,14 +198,19 @@ export class StabilityChunk {
     }
   }
 
-  /** locate() for squares (square-pixel-cells.ts), every valid pixel. */
-  private locateSquare(cells: SquarePixelCells): void {
+  /**
+   * locate() for squares (square-pixel-cells.ts): every valid pixel (`near` null, pixelKept set), or only the pixels
+   * at positions `near` (the others lie in kept cells), which are counted in notKept when in no kept cell.
+   */
+  private locateSquare(cells: SquarePixelCells, near: Uint32Array | null): void {
     const { pixels, keptOfCell } = this;
     const { pixelKept, notKept } = this.buffers;
     const width = this.raster.width;
+    const visits = near === null ? pixels.length : near.length;
     let rowStart = 0;
     let rowEnd = -1;
-    for (let q = 0; q < pixels.length; q++) {
+    for (let t = 0; t < visits; t++) {
+      const q = near === null ? t : near[t]!;
       const pixel = pixels[q]!;
       if (pixel >= rowEnd || pixel < rowStart) {
         const row = Math.floor(pixel / width);
@@ -215,29 +220,8 @@ export class StabilityChunk {
       }
       const cell = cells.cellOf(pixel - rowStart);
       const k = cell < 0 ? -1 : keptOfCell[cell]!;
-      pixelKept[q] = k;
+      if (near === null) pixelKept[q] = k;
       if (k < 0) notKept.add(q);
-    }
-  }
-
-  /** Counts the pixels near the boundary (positions `near`) that lie in no kept cell; the others are all kept. */
-  private locateNearBoundary(cells: SquarePixelCells, near: Uint32Array): void {
-    const { pixels, keptOfCell } = this;
-    const { notKept } = this.buffers;
-    const width = this.raster.width;
-    let rowStart = 0;
-    let rowEnd = -1;
-    for (let t = 0; t < near.length; t++) {
-      const q = near[t]!;
-      const pixel = pixels[q]!;
-      if (pixel >= rowEnd || pixel < rowStart) {
-        const row = Math.floor(pixel / width);
-        rowStart = row * width;
-        rowEnd = rowStart + width;
-        cells.setRow(row);
-      }
-      const cell = cells.cellOf(pixel - rowStart);
-      if (cell < 0 || keptOfCell[cell]! < 0) notKept.add(q);
     }
   }
 

@@ -58,34 +58,26 @@ export function gatheredDispersionChiSquare(gridCounts: Float64Array, keptIndex:
   let points = 0;
   let coverageSum = 0;
   let weightedSquares = 0;
-  if (extremes === undefined) {
-    for (let c = 0; c < cells; c++) {
-      const x = gridCounts[keptIndex[c]!]!;
-      gridCounts[c] = x;
-      const a = coverage[c]!;
-      points += x;
-      coverageSum += a;
-      weightedSquares += a === 1 ? x * x : (x * x) / a;
+  // without extremes nothing is listed: no count is >= Infinity or <= -Infinity, and partial cells check `listed`
+  const listed = extremes?.cells ?? null;
+  const from = extremes?.from ?? Number.POSITIVE_INFINITY;
+  const to = extremes?.to ?? Number.NEGATIVE_INFINITY;
+  let count = 0;
+  for (let c = 0; c < cells; c++) {
+    const x = gridCounts[keptIndex[c]!]!;
+    gridCounts[c] = x;
+    const a = coverage[c]!;
+    points += x;
+    coverageSum += a;
+    if (a === 1) {
+      weightedSquares += x * x;
+      if (x >= from || x <= to) listed![count++] = c;
+    } else {
+      weightedSquares += (x * x) / a;
+      if (listed !== null) listed[count++] = c;
     }
-  } else {
-    const { from, to, cells: listed } = extremes;
-    let count = 0;
-    for (let c = 0; c < cells; c++) {
-      const x = gridCounts[keptIndex[c]!]!;
-      gridCounts[c] = x;
-      const a = coverage[c]!;
-      points += x;
-      coverageSum += a;
-      if (a === 1) {
-        weightedSquares += x * x;
-        if (x >= from || x <= to) listed[count++] = c;
-      } else {
-        weightedSquares += (x * x) / a;
-        listed[count++] = c;
-      }
-    }
-    extremes.count = count;
   }
+  if (extremes !== undefined) extremes.count = count;
   return { chi2: chiSquareFromTotals(points, coverageSum, weightedSquares), df: cells - 1, points };
 }
 
