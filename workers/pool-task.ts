@@ -18,7 +18,7 @@ import { createBaselineWeigher, type BaselineWeigher } from './baseline/baseline
 import { createLabellingSampler, createPolygonSampler, type PatternSampler } from './baseline/baseline-sampler.js';
 import { validPixels, type StabilityRaster } from './stability/stability-raster.js';
 import { pixelRuns } from './stability/pixel-runs.js';
-import { pixelsNearBoundary } from './stability/boundary-pixels.js';
+import { pixelsNearBoundary, squareCellReach } from './stability/boundary-pixels.js';
 import type { SquareCellPixels } from './stability/stability-chunk.js';
 
 interface DatasetEntry {
@@ -31,22 +31,19 @@ const samplers = new TaskCache<CsrSampler | PatternSampler>();
 const weighers = new TaskCache<BaselineWeigher>();
 // one simulation at a time: its patterns can be large, and a sweep's patterns are not reused by the next
 const simulations = new TaskCache<PatternCounter[]>(1);
-// the valid pixels of a stability raster, per dataset and raster, and for squares their runs and those near the
-// boundary, per cell size too
+// the valid pixels of a stability raster, per dataset and raster, and for squares without a baseline their runs and
+// those near the boundary, per cell size too (12 bytes per run of a raster row, 4 per pixel near the boundary: a few
+// MB for the largest rasters)
 const rasterPixels = new TaskCache<Uint32Array>(4);
 const squarePixels = new TaskCache<SquareCellPixels>(4);
-
-/** Pixels farther than this from the boundary lie in whole cells only: the cell diagonal, a millionth wider. */
-function squareCellReach(cellSize: number): number {
-  return cellSize * Math.SQRT2 * (1 + 1e-6);
-}
 
 function stabilityOf(task: ChunkTask, region: Region): { raster: StabilityRaster; pixels: Uint32Array; squareCells?: SquareCellPixels } | undefined {
   const raster = task.stability;
   if (raster === undefined) return undefined;
   const key = `${task.datasetKey}:${raster.x0},${raster.y0},${raster.side},${raster.width},${raster.height}`;
   const pixels = rasterPixels.get(key, () => validPixels(region, raster));
-  if ((task.shape ?? 'square') !== 'square') return { raster, pixels };
+  // a baseline's kept cells are not all the whole cells (stability-chunk.ts beginPlacement): no shortcut
+  if ((task.shape ?? 'square') !== 'square' || task.baseline !== undefined) return { raster, pixels };
   const squareCells = squarePixels.get(`${key}:${task.cellSize}`, () => ({
     runs: pixelRuns(pixels, raster.width, raster.height),
     nearBoundary: pixelsNearBoundary(region, raster, pixels, squareCellReach(task.cellSize)),

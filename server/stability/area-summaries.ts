@@ -15,7 +15,8 @@ const traced = new WeakMap<StabilitySurface, readonly StableAreaSummary[]>();
 export function areaSummaries(surface: StabilitySurface): readonly StableAreaSummary[] {
   let summaries = traced.get(surface);
   if (summaries === undefined) {
-    summaries = traceAreas(surface);
+    // frozen, rings included: the summary and the files share these objects, so none may change them
+    summaries = Object.freeze(traceAreas(surface).map((area) => Object.freeze({ ...area, rings: Object.freeze(area.rings.map((ring) => Object.freeze(ring))) as [number, number][][] })));
     traced.set(surface, summaries);
   }
   return summaries;

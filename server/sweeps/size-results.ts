@@ -21,7 +21,7 @@ export class SizeResults {
   private readonly simulatedSignificant: Uint8Array;
   /** the stability surface being folded (null when the sweep computes none), and once finished the surface */
   private stability: StabilityAccumulator | null = null;
-  private surface: StabilitySurface | null = null;
+  private surface: { alpha: number; surface: StabilitySurface } | null = null;
   /** placements whose chunk results are in */
   private received = 0;
 
@@ -65,8 +65,12 @@ export class SizeResults {
   stabilitySurface(alpha: number): StabilitySurface | null {
     if (this.stability === null) return null;
     if (!this.complete) throw new Error(`the stability surface of cell size ${this.cellSize} m was asked for before all its placements were in`);
-    this.surface ??= this.stability.finish(this.shape, this.cellSize, this.placements.length / 3, alpha);
-    return this.surface;
+    if (this.surface === null) {
+      this.surface = { alpha, surface: this.stability.finish(this.shape, this.cellSize, this.placements.length / 3, alpha) };
+    } else if (this.surface.alpha !== alpha) {
+      throw new Error(`the stability surface of cell size ${this.cellSize} m was made at alpha ${this.surface.alpha}, not ${alpha}`);
+    }
+    return this.surface.surface;
   }
 
   /** Stores the result of the chunk of placements first .. first + count - 1. Cost O(count (F + R)). */

@@ -3,7 +3,9 @@
  * work = points x placements x sizes x (1 + sims): one point tested against one placement of one pattern; "sizes"
  * counts every (shape, cell size) pair of the plan; a baseline adds its own work in the same unit (baselineWork). A
  * sweep that also computes the stability surface has surfaceWork = raster pixels x placements x SURFACE_PIXEL_WEIGHT
- * (shared/plan-rules.ts) besides (every placement finds the cell of every pixel); the budget holds work + surfaceWork.
+ * (shared/plan-rules.ts) besides (every placement may find the cell of every pixel: hexagons and baselines do; squares
+ * without a baseline locate only the pixels near the boundary, so for them this is an upper bound, kept so that the
+ * budget's answers do not change); the budget holds work + surfaceWork.
  */
 import type { Plan, SweepEstimate } from '../../shared/contracts.js';
 import type { BaselineSize } from '../../workers/baseline/baseline.js';

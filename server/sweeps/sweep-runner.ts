@@ -103,7 +103,13 @@ export class ExecutorSweepRunner {
       if (simulation !== null && !this.executor.simulatesInWorkers && !controller.signal.aborted) {
         const simulating = runBounded(simulateTasks(ref, simulation), this.executor.maxInFlight, (work) => guard(this.executor.run(work, controller.signal)), () => controller.signal.aborted);
         // the valid pixels of every raster are found while the workers draw the patterns
-        enableStability();
+        try {
+          enableStability();
+        } catch (error) {
+          controller.abort();
+          await simulating;
+          throw error;
+        }
         await simulating;
       } else enableStability();
       const bothShapes = new Set(sizes.map((size) => size.shape)).size > 1;
@@ -142,6 +148,8 @@ export class ExecutorSweepRunner {
       }
       if (options.signal?.aborted) throw sweepCancelledError();
       if (failure !== null) throw fromWorkerError(failure);
+      // stopped otherwise, some sizes are incomplete: no summary of them
+      if (controller.signal.aborted) throw sweepCancelledError();
       const summary = buildSweepSummary({
         plan,
         dataset: summarizeDataset(dataset),

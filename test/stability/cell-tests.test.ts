@@ -98,6 +98,11 @@ describe('critical counts and cell flags', () => {
     const known = { total: points, weights: summarizeWeights(coverage), extremes };
     expect(flagCells(counts, coverage, 0.05, scratch, known)).toEqual({ excess: 1, deficit: 1 });
     expect(scratch.excess[0]).toBe(0);
+    // a listing whose lower bound misses the deficit cell (count 3; the critical count below 20 is higher): not used either
+    const lowTo: ExtremeCells = { from: criticalUpper(20, 0.05), to: 2, cells: new Int32Array(10), count: 0 };
+    gatheredDispersionChiSquare(Float64Array.from(counts), keptIndex, coverage, lowTo);
+    expect(Array.from(lowTo.cells.subarray(0, lowTo.count))).toEqual([0]);
+    expect(flagCells(counts, coverage, 0.05, scratch, { ...known, extremes: lowTo })).toEqual({ excess: 1, deficit: 1 });
     // bounds that hold: the same answer from the listed cells alone
     const holding: ExtremeCells = { from: criticalUpper(20, 0.05), to: criticalLower(20, 0.05), cells: new Int32Array(10), count: 0 };
     gatheredDispersionChiSquare(Float64Array.from(counts), keptIndex, coverage, holding);

@@ -1,7 +1,7 @@
 /**
  * The stability chunk's cell-by-cell path for squares (workers/stability: pixel-runs.ts, boundary-pixels.ts,
- * square-pixel-cells.ts, stability-chunk.ts) gives exactly the chunk content of locating every valid pixel in every
- * placement by the grid contract (shared/design.md: i = floor((dx cos t + dy sin t) / s - u), ...):
+ * square-pixel-cells.ts, stability-chunk.ts) gives the same chunk entries (in another order, which the accumulator's
+ * sums do not see) as locating every valid pixel in every placement by the grid contract (shared/design.md: i = floor((dx cos t + dy sin t) / s - u), ...):
  *  - the row runs give back every valid pixel's position;
  *  - the pixels near the boundary include every valid pixel whose centre lies within the distance of an edge, by
  *    brute-force point-to-segment distance (elementary geometry);
@@ -16,7 +16,7 @@ import { placementCoverage } from '../../workers/geometry/coverage.js';
 import { cellOfPoint, createGridFrame } from '../../workers/geometry/grid-frame.js';
 import { createCellCounter } from '../../workers/placement/index.js';
 import { createRandom } from '../../workers/random/index.js';
-import { pixelsNearBoundary } from '../../workers/stability/boundary-pixels.js';
+import { pixelsNearBoundary, squareCellReach } from '../../workers/stability/boundary-pixels.js';
 import { pixelRuns } from '../../workers/stability/pixel-runs.js';
 import { decodeStability } from '../../workers/stability/stability-chunk.js';
 import { stabilityRaster, validPixels } from '../../workers/stability/stability-raster.js';
@@ -92,7 +92,7 @@ describe('square cell listing: its pieces', () => {
       fc.property(regionArbitrary, fc.double({ min: 30, max: 110, noNaN: true }), placementArbitrary, (region, cellSize, placement) => {
         const raster = stabilityRaster(region, cellSize);
         const pixels = validPixels(region, raster);
-        const reach = cellSize * Math.SQRT2 * (1 + 1e-6);
+        const reach = squareCellReach(cellSize);
         const near = new Set(pixelsNearBoundary(region, raster, pixels, reach));
         const origin = { x: region.bbox.minX, y: region.bbox.minY };
         const grid = placementCoverage(region, origin, cellSize, placement);
@@ -115,9 +115,9 @@ describe('square cell listing: its pieces', () => {
 });
 
 describe('square cell listing: whole chunks', () => {
-  it('observed and simulated flags over 6 placements per chunk list the same pixels as locating every pixel', () => {
+  it('observed and simulated flags over 6 placements per chunk list the same pixels as locating every pixel (minCoverage 0.01 to 1, pixels of s / 8 or coarser than the cells)', () => {
     fc.assert(
-      fc.property(regionArbitrary, fc.integer({ min: 1, max: 1e6 }), fc.double({ min: 50, max: 160, noNaN: true }), (region, seed, cellSize) => {
+      fc.property(regionArbitrary, fc.integer({ min: 1, max: 1e6 }), fc.double({ min: 50, max: 160, noNaN: true }), fc.constantFrom(0.01, 0.5, 1), fc.constantFrom(0, 1.3), (region, seed, cellSize, minCoverage, coarse) => {
         const random = createRandom(seed);
         const origin = { x: region.bbox.minX, y: region.bbox.minY };
         const inRegionBox = (count: number, cluster: boolean): Float64Array => {
@@ -132,16 +132,18 @@ describe('square cell listing: whole chunks', () => {
         };
         const observed = createCellCounter(inRegionBox(600, true), origin);
         const simulated = Array.from({ length: 4 }, () => createCellCounter(inRegionBox(600, false), origin));
-        const raster = stabilityRaster(region, cellSize);
+        // coarse: pixels 1.3 cell sides wide, as when a large region coarsens its raster (many cells per pixel)
+        const fine = stabilityRaster(region, cellSize);
+        const raster = coarse > 0 ? { ...fine, side: coarse * cellSize, width: Math.ceil((fine.width * fine.side) / (coarse * cellSize)), height: Math.ceil((fine.height * fine.side) / (coarse * cellSize)) } : fine;
         const pixels = validPixels(region, raster);
-        const squareCells = { runs: pixelRuns(pixels, raster.width, raster.height), nearBoundary: pixelsNearBoundary(region, raster, pixels, cellSize * Math.SQRT2 * (1 + 1e-6)) };
+        const squareCells = { runs: pixelRuns(pixels, raster.width, raster.height), nearBoundary: pixelsNearBoundary(region, raster, pixels, squareCellReach(cellSize)) };
         const placements = new Float64Array(18);
         for (let k = 0; k < 18; k += 3) {
           placements[k] = random();
           placements[k + 1] = random();
           placements[k + 2] = 90 * random();
         }
-        const context = { region, origin, observed, simulated, cellSize, minCoverage: 0.5, alpha: 0.2 };
+        const context = { region, origin, observed, simulated, cellSize, minCoverage, alpha: 0.2 };
         const everyPixel = evaluateChunk({ ...context, stability: { raster, pixels } }, placements);
         const byCells = evaluateChunk({ ...context, stability: { raster, pixels, squareCells } }, placements);
         const offset = chunkResultLength(6, 4);
@@ -158,7 +160,7 @@ describe('square cell listing: whole chunks', () => {
         // the flags are not empty: the comparison covers listed cells
         expect(a.excess.length + a.simulated.length).toBeGreaterThan(0);
       }),
-      { numRuns: 10 },
+      { numRuns: 24 },
     );
   });
 });

@@ -13,6 +13,14 @@
 import type { Region } from '../types.js';
 import type { StabilityRaster } from './stability-raster.js';
 
+/**
+ * The distance beyond which a pixel centre lies only in whole square cells of side `cellSize`: every point of a cell
+ * holding the centre is within the cell diagonal s sqrt(2) of it; a millionth wider for the rounding of the cell rule.
+ */
+export function squareCellReach(cellSize: number): number {
+  return cellSize * Math.SQRT2 * (1 + 1e-6);
+}
+
 export function pixelsNearBoundary(region: Region, raster: StabilityRaster, pixels: Uint32Array, distance: number): Uint32Array {
   const { x0, y0, side, width, height } = raster;
   const near = new Uint8Array(width * height);

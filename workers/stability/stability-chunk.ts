@@ -1,6 +1,8 @@
 /**
  * The stability surface's share of one chunk task: for each placement of the chunk, the cell of every valid pixel
- * (by the lattice's cell-of-point rule), and per pixel the number of placements in which it lies outside every kept
+ * (by the lattice's cell-of-point rule; for squares without a baseline only the pixels near the boundary are located,
+ * the others lying in whole, kept cells, and flagged cells are turned into their pixels cell by cell: beginPlacement),
+ * and per pixel the number of placements in which it lies outside every kept
  * cell, in an excess cell and in a deficit cell of the observed pattern; for every simulated pattern only the pixels
  * of its excess / deficit cells (under the null such cells are rare).
  *
@@ -127,8 +129,8 @@ export class StabilityChunk {
   private readonly flags: CellFlagScratch = createCellFlagScratch();
   private keptOfCell = new Int32Array(0);
   /**
-   * The current placement's flags, listed per kept cell and turned into pixels by one pass over the pixels when the
-   * placement ends (flushPlacement): head[k] is cell k's first entry (−1: none), entries hold a code (OBSERVED_EXCESS,
+   * The current placement's flags, listed per kept cell and turned into pixels when the placement ends
+   * (flushPlacement: one pass over the pixels, or cell by cell): head[k] is cell k's first entry (−1: none), entries hold a code (OBSERVED_EXCESS,
    * OBSERVED_DEFICIT, or 2 r + kind for simulated pattern r) and the next entry of the same cell.
    */
   private head = new Int32Array(0);
@@ -200,10 +202,11 @@ export class StabilityChunk {
 
   /**
    * locate() for squares (square-pixel-cells.ts): every valid pixel (`near` null, pixelKept set), or only the pixels
-   * at positions `near` (the others lie in kept cells), which are counted in notKept when in no kept cell.
+   * at positions `near` (the others lie in kept cells), which are counted in notKept when in no kept cell. `flush`:
+   * instead, every pixel takes the entries of its kept cell (flushPlacement, before keptOfCell changes).
    */
-  private locateSquare(cells: SquarePixelCells, near: Uint32Array | null): void {
-    const { pixels, keptOfCell } = this;
+  private locateSquare(cells: SquarePixelCells, near: Uint32Array | null, flush = false): void {
+    const { pixels, keptOfCell, head } = this;
     const { pixelKept, notKept } = this.buffers;
     const width = this.raster.width;
     const visits = near === null ? pixels.length : near.length;
@@ -220,6 +223,10 @@ export class StabilityChunk {
       }
       const cell = cells.cellOf(pixel - rowStart);
       const k = cell < 0 ? -1 : keptOfCell[cell]!;
+      if (flush) {
+        if (k >= 0 && head[k]! >= 0) this.addEntries(k, q);
+        continue;
+      }
       if (near === null) pixelKept[q] = k;
       if (k < 0) notKept.add(q);
     }
@@ -267,8 +274,14 @@ export class StabilityChunk {
    */
   private flushPlacement(): void {
     if (this.entryCode.length === 0) return;
-    if (this.listing !== null) this.flushCells(this.listing);
-    else {
+    if (this.listing !== null) {
+      // a cell's scan covers about (its width in pixels + 3)^2 pixels: past one pass over every pixel (many flagged
+      // cells on a raster coarser than the cells), that pass is cheaper
+      const { frame } = this.listing.cells;
+      const span = (frame.cellSize * (Math.abs(frame.cos) + Math.abs(frame.sin))) / this.raster.side + 3;
+      if ((this.flagged.length / 2) * span * span <= this.pixels.length) this.flushCells(this.listing);
+      else this.locateSquare(this.listing.cells, null, true);
+    } else {
       const { pixelKept } = this.buffers;
       for (let q = 0; q < this.pixels.length; q++) {
         const k = pixelKept[q]!;

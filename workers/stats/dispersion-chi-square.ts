@@ -11,8 +11,9 @@ import type { DispersionResult } from '../types.js';
  *
  * Computed in one pass through the identity of chiSquareFromTotals, the same arithmetic as placementStatistics, so
  * that observed and simulated patterns are compared on exactly equal terms.
- * Cost: O(m), one pass over the arrays, no allocation besides the small result object. This is the function run
- * for every simulated CSR pattern and every placement.
+ * Cost: O(m), one pass over the arrays, no allocation besides the small result object. Its one-pass twin for
+ * counts still in grid order, gatheredDispersionChiSquare below, runs for every simulated CSR or polygon-baseline
+ * pattern and every placement; this one for a placement's baseline statistics and the area-only comparison.
  *
  * Reference: K. Pearson (1900), "On the criterion that a given system of deviations from the probable in the case
  * of a correlated system of variables is such that it can be reasonably supposed to have arisen from random

@@ -52,6 +52,15 @@ describe('dispersionChiSquare(counts, coverage)', () => {
 });
 
 describe('gatheredDispersionChiSquare(gridCounts, keptIndex, coverage)', () => {
+  it('gives the hand computation 451/352 from counts still in grid order (kept cells 1, 2, 4, 6 of 7)', () => {
+    // the kept counts [3, 1, 4, 0] and coverages [1, 1/2, 1, 1/4] of the hand computation above, among left-out cells
+    const grid = Float64Array.of(9, 3, 1, 8, 4, 7, 0);
+    const result = gatheredDispersionChiSquare(grid, Int32Array.of(1, 2, 4, 6), Float64Array.of(1, 0.5, 1, 0.25));
+    expect(result.chi2).toBeCloseTo(451 / 352, 14);
+    expect([result.df, result.points]).toEqual([3, 8]);
+    expect(Array.from(grid.subarray(0, 4))).toEqual([3, 1, 4, 0]);
+  });
+
   it('gives dispersionChiSquare of the gathered counts to the last bit and leaves them over the start of the grid (property)', () => {
     fc.assert(
       fc.property(
