@@ -70,9 +70,10 @@ export interface KeptCells {
 
 /**
  * Per-grid-cell counts as a counter writes them: Int32Array for the observed pattern (half the memory of float64: a
- * sweep without simulations holds only these) and for random labellings (workers/baseline), Float64Array for the
- * CSR and polygon-baseline simulated patterns (a second array per thread, 8 bytes per grid cell, only when a sweep
- * has simulations), whose sums and tests then read float64 directly: converting an int32 count
+ * sweep without simulations holds only these), for random labellings (workers/baseline) and for simulated patterns
+ * without the stability surface; Float64Array for the CSR and polygon-baseline simulated patterns of a sweep with the
+ * surface (a second array per thread, 8 bytes per grid cell; why only then: workers/sweep/evaluate-chunk.ts), whose
+ * sums and cell tests then read float64 directly: converting an int32 count
  * to a double made V8's per-cell loops about three times slower (5.4 against 1.7 ns per cell measured for the
  * chi-square's pass; the conversion's false dependency chains the iterations), and counting into float64 was no slower.
  */
