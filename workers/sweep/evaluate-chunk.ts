@@ -39,9 +39,9 @@ export interface ChunkContext {
 
 /**
  * The arrays of one placement (grid band, kept cells, counts), one set per thread, kept from chunk to chunk and
- * between sweeps (about 60 MB per thread after a sweep of 1e7 points; with simulations also the float64 counts of a
- * simulated pattern, 8 bytes per grid cell, and THREAD_EXTREMES, 4 bytes per kept cell: about 45 MB more at 1e7
- * points, one CSR pattern of 1e7 points itself taking 160 MB). Made anew per chunk, a thread dropped that much
+ * between sweeps (about 60 MB per thread after a sweep of 1e7 points; with simulations and the surface also the
+ * float64 counts of a simulated pattern, 8 bytes per grid cell, and THREAD_EXTREMES, 4 bytes per kept cell: about
+ * 45 MB more at 1e7 points, one CSR pattern of 1e7 points itself taking 160 MB). Made anew per chunk, a thread dropped that much
  * per chunk, which stayed in the process's resident memory (measured: 45 MB more peak at 1e7 points, and a second
  * slower). evaluateChunk is synchronous, so one chunk at a time uses them.
  */
