@@ -81,7 +81,7 @@ export function settledCoverage(running: number): number {
 }
 
 /** Prefix sums along each of ny rows turn accumulated signed areas into coverages; float noise is clamped. */
-export function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
+function prefixSumRows(coverage: Float64Array, nx: number, ny: number): void {
   for (let row = 0; row < ny; row++) {
     let running = 0;
     const offset = row * nx;

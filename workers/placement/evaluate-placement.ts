@@ -10,6 +10,7 @@ import type { CellShape } from '../lattice/cell-shape.js';
 import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from './cell-counter.js';
 import { selectCells } from './select-cells.js';
+import { createBandBuffers } from './select-cells-by-band.js';
 import type { ExpectedFrom } from '../baseline/baseline.js';
 import type { BaselineWeigher } from '../baseline/baseline-weights.js';
 import { keepBaselineCells } from '../baseline/keep-baseline-cells.js';
@@ -54,8 +55,7 @@ export interface PlacementBuffers extends BandBuffers {
 
 export function createPlacementBuffers(): PlacementBuffers {
   return {
-    band: new Float64Array(0),
-    kept: { index: new Int32Array(0), coverage: new Float64Array(0) },
+    ...createBandBuffers(),
     counts: new Int32Array(0),
     observed: new Int32Array(0),
     simulatedCounts: new Float64Array(0),

@@ -10,6 +10,7 @@
  */
 import { accumulateRing, assertGridSize, extentOf, ringsInCellUnits, settledCoverage } from '../geometry/coverage.js';
 import type { BandBuffers, GridExtent, KeptCells, Origin, Placement, Region } from '../types.js';
+import { forEachRingEdge } from '../geometry/ring-edges.js';
 import { keepThreshold } from './select-cells.js';
 
 /** Cells per band: 2 MB of float64. */
@@ -29,19 +30,10 @@ export function createBandBuffers(): BandBuffers {
 export function keptCellBound(rings: Float64Array[]): number {
   let twiceArea = 0;
   let crossed = 0;
-  for (const ring of rings) {
-    const vertexCount = ring.length >> 1;
-    let previous = vertexCount - 1;
-    for (let k = 0; k < vertexCount; k++) {
-      const x0 = ring[2 * previous]!;
-      const y0 = ring[2 * previous + 1]!;
-      const x1 = ring[2 * k]!;
-      const y1 = ring[2 * k + 1]!;
-      twiceArea += x0 * y1 - x1 * y0;
-      crossed += Math.SQRT2 * Math.hypot(x1 - x0, y1 - y0) + 3;
-      previous = k;
-    }
-  }
+  forEachRingEdge(rings, (x0, y0, x1, y1) => {
+    twiceArea += x0 * y1 - x1 * y0;
+    crossed += Math.SQRT2 * Math.hypot(x1 - x0, y1 - y0) + 3;
+  });
   return Math.ceil(Math.abs(twiceArea) / 2 + crossed) + 8;
 }
 

@@ -10,6 +10,7 @@
  * whose x lies between the segment's x at the ends of that y-window, so the point's x lies in the marked range.
  * Cost O(edges x rows spanned + marked pixels + raster pixels); memory one byte per raster pixel while it runs.
  */
+import { forEachRingEdge } from '../geometry/ring-edges.js';
 import type { Region } from '../types.js';
 import type { StabilityRaster } from './stability-raster.js';
 
@@ -25,42 +26,33 @@ export function pixelsNearBoundary(region: Region, raster: StabilityRaster, pixe
   const { x0, y0, side, width, height } = raster;
   const near = new Uint8Array(width * height);
   const d = distance;
-  for (const ring of region.rings) {
-    const vertexCount = ring.length >> 1;
-    let previous = vertexCount - 1;
-    for (let k = 0; k < vertexCount; k++) {
-      const ax = ring[2 * previous]!;
-      const ay = ring[2 * previous + 1]!;
-      const bx = ring[2 * k]!;
-      const by = ring[2 * k + 1]!;
-      previous = k;
-      const low = Math.min(ay, by);
-      const high = Math.max(ay, by);
-      // rows whose centre y0 - (row + 1/2) side lies in [low - d, high + d], one row of slack each way
-      const rowFrom = Math.max(0, Math.floor((y0 - high - d) / side - 0.5) - 1);
-      const rowTo = Math.min(height - 1, Math.ceil((y0 - low + d) / side - 0.5) + 1);
-      for (let row = rowFrom; row <= rowTo; row++) {
-        const y = y0 - (row + 0.5) * side;
-        const windowLow = Math.max(low, y - d);
-        const windowHigh = Math.min(high, y + d);
-        let xLow: number;
-        let xHigh: number;
-        if (windowLow > windowHigh) continue;
-        if (by === ay) {
-          xLow = Math.min(ax, bx);
-          xHigh = Math.max(ax, bx);
-        } else {
-          const xa = ax + ((windowLow - ay) * (bx - ax)) / (by - ay);
-          const xb = ax + ((windowHigh - ay) * (bx - ax)) / (by - ay);
-          xLow = Math.min(xa, xb);
-          xHigh = Math.max(xa, xb);
-        }
-        const colFrom = Math.max(0, Math.floor((xLow - d - x0) / side - 0.5) - 1);
-        const colTo = Math.min(width - 1, Math.ceil((xHigh + d - x0) / side - 0.5) + 1);
-        if (colFrom <= colTo) near.fill(1, row * width + colFrom, row * width + colTo + 1);
+  forEachRingEdge(region.rings, (ax, ay, bx, by) => {
+    const low = Math.min(ay, by);
+    const high = Math.max(ay, by);
+    // rows whose centre y0 - (row + 1/2) side lies in [low - d, high + d], one row of slack each way
+    const rowFrom = Math.max(0, Math.floor((y0 - high - d) / side - 0.5) - 1);
+    const rowTo = Math.min(height - 1, Math.ceil((y0 - low + d) / side - 0.5) + 1);
+    for (let row = rowFrom; row <= rowTo; row++) {
+      const y = y0 - (row + 0.5) * side;
+      const windowLow = Math.max(low, y - d);
+      const windowHigh = Math.min(high, y + d);
+      if (windowLow > windowHigh) continue;
+      let xLow: number;
+      let xHigh: number;
+      if (by === ay) {
+        xLow = Math.min(ax, bx);
+        xHigh = Math.max(ax, bx);
+      } else {
+        const xa = ax + ((windowLow - ay) * (bx - ax)) / (by - ay);
+        const xb = ax + ((windowHigh - ay) * (bx - ax)) / (by - ay);
+        xLow = Math.min(xa, xb);
+        xHigh = Math.max(xa, xb);
       }
+      const colFrom = Math.max(0, Math.floor((xLow - d - x0) / side - 0.5) - 1);
+      const colTo = Math.min(width - 1, Math.ceil((xHigh + d - x0) / side - 0.5) + 1);
+      if (colFrom <= colTo) near.fill(1, row * width + colFrom, row * width + colTo + 1);
     }
-  }
+  });
   let count = 0;
   for (let q = 0; q < pixels.length; q++) if (near[pixels[q]!] === 1) count++;
   const positions = new Uint32Array(count);

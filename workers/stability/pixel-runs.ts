@@ -12,12 +12,14 @@ export interface PixelRuns {
   q0: Int32Array;
 }
 
+/** Whether valid pixel q starts a run: the first, after a gap, or at the start of a row. */
+function startsRun(pixels: Uint32Array, q: number, width: number): boolean {
+  return q === 0 || pixels[q]! !== pixels[q - 1]! + 1 || pixels[q]! % width === 0;
+}
+
 export function pixelRuns(pixels: Uint32Array, width: number, height: number): PixelRuns {
   let runs = 0;
-  for (let q = 0; q < pixels.length; q++) {
-    const pixel = pixels[q]!;
-    if (q === 0 || pixel !== pixels[q - 1]! + 1 || pixel % width === 0) runs++;
-  }
+  for (let q = 0; q < pixels.length; q++) if (startsRun(pixels, q, width)) runs++;
   const rowFirst = new Int32Array(height + 1);
   const col0 = new Int32Array(runs);
   const col1 = new Int32Array(runs);
@@ -26,7 +28,7 @@ export function pixelRuns(pixels: Uint32Array, width: number, height: number): P
   for (let q = 0; q < pixels.length; q++) {
     const pixel = pixels[q]!;
     const col = pixel % width;
-    if (q === 0 || pixel !== pixels[q - 1]! + 1 || col === 0) {
+    if (startsRun(pixels, q, width)) {
       t++;
       const row = (pixel - col) / width;
       col0[t] = col;

@@ -20,6 +20,7 @@ import type { GridExtent, KeptCells } from '../types.js';
 import type { PixelCellLocator, SquarePixelFrame } from './pixel-cells.js';
 import type { PixelRuns } from './pixel-runs.js';
 import { SquarePixelCells } from './square-pixel-cells.js';
+import { cellCorners } from '../geometry/grid-frame.js';
 import { createCellFlagScratch, flagCells, type CellFlagScratch, type KnownSums } from './cell-flags.js';
 import type { StabilityRaster } from './stability-raster.js';
 
@@ -120,6 +121,29 @@ interface CellListing {
   cells: SquarePixelCells;
   grid: GridExtent;
   kept: KeptCells;
+}
+
+/**
+ * The x-extent [out[0], out[1]] of a convex quadrilateral (corners x[0..3], y[0..3] in order around it) along the
+ * horizontal line at y; false when the line misses it. Cost O(1).
+ */
+function extentAlong(cornerX: Float64Array, cornerY: Float64Array, y: number, out: Float64Array): boolean {
+  let xLow = Infinity;
+  let xHigh = -Infinity;
+  for (let e = 0; e < 4; e++) {
+    const ax = cornerX[e]!;
+    const ay = cornerY[e]!;
+    const bx = cornerX[(e + 1) & 3]!;
+    const by = cornerY[(e + 1) & 3]!;
+    if (y < Math.min(ay, by) || y > Math.max(ay, by)) continue;
+    const x = ay === by ? ax : ax + ((y - ay) * (bx - ax)) / (by - ay);
+    const other = ay === by ? bx : x;
+    xLow = Math.min(xLow, x, other);
+    xHigh = Math.max(xHigh, x, other);
+  }
+  out[0] = xLow;
+  out[1] = xHigh;
+  return xLow <= xHigh;
 }
 
 export class StabilityChunk {
@@ -314,27 +338,21 @@ export class StabilityChunk {
    */
   private flushCells(listing: CellListing): void {
     const { cells, grid } = listing;
-    const { rowFirst, col0, col1, q0 } = this.squareCells!.runs;
-    const { x0, y0, side, height } = this.raster;
-    const frame = cells.frame;
-    const flagged = this.flagged;
-    // the cell's corners in order around it: (i, j), (i + 1, j), (i + 1, j + 1), (i, j + 1)
+    const { y0, side, height } = this.raster;
+    const extent = new Float64Array(2);
     const cornerX = new Float64Array(4);
     const cornerY = new Float64Array(4);
+    const flagged = this.flagged;
     for (let f = 0; f < flagged.length; f += 2) {
-      const k = flagged[f]!;
       const index = flagged[f + 1]!;
       const gj = Math.floor(index / grid.nx);
-      const i = index - gj * grid.nx + grid.i0;
-      const j = gj + grid.j0;
+      // the cell's corners in planar metres, as a closed ring (the contract's own corners)
+      const ring = cellCorners(cells.frame, index - gj * grid.nx + grid.i0, gj + grid.j0);
       let yMin = Infinity;
       let yMax = -Infinity;
       for (let corner = 0; corner < 4; corner++) {
-        // planar metres (grid-frame.ts fromCellUnits: x' = (X + u) s, then rotated by +t)
-        const xPrime = (i + (corner === 1 || corner === 2 ? 1 : 0) + frame.u) * frame.cellSize;
-        const yPrime = (j + (corner >= 2 ? 1 : 0) + frame.v) * frame.cellSize;
-        cornerX[corner] = frame.originX + xPrime * frame.cos - yPrime * frame.sin;
-        cornerY[corner] = frame.originY + xPrime * frame.sin + yPrime * frame.cos;
+        cornerX[corner] = ring[corner]![0];
+        cornerY[corner] = ring[corner]![1];
         yMin = Math.min(yMin, cornerY[corner]!);
         yMax = Math.max(yMax, cornerY[corner]!);
       }
@@ -342,35 +360,26 @@ export class StabilityChunk {
       const rowTo = Math.min(height - 1, Math.ceil((y0 - yMin) / side - 0.5) + 1);
       for (let row = rowFrom; row <= rowTo; row++) {
         // the cell's extent along the row's centre line (clamped into the cell's y-range for the rows beyond it)
-        const y = Math.min(yMax, Math.max(yMin, y0 - (row + 0.5) * side));
-        let xLow = Infinity;
-        let xHigh = -Infinity;
-        for (let edge = 0; edge < 4; edge++) {
-          const ax = cornerX[edge]!;
-          const ay = cornerY[edge]!;
-          const bx = cornerX[(edge + 1) & 3]!;
-          const by = cornerY[(edge + 1) & 3]!;
-          if (y < Math.min(ay, by) || y > Math.max(ay, by)) continue;
-          const x = ay === by ? ax : ax + ((y - ay) * (bx - ax)) / (by - ay);
-          const other = ay === by ? bx : x;
-          xLow = Math.min(xLow, x, other);
-          xHigh = Math.max(xHigh, x, other);
+        if (extentAlong(cornerX, cornerY, Math.min(yMax, Math.max(yMin, y0 - (row + 0.5) * side)), extent)) this.flushRow(cells, row, extent, flagged[f]!, index);
+      }
+    }
+  }
+
+  /** The valid pixels of `row` within one pixel of [extent[0], extent[1]] that lie in grid cell `index` take kept cell k's entries. */
+  private flushRow(cells: SquarePixelCells, row: number, extent: Float64Array, k: number, index: number): void {
+    const { rowFirst, col0, col1, q0 } = this.squareCells!.runs;
+    const { x0, side } = this.raster;
+    const colFrom = Math.floor((extent[0]! - x0) / side - 0.5) - 1;
+    const colTo = Math.ceil((extent[1]! - x0) / side - 0.5) + 1;
+    let rowSet = false;
+    for (let t = rowFirst[row]!; t < rowFirst[row + 1]!; t++) {
+      const to = Math.min(colTo + 1, col1[t]!);
+      for (let col = Math.max(colFrom, col0[t]!); col < to; col++) {
+        if (!rowSet) {
+          cells.setRow(row);
+          rowSet = true;
         }
-        if (!(xLow <= xHigh)) continue;
-        const colFrom = Math.floor((xLow - x0) / side - 0.5) - 1;
-        const colTo = Math.ceil((xHigh - x0) / side - 0.5) + 1;
-        let rowSet = false;
-        for (let t = rowFirst[row]!; t < rowFirst[row + 1]!; t++) {
-          const from = Math.max(colFrom, col0[t]!);
-          const to = Math.min(colTo + 1, col1[t]!);
-          for (let col = from; col < to; col++) {
-            if (!rowSet) {
-              cells.setRow(row);
-              rowSet = true;
-            }
-            if (cells.cellOf(col) === index) this.addEntries(k, q0[t]! + col - col0[t]!);
-          }
-        }
+        if (cells.cellOf(col) === index) this.addEntries(k, q0[t]! + col - col0[t]!);
       }
     }
   }
