@@ -54,14 +54,15 @@ function stabilityOf(task: ChunkTask, region: Region): { raster: StabilityRaster
 function runChunk(task: ChunkTask): Float64Array {
   const dataset = datasets.get(task.datasetKey, () => ({
     region: unpackRegion(task.region),
-    observed: createCellCounter(new Float64Array(task.points), task.origin),
+    observed: createCellCounter(new Float64Array(task.points, 0, 2 * task.pointCount), task.origin, task.pointsMemory),
   }));
   let simulated: PatternCounter[] = [];
   if (task.simulated !== null && task.simulationKey !== null && task.sims > 0) {
     const buffer = task.simulated;
-    const length = new Float64Array(task.points).length;
+    const memory = task.simulatedMemory;
+    const length = 2 * task.pointCount;
     simulated = simulations.get(task.simulationKey, () =>
-      Array.from({ length: task.sims }, (_, r) => createCellCounter(new Float64Array(buffer, r * length * 8, length), task.origin)),
+      Array.from({ length: task.sims }, (_, r) => createCellCounter(new Float64Array(buffer, r * length * 8, length), task.origin, memory)),
     );
   }
   const baseline = task.baseline;
@@ -82,7 +83,7 @@ function runSimulate(task: SimulateTask): number {
           const unpacked = unpackBaseline(baseline.buffer);
           return unpacked.kind === 'polygons'
             ? createPolygonSampler(unpacked)
-            : createLabellingSampler(new Float64Array(baseline.points), unpacked.controls);
+            : createLabellingSampler(new Float64Array(baseline.points, 0, 2 * task.pointCount), unpacked.controls);
         });
   simulatePatterns(sampler, task.pointCount, task.seed, task.first, task.count, new Float64Array(task.simulated));
   return task.count;
@@ -104,6 +105,6 @@ function collectGarbage(): void {
 export default function poolTask(task: SweepTask): unknown {
   if (task.kind === 'simulate') return runSimulate(task);
   const result = runChunk(task);
-  if (task.points.byteLength / 16 >= COLLECT_FROM_POINTS) collectGarbage();
+  if (task.pointCount >= COLLECT_FROM_POINTS) collectGarbage();
   return move(result);
 }

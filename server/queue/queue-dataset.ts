@@ -13,7 +13,7 @@ const HEADER = 6;
 
 export interface PackedDataset {
   pointCount: number;
-  /** interleaved x, y in shared memory */
+  /** interleaved x, y in shared memory, pointCount points from byte 0 (the buffer may be longer) */
   points: SharedArrayBuffer;
   /** the packed region (workers/sweep/region-buffer.ts) in shared memory */
   region: SharedArrayBuffer;
@@ -24,7 +24,7 @@ export interface PackedDataset {
 
 /** The bytes stored in Redis. */
 export function packDataset(dataset: PackedDataset): Buffer {
-  const points = new Float64Array(dataset.points);
+  const points = new Float64Array(dataset.points, 0, 2 * dataset.pointCount);
   const region = new Float64Array(dataset.region);
   const baseline = dataset.baseline === null ? new Float64Array(0) : new Float64Array(dataset.baseline);
   const values = new Float64Array(HEADER + points.length + region.length + baseline.length);

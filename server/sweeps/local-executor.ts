@@ -12,6 +12,7 @@ import { PACKAGE_ROOT } from '../services/project-paths.js';
 import type { ChunkTask, SimulateTask, SweepTask } from '../../workers/sweep/sweep-task.js';
 import type { ChunkWork, DatasetRef, SimulateWork, SimulationRef, SweepExecutor, SweepWork } from './executor.js';
 import { shareDataset, type SharedDataset } from './shared-dataset.js';
+import { createPointBuffer, type WasmMemory } from '../../workers/wasm/wasm-memory.js';
 
 /**
  * The compiled task entry piscina loads (npm run build): a CommonJS file that lowers the thread's priority below the
@@ -42,7 +43,7 @@ export class LocalExecutor implements SweepExecutor {
   readonly versions: Record<string, string>;
   private readonly pool: Piscina;
   private readonly shared = new Map<string, SharedDataset>();
-  private readonly simulations = new Map<string, SharedArrayBuffer>();
+  private readonly simulations = new Map<string, { buffer: SharedArrayBuffer; memory: WasmMemory | null }>();
   private shares = 0;
 
   constructor(options: LocalExecutorOptions = {}) {
@@ -77,18 +78,22 @@ export class LocalExecutor implements SweepExecutor {
         seed: work.simulation.seed,
         first: work.first,
         count: work.count,
-        simulated: this.simulationBuffer(work.simulation, shared.pointCount),
+        simulated: this.simulationBuffer(work.simulation, shared.pointCount).buffer,
         ...(shared.baseline === null ? {} : { baseline: { key: shared.key, buffer: shared.baseline, points: shared.points } }),
       } satisfies SimulateTask;
     } else {
+      const simulated = work.simulation === null ? undefined : this.simulationBuffer(work.simulation, shared.pointCount);
       task = {
         kind: 'chunk',
         datasetKey: shared.key,
         points: shared.points,
+        pointCount: shared.pointCount,
+        pointsMemory: shared.memory,
         region: shared.region,
         origin: shared.origin,
         simulationKey: work.simulation?.key ?? null,
-        simulated: work.simulation === null ? null : this.simulationBuffer(work.simulation, shared.pointCount),
+        simulated: simulated?.buffer ?? null,
+        simulatedMemory: simulated?.memory ?? null,
         sims: work.simulation?.sims ?? 0,
         cellSize: work.cellSize,
         shape: work.shape,
@@ -131,12 +136,13 @@ export class LocalExecutor implements SweepExecutor {
     return shared;
   }
 
-  private simulationBuffer(simulation: SimulationRef, pointCount: number): SharedArrayBuffer {
-    let buffer = this.simulations.get(simulation.key);
-    if (buffer === undefined) {
-      buffer = new SharedArrayBuffer(simulation.sims * pointCount * 16);
-      this.simulations.set(simulation.key, buffer);
+  /** The patterns' shared buffer, in a WebAssembly memory when the runtime can make one (the SIMD counting kernel). */
+  private simulationBuffer(simulation: SimulationRef, pointCount: number): { buffer: SharedArrayBuffer; memory: WasmMemory | null } {
+    let patterns = this.simulations.get(simulation.key);
+    if (patterns === undefined) {
+      patterns = createPointBuffer(simulation.sims * pointCount * 16);
+      this.simulations.set(simulation.key, patterns);
     }
-    return buffer;
+    return patterns;
   }
 }

@@ -10,10 +10,14 @@ import { packRegion } from '../../workers/sweep/region-buffer.js';
 import { packBaseline } from '../../workers/baseline/baseline-buffer.js';
 import { collectGarbage, COLLECT_FROM_POINTS } from './collect-garbage.js';
 import type { Origin } from '../../workers/types.js';
+import { createPointBuffer, type WasmMemory } from '../../workers/wasm/wasm-memory.js';
 
 export interface SharedDataset {
   key: string;
+  /** the inside points, x y float64 each, from byte 0 (the buffer may be longer: read pointCount points) */
   points: SharedArrayBuffer;
+  /** the shared WebAssembly memory whose buffer `points` is (the SIMD counting kernel), or null */
+  memory: WasmMemory | null;
   pointCount: number;
   region: SharedArrayBuffer;
   origin: Origin;
@@ -44,15 +48,19 @@ export function shareDataset(dataset: Dataset, key: string): SharedDataset {
     origin: { x: dataset.origin.x, y: dataset.origin.y },
     baseline: dataset.baseline === undefined ? null : packBaseline(dataset.baseline.engine),
   };
-  const points = isShareableAsIs(dataset) ? (dataset.xy.buffer as SharedArrayBuffer) : sortedCopy(dataset);
+  const points = isShareableAsIs(dataset) ? { buffer: dataset.xy.buffer as SharedArrayBuffer, memory: null } : sortedCopy(dataset);
   // the Morton codes and the sorted temporaries are garbage now; an idle main thread would keep them
   if (shared.pointCount >= COLLECT_FROM_POINTS) collectGarbage();
-  return { ...shared, points };
+  return { ...shared, points: points.buffer, memory: points.memory };
 }
 
-/** The inside points sorted straight into shared memory (insideCoordinates: no gathered copy when all are inside). */
-function sortedCopy(dataset: Dataset): SharedArrayBuffer {
-  const points = new SharedArrayBuffer(insideCount(dataset) * 16);
-  mortonSort(insideCoordinates(dataset), new Float64Array(points));
+/**
+ * The inside points sorted straight into shared memory (insideCoordinates: no gathered copy when all are inside), a
+ * WebAssembly memory where the runtime can make one (createPointBuffer).
+ */
+function sortedCopy(dataset: Dataset): { buffer: SharedArrayBuffer; memory: WasmMemory | null } {
+  const count = insideCount(dataset);
+  const points = createPointBuffer(count * 16);
+  mortonSort(insideCoordinates(dataset), new Float64Array(points.buffer, 0, 2 * count));
   return points;
 }

@@ -7,12 +7,18 @@ import { latticeOf } from '../lattice/registry.js';
 import type { CellCounter } from '../lattice/lattice.js';
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { CountArray, GridExtent, Origin, Placement } from '../types.js';
+import { createWasmSquareCounter } from '../lattice/square/wasm-square-counter.js';
+import type { WasmMemory } from '../wasm/wasm-memory.js';
 
 export type { CellCounter } from '../lattice/lattice.js';
 
-/** A counter over the flat points xy (x0, y0, x1, y1, ...), planar metres, against grid origin `origin`. */
-export function createCellCounter(xy: Float64Array, origin: Origin): CellCounter {
-  const square = latticeOf('square').createCounter(xy, origin);
+/**
+ * A counter over the flat points xy (x0, y0, x1, y1, ...), planar metres, against grid origin `origin`. When xy is a
+ * view of a shared WebAssembly memory (`memory`, workers/wasm/wasm-memory.ts), squares are counted by the WebAssembly
+ * kernel where the runtime can run it (the same counts).
+ */
+export function createCellCounter(xy: Float64Array, origin: Origin, memory: WasmMemory | null = null): CellCounter {
+  const square = (memory === null ? null : createWasmSquareCounter(memory, xy, origin)) ?? latticeOf('square').createCounter(xy, origin);
   const others = new Map<CellShape, CellCounter>();
   return {
     pointCount: square.pointCount,

@@ -6,6 +6,7 @@
 import type { CellShape } from '../lattice/cell-shape.js';
 import type { StabilityRaster } from '../stability/stability-raster.js';
 import type { Origin } from '../types.js';
+import type { WasmMemory } from '../wasm/wasm-memory.js';
 import { STATISTICS_FIELDS } from './statistics-codec.js';
 
 /** Fills simulated CSR patterns first .. first + count - 1 of a shared buffer (pattern r seeded by deriveSeed(seed, r)). */
@@ -22,7 +23,8 @@ export interface SimulateTask {
   simulated: SharedArrayBuffer;
   /**
    * the baseline (workers/baseline/baseline-buffer.ts) whose null the patterns follow instead of CSR, with the key
-   * workers cache its sampler under and the observed inside points (random labelling pools them with the controls)
+   * workers cache its sampler under and the observed inside points (random labelling pools them with the controls;
+   * pointCount of them from byte 0, the buffer may be longer)
    */
   baseline?: { key: string; buffer: SharedArrayBuffer; points: SharedArrayBuffer };
 }
@@ -32,12 +34,18 @@ export interface ChunkTask {
   kind: 'chunk';
   /** identifies the observed points and the region: workers cache what they build from them under this key */
   datasetKey: string;
+  /** the observed points inside the region, x y float64 each, from byte 0 (the buffer may be longer) */
   points: SharedArrayBuffer;
+  pointCount: number;
+  /** the shared WebAssembly memory whose buffer `points` is (workers/wasm/wasm-memory.ts), or null */
+  pointsMemory: WasmMemory | null;
   region: SharedArrayBuffer;
   origin: Origin;
   /** identifies the simulated patterns (null without sims) */
   simulationKey: string | null;
   simulated: SharedArrayBuffer | null;
+  /** the shared WebAssembly memory whose buffer `simulated` is (workers/wasm/wasm-memory.ts), or null */
+  simulatedMemory: WasmMemory | null;
   sims: number;
   cellSize: number;
   /** the cells' shape (workers/lattice); absent means square */

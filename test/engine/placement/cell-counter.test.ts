@@ -6,6 +6,7 @@ import { createCellCounter } from '../../../workers/placement/cell-counter.js';
 import { isMortonSorted, mortonCodes, mortonSort } from '../../../workers/placement/morton-sort.js';
 import type { CoverageGrid, Origin, Placement } from '../../../workers/types.js';
 import { regionFromRings } from '../geometry/region-fixtures.js';
+import { counterKinds } from './counter-kinds.js';
 
 /** The grid contract computed the obvious way (grid-frame.ts, Math.floor) for every point. */
 function bruteForceCounts(xy: Float64Array, origin: Origin, grid: CoverageGrid, cellSize: number, placement: Placement): Int32Array {
@@ -23,7 +24,7 @@ function bruteForceCounts(xy: Float64Array, origin: Origin, grid: CoverageGrid, 
 const square = regionFromRings([[[0, 0], [1000, 0], [1000, 800], [0, 800]]]);
 const origin = { x: 0, y: 0 };
 
-describe('createCellCounter: the counting kernel agrees with the grid contract exactly', () => {
+describe.each(counterKinds)('createCellCounter (%s kernel): the counting kernel agrees with the grid contract exactly', (_kind, makeCounter) => {
   it('random points, placements and cell sizes (points also outside the grid)', () => {
     fc.assert(
       fc.property(
@@ -37,7 +38,7 @@ describe('createCellCounter: the counting kernel agrees with the grid contract e
           const placement = { u, v, angle };
           const grid = placementCoverage(square, origin, cellSize, placement);
           const out = new Int32Array(grid.nx * grid.ny).fill(7);
-          createCellCounter(xy, origin).count(grid, cellSize, placement, out);
+          makeCounter(xy, origin).count(grid, cellSize, placement, out);
           const expected = bruteForceCounts(xy, origin, grid, cellSize, placement);
           expect(Array.from(out)).toEqual(Array.from(expected));
         },
@@ -60,7 +61,7 @@ describe('createCellCounter: the counting kernel agrees with the grid contract e
     for (const placement of [{ u: 0, v: 0, angle: 0 }, { u: 0.5, v: 0.5, angle: 0 }, { u: 0.5, v: 0, angle: 0 }]) {
       const grid = placementCoverage(region, origin, cellSize, placement);
       const out = new Int32Array(grid.nx * grid.ny);
-      createCellCounter(xy, origin).count(grid, cellSize, placement, out);
+      makeCounter(xy, origin).count(grid, cellSize, placement, out);
       expect(Array.from(out)).toEqual(Array.from(bruteForceCounts(xy, origin, grid, cellSize, placement)));
     }
   });
@@ -76,7 +77,7 @@ describe('createCellCounter: the counting kernel agrees with the grid contract e
     for (const placement of [{ u: 0.25, v: 0.75, angle: 0 }, { u: 0.1, v: 0.2, angle: 41 }]) {
       const grid = placementCoverage(region, farOrigin, 50, placement);
       const out = new Int32Array(grid.nx * grid.ny);
-      createCellCounter(xy, farOrigin).count(grid, 50, placement, out);
+      makeCounter(xy, farOrigin).count(grid, 50, placement, out);
       expect(out.reduce((a, b) => a + b, 0)).toBe(2000);
       expect(Array.from(out)).toEqual(Array.from(bruteForceCounts(xy, farOrigin, grid, 50, placement)));
     }
@@ -84,7 +85,7 @@ describe('createCellCounter: the counting kernel agrees with the grid contract e
 
   it('rejects a too short output and a bad cell size', () => {
     const grid = placementCoverage(square, origin, 100, { u: 0, v: 0, angle: 0 });
-    const counter = createCellCounter(new Float64Array([1, 1]), origin);
+    const counter = makeCounter(new Float64Array([1, 1]), origin);
     expect(() => counter.count(grid, 100, { u: 0, v: 0, angle: 0 }, new Int32Array(3))).toThrow(/output holds 3 cells/);
     expect(() => counter.count(grid, 0, { u: 0, v: 0, angle: 0 }, new Int32Array(80))).toThrow(RangeError);
   });
@@ -169,7 +170,7 @@ describe('mortonSort', () => {
   });
 });
 
-describe('createCellCounter over many blocks', () => {
+describe.each(counterKinds)('createCellCounter (%s kernel) over many blocks', (_kind, makeCounter) => {
   it('counts 50000 points (several blocks of the fast pass) exactly as the contract, near-line points included', () => {
     const n = 50000;
     const xy = new Float64Array(2 * n);
@@ -181,7 +182,7 @@ describe('createCellCounter over many blocks', () => {
     for (const placement of [{ u: 0, v: 0, angle: 0 }, { u: 0.4, v: 0.9, angle: 63 }]) {
       const grid = placementCoverage(square, origin, 25, placement);
       const out = new Int32Array(grid.nx * grid.ny);
-      createCellCounter(xy, origin).count(grid, 25, placement, out);
+      makeCounter(xy, origin).count(grid, 25, placement, out);
       expect(Array.from(out)).toEqual(Array.from(bruteForceCounts(xy, origin, grid, 25, placement)));
     }
   });

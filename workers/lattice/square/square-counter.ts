@@ -19,14 +19,24 @@ import { cosSinDegrees } from '../../geometry/grid-frame.js';
 import type { CellCounter } from '../lattice.js';
 
 /** Points per block of the fast pass; also the size of the buffer of points deferred to the exact pass. */
-const BLOCK = 8192;
+export const BLOCK = 8192;
 
 /**
  * Half-width of the band around grid lines where the exact path decides (cell units): 2^-20, widened for grids far
  * from the origin so that it always exceeds the fast path's rounding error (a few ulps of |X| + |u + i0|).
  */
-function nearLineBand(grid: GridExtent): number {
+export function nearLineBand(grid: GridExtent): number {
   return Math.max(2 ** -20, 2 ** -40 * (Math.abs(grid.i0) + Math.abs(grid.j0) + grid.nx + grid.ny + 2));
+}
+
+/** Throws RangeError unless the cell size is a positive finite number and `out` holds the grid's cells. */
+export function checkCountArguments(grid: GridExtent, cellSize: number, out: CountArray): void {
+  if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
+    throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
+  }
+  if (out.length < grid.nx * grid.ny) {
+    throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);
+  }
 }
 
 /** A counter over the flat points xy (x0, y0, x1, y1, ...), planar metres, against grid origin `origin`. */
@@ -109,12 +119,7 @@ export function createSquareCounter(xy: Float64Array, origin: Origin): CellCount
   return {
     pointCount,
     count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
-      if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
-        throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
-      }
-      if (out.length < grid.nx * grid.ny) {
-        throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);
-      }
+      checkCountArguments(grid, cellSize, out);
       const { cos, sin } = cosSinDegrees(placement.angle);
       reals[2] = cos;
       reals[3] = sin;

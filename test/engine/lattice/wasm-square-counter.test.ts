@@ -1,0 +1,116 @@
+import { describe, it, expect } from 'vitest';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { placementCoverage } from '../../../workers/geometry/coverage.js';
+import { createCellCounter } from '../../../workers/placement/cell-counter.js';
+import { createWasmSquareCounter } from '../../../workers/lattice/square/wasm-square-counter.js';
+import { WASM_BASE64 } from '../../../workers/lattice/square/count-kernel-wasm.js';
+import { createPointBuffer, SCRATCH_RESERVE_PAGES, WASM_PAGE, type WasmMemory } from '../../../workers/wasm/wasm-memory.js';
+import { PACKAGE_ROOT } from '../../../server/services/project-paths.js';
+import { regionFromRings } from '../geometry/region-fixtures.js';
+import { pointsInMemory } from '../placement/counter-kinds.js';
+
+const origin = { x: 120, y: -40 };
+const region = regionFromRings([[[120, -40], [2120, -40], [2120, 1460], [120, 1460]]]);
+
+/** n points spread over the region by two irrational rotations, every 13th exactly on a vertical line of the 25 m grid at angle 0. */
+function spread(n: number): Float64Array {
+  const xy = new Float64Array(2 * n);
+  for (let p = 0; p < n; p++) {
+    xy[2 * p] = p % 13 === 0 ? 120 + 25 * (p % 80) : 120 + ((p * 0.7548776662466927) % 1) * 2000;
+    xy[2 * p + 1] = -40 + ((p * 0.5698402909980532) % 1) * 1500;
+  }
+  return xy;
+}
+
+const PLACEMENTS = [{ u: 0, v: 0, angle: 0 }, { u: 0.37, v: 0.81, angle: 23.5 }, { u: 0.9, v: 0.05, angle: 71 }];
+
+describe('the WebAssembly counting kernel', () => {
+  it('its committed binary is the assembly of count-kernel.wat by wabt 1.0.37, the WebAssembly text format reference toolkit', async () => {
+    const tool = pathToFileURL(join(PACKAGE_ROOT, 'tools', 'assemble-wasm.mjs')).href;
+    const { assembleWat } = (await import(tool)) as { assembleWat: (path: string) => Promise<Uint8Array> };
+    const assembled = await assembleWat(join(PACKAGE_ROOT, 'workers', 'lattice', 'square', 'count-kernel.wat'));
+    expect(Buffer.from(WASM_BASE64, 'base64').equals(Buffer.from(assembled))).toBe(true);
+  });
+
+  it('counts into float64 output exactly what it counts into int32 output, and what the JavaScript kernel counts (odd point counts too)', () => {
+    for (const n of [1, 2, 3, 8191, 8193, 20001]) {
+      const xy = spread(n);
+      const inMemory = pointsInMemory(xy);
+      const wasm = createWasmSquareCounter(inMemory.memory, inMemory.xy, origin);
+      expect(wasm).not.toBeNull();
+      for (const placement of PLACEMENTS) {
+        const grid = placementCoverage(region, origin, 25, placement);
+        const expected = new Int32Array(grid.nx * grid.ny);
+        createCellCounter(xy, origin).count(grid, 25, placement, expected);
+        const asInt = new Int32Array(grid.nx * grid.ny).fill(3);
+        const asFloat = new Float64Array(grid.nx * grid.ny).fill(3);
+        wasm!.count(grid, 25, placement, asInt);
+        wasm!.count(grid, 25, placement, asFloat);
+        expect(Array.from(asInt)).toEqual(Array.from(expected));
+        expect(Array.from(asFloat)).toEqual(Array.from(expected));
+        expect(asInt.reduce((a, b) => a + b, 0)).toBe(n);
+      }
+    }
+  });
+
+  it('grows its scratch region when a larger grid comes, and counts with the JavaScript kernel when the memory has no room left', () => {
+    const xy = spread(5000);
+    // a memory without spare pages: no scratch region can be had
+    const full = new (globalThis as unknown as { WebAssembly: { Memory: new (d: object) => WasmMemory } }).WebAssembly.Memory({ initial: 2, maximum: 2, shared: true });
+    const view = new Float64Array(full.buffer, 0, xy.length);
+    view.set(xy);
+    const roomless = createCellCounter(view, origin, full);
+    const roomy = pointsInMemory(xy);
+    const grower = createCellCounter(roomy.xy, origin, roomy.memory);
+    const pagesBefore = roomy.memory.buffer.byteLength / WASM_PAGE;
+    for (const side of [200, 50, 10]) {
+      const grid = placementCoverage(region, origin, side, PLACEMENTS[1]!);
+      const expected = new Int32Array(grid.nx * grid.ny);
+      createCellCounter(xy, origin).count(grid, side, PLACEMENTS[1]!, expected);
+      for (const counter of [roomless, grower]) {
+        const out = new Int32Array(grid.nx * grid.ny);
+        counter.count(grid, side, PLACEMENTS[1]!, out);
+        expect(Array.from(out)).toEqual(Array.from(expected));
+      }
+    }
+    expect(full.buffer.byteLength).toBe(2 * WASM_PAGE);
+    // three sizes, the later ones larger: the region grew, within the reserve
+    const grown = roomy.memory.buffer.byteLength / WASM_PAGE - pagesBefore;
+    expect(grown).toBeGreaterThan(0);
+    expect(grown).toBeLessThanOrEqual(SCRATCH_RESERVE_PAGES);
+  });
+
+  it('two threads counting the same shared memory at once get the contract counts (each its own scratch region)', async () => {
+    const n = 30000;
+    const xy = spread(n);
+    const { buffer, memory } = createPointBuffer(xy.byteLength);
+    expect(memory).not.toBeNull();
+    new Float64Array(buffer, 0, xy.length).set(xy);
+    const placement = PLACEMENTS[2]!;
+    const grid = placementCoverage(region, origin, 10, placement);
+    const expected = new Int32Array(grid.nx * grid.ny);
+    createCellCounter(xy, origin).count(grid, 10, placement, expected);
+    const counterUrl = pathToFileURL(join(PACKAGE_ROOT, 'dist', 'workers', 'placement', 'cell-counter.js')).href;
+    const script = `
+      const { parentPort, workerData } = require('node:worker_threads');
+      import(workerData.counterUrl).then(({ createCellCounter }) => {
+        const { memory, n, origin, grid, placement } = workerData;
+        const counter = createCellCounter(new Float64Array(memory.buffer, 0, 2 * n), origin, memory);
+        const out = new Int32Array(grid.nx * grid.ny);
+        for (let round = 0; round < 20; round++) counter.count(grid, 10, placement, out);
+        parentPort.postMessage(out);
+      });`;
+    const gridExtent = { i0: grid.i0, j0: grid.j0, nx: grid.nx, ny: grid.ny };
+    const runs = [0, 1].map(
+      () =>
+        new Promise<Int32Array>((resolve, reject) => {
+          const worker = new Worker(script, { eval: true, workerData: { counterUrl, memory, n, origin, grid: gridExtent, placement } });
+          worker.once('message', (out: Int32Array) => void worker.terminate().then(() => resolve(out)));
+          worker.once('error', reject);
+        }),
+    );
+    for (const out of await Promise.all(runs)) expect(Array.from(out)).toEqual(Array.from(expected));
+  });
+});

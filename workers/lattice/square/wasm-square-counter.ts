@@ -1,0 +1,140 @@
+/**
+ * The square counting kernel in WebAssembly SIMD (count-kernel.wat) over points held in a shared WebAssembly memory
+ * (workers/wasm/wasm-memory.ts): the same contract and the same float64 operations as square-counter.ts, two points
+ * per step. Fast pass per block of BLOCK points, then the exact pass (division, floor) over the points it deferred,
+ * both in WebAssembly; the counts go to the thread's scratch region of the memory and are copied to `out` (an int32 or
+ * float64 array: the copy converts).
+ * Measured on the 2-core test machine, 1e5 Morton-sorted points, 5 per cell, 64 rotated placements, one thread:
+ * about 3.1 ns per point-placement against 4.1 (clustered) to 6.0 (uniform) for the JavaScript kernel.
+ * A thread whose memory has no room left for its scratch region, or a runtime without WebAssembly SIMD, counts with
+ * the JavaScript kernel: the counts are the same either way.
+ * Cost O(n + cells) per placement; memory: 4 bytes per grid cell plus 32 KB per thread, in the shared memory.
+ */
+import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
+import { cosSinDegrees } from '../../geometry/grid-frame.js';
+import type { CellCounter } from '../lattice.js';
+import { pagesFor, WASM_PAGE, wasmApi, type WasmMemory } from '../../wasm/wasm-memory.js';
+import { WASM_BASE64 } from './count-kernel-wasm.js';
+import { BLOCK, checkCountArguments, createSquareCounter, nearLineBand } from './square-counter.js';
+
+type FastPass = (pts: number, pairs: number, out: number, deferred: number, ox: number, oy: number, cosOverSize: number, sinOverSize: number, shiftX: number, shiftY: number, nx: number, ny: number, near: number) => number;
+type ExactPass = (pts: number, deferred: number, count: number, out: number, ox: number, oy: number, cos: number, sin: number, s: number, u: number, v: number, i0: number, j0: number, nx: number, ny: number) => void;
+
+/** The kernel instantiated on one memory in this thread, with the thread's scratch region of that memory. */
+interface Kernel {
+  fastPass: FastPass;
+  exactPass: ExactPass;
+  memory: WasmMemory;
+  /** byte address and size of the scratch region: deferred point indices (BLOCK int32), then the cell counts */
+  scratch: number;
+  scratchBytes: number;
+  deferred: Int32Array;
+  counts: Int32Array;
+}
+
+let compiled: object | null | undefined;
+
+/** The compiled kernel module, or null where the runtime cannot run it (no WebAssembly, no SIMD or threads). */
+function kernelModule(): object | null {
+  if (compiled === undefined) {
+    compiled = null;
+    const bytes = Uint8Array.from(Buffer.from(WASM_BASE64, 'base64'));
+    try {
+      if (wasmApi !== undefined && wasmApi.validate(bytes)) compiled = new wasmApi.Module(bytes);
+    } catch {
+      compiled = null;
+    }
+  }
+  return compiled;
+}
+
+// one instance per memory in this thread; it goes with the memory
+const kernels = new WeakMap<WasmMemory, Kernel>();
+
+function kernelFor(memory: WasmMemory): Kernel | null {
+  let kernel = kernels.get(memory);
+  if (kernel === undefined) {
+    const module = kernelModule();
+    if (module === null || wasmApi === undefined) return null;
+    const { exports } = new wasmApi.Instance(module, { env: { memory } });
+    kernel = {
+      fastPass: exports.fastPass as FastPass,
+      exactPass: exports.exactPass as ExactPass,
+      memory,
+      scratch: 0,
+      scratchBytes: 0,
+      deferred: new Int32Array(0),
+      counts: new Int32Array(0),
+    };
+    kernels.set(memory, kernel);
+  }
+  return kernel;
+}
+
+/**
+ * Makes the thread's scratch region hold `cells` counts, growing the memory by a fresh region (a quarter more than
+ * asked, so that a sweep's sizes rarely grow it twice). False when the memory has no room left.
+ */
+function reserveScratch(kernel: Kernel, cells: number): boolean {
+  const bytes = 4 * BLOCK + 4 * cells;
+  if (bytes <= kernel.scratchBytes) return true;
+  const pages = pagesFor(Math.ceil(bytes * 1.25));
+  let first: number;
+  try {
+    first = kernel.memory.grow(pages);
+  } catch {
+    return false;
+  }
+  kernel.scratch = first * WASM_PAGE;
+  kernel.scratchBytes = pages * WASM_PAGE;
+  const buffer = kernel.memory.buffer;
+  kernel.deferred = new Int32Array(buffer, kernel.scratch, BLOCK);
+  kernel.counts = new Int32Array(buffer, kernel.scratch + 4 * BLOCK, (kernel.scratchBytes - 4 * BLOCK) / 4);
+  return true;
+}
+
+/**
+ * A counter over the points xy (x0, y0, x1, y1, ...; planar metres), a view of `memory`'s buffer, against grid origin
+ * `origin`; null where the runtime cannot run the WebAssembly kernel.
+ */
+export function createWasmSquareCounter(memory: WasmMemory, xy: Float64Array, origin: Origin): CellCounter | null {
+  const kernel = kernelFor(memory);
+  if (kernel === null) return null;
+  const pointCount = xy.length >> 1;
+  const points = xy.byteOffset;
+  let fallback: CellCounter | null = null;
+  return {
+    pointCount,
+    count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
+      checkCountArguments(grid, cellSize, out);
+      const cells = grid.nx * grid.ny;
+      if (!reserveScratch(kernel, cells)) {
+        fallback ??= createSquareCounter(xy, origin);
+        fallback.count(grid, cellSize, placement, out);
+        return;
+      }
+      const { cos, sin } = cosSinDegrees(placement.angle);
+      const inverse = 1 / cellSize;
+      const cosOverSize = cos * inverse;
+      const sinOverSize = sin * inverse;
+      const shiftX = placement.u + grid.i0;
+      const shiftY = placement.v + grid.j0;
+      const near = nearLineBand(grid);
+      const { fastPass, exactPass, deferred, counts } = kernel;
+      const listed = kernel.scratch;
+      const cellsAt = listed + 4 * BLOCK;
+      counts.fill(0, 0, cells);
+      for (let start = 0; start < pointCount; start += BLOCK) {
+        const length = Math.min(BLOCK, pointCount - start);
+        const at = points + 16 * start;
+        let deferredCount = fastPass(at, length >> 1, cellsAt, listed, origin.x, origin.y, cosOverSize, sinOverSize, shiftX, shiftY, grid.nx, grid.ny, near);
+        // an odd block's last point takes the exact pass
+        if ((length & 1) === 1) deferred[deferredCount++] = length - 1;
+        if (deferredCount > 0) {
+          exactPass(at, listed, deferredCount, cellsAt, origin.x, origin.y, cos, sin, cellSize, placement.u, placement.v, grid.i0, grid.j0, grid.nx, grid.ny);
+        }
+      }
+      out.set(counts.subarray(0, cells));
+    },
+  };
+}
