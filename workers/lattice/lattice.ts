@@ -17,6 +17,11 @@ export interface CellCounter {
    * out.length >= nx * ny). Points whose cell is outside the grid are ignored.
    */
   count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void;
+  /**
+   * Optional: an int32 array of at least `cells` cells that `count` fills without a copy (a counter whose points
+   * live in WebAssembly memory: the array is in that memory), or null when it has none to give. The caller owns it.
+   */
+  countBuffer?(cells: number): Int32Array | null;
 }
 
 /** One placement of a lattice: cell of a point and polygon of a cell, in planar metres. */

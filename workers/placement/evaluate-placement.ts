@@ -17,7 +17,7 @@ import { keepBaselineCells } from '../baseline/keep-baseline-cells.js';
 import { baselineStatistics } from '../baseline/baseline-statistics.js';
 
 export interface EvaluatePlacementInput {
-  counter: Pick<CellCounter, 'count'>;
+  counter: Pick<CellCounter, 'count' | 'countBuffer'>;
   region: Region;
   origin: Origin;
   cellSize: number;
@@ -146,8 +146,14 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
   const { grid, kept: coverageKept } = keptCellsOf(input);
   const cellCount = grid.nx * grid.ny;
   const scratch = buffers?.counts;
-  const counts =
-    scratch !== undefined && scratch.length >= cellCount ? scratch : new Int32Array(buffers === undefined ? cellCount : Math.ceil(cellCount * 1.3));
+  let counts: Int32Array;
+  if (scratch !== undefined && scratch.length >= cellCount) {
+    counts = scratch;
+  } else {
+    const size = buffers === undefined ? cellCount : Math.ceil(cellCount * 1.3);
+    // the counter's own array when it has one (WebAssembly memory: counted in place, no copy)
+    counts = counter.countBuffer?.(size) ?? new Int32Array(size);
+  }
   if (buffers !== undefined) buffers.counts = counts;
   let kept = coverageKept;
   let expectation: Expectation;

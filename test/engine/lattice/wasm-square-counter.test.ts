@@ -55,6 +55,25 @@ describe('the WebAssembly counting kernel', () => {
     }
   });
 
+  it('counts in place into its own count arrays (countBuffer), and the counts are the JavaScript kernel\'s', () => {
+    const xy = spread(12345);
+    const inMemory = pointsInMemory(xy);
+    const counter = createCellCounter(inMemory.xy, origin, inMemory.memory);
+    for (const placement of PLACEMENTS) {
+      const grid = placementCoverage(region, origin, 20, placement);
+      const own = counter.countBuffer!(grid.nx * grid.ny);
+      expect(own).not.toBeNull();
+      expect(own!.buffer.byteLength).toBeGreaterThan(inMemory.xy.byteLength);
+      own!.fill(9);
+      counter.count(grid, 20, placement, own!);
+      const expected = new Int32Array(grid.nx * grid.ny);
+      createCellCounter(xy, origin).count(grid, 20, placement, expected);
+      expect(Array.from(own!.subarray(0, grid.nx * grid.ny))).toEqual(Array.from(expected));
+    }
+    // a counter of points outside WebAssembly memory has none to give
+    expect(createCellCounter(xy, origin).countBuffer).toBeUndefined();
+  });
+
   it('grows its scratch region when a larger grid comes, and counts with the JavaScript kernel when the memory has no room left', () => {
     const xy = spread(5000);
     // a memory without spare pages: no scratch region can be had

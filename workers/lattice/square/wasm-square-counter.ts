@@ -2,13 +2,14 @@
  * The square counting kernel in WebAssembly SIMD (count-kernel.wat) over points held in a shared WebAssembly memory
  * (workers/wasm/wasm-memory.ts): the same contract and the same float64 operations as square-counter.ts, two points
  * per step. Fast pass per block of BLOCK points, then the exact pass (division, floor) over the points it deferred,
- * both in WebAssembly; the counts go to the thread's scratch region of the memory and are copied to `out` (an int32 or
- * float64 array: the copy converts).
+ * both in WebAssembly. The counts go straight to `out` when it is an array of countBuffer's (in the memory), else to
+ * the thread's scratch region of the memory and are copied to `out` (an int32 or float64 array: the copy converts).
  * Measured on the 2-core test machine, 1e5 Morton-sorted points, 5 per cell, 64 rotated placements, one thread:
  * about 3.1 ns per point-placement against 4.1 (clustered) to 6.0 (uniform) for the JavaScript kernel.
  * A thread whose memory has no room left for its scratch region, or a runtime without WebAssembly SIMD, counts with
  * the JavaScript kernel: the counts are the same either way.
- * Cost O(n + cells) per placement; memory: 4 bytes per grid cell plus 32 KB per thread, in the shared memory.
+ * Cost O(n + cells) per placement; memory, in the shared memory: 32 KB per thread, plus 4 bytes per grid cell for the
+ * scratch region of copied counts (none when the caller counts into countBuffer's arrays).
  */
 import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
@@ -30,6 +31,8 @@ interface Kernel {
   scratchBytes: number;
   deferred: Int32Array;
   counts: Int32Array;
+  /** count arrays this thread took from the memory (countBuffer): counted into in place, without a copy */
+  owned: WeakSet<Int32Array>;
 }
 
 let compiled: object | null | undefined;
@@ -65,28 +68,34 @@ function kernelFor(memory: WasmMemory): Kernel | null {
       scratchBytes: 0,
       deferred: new Int32Array(0),
       counts: new Int32Array(0),
+      owned: new WeakSet(),
     };
     kernels.set(memory, kernel);
   }
   return kernel;
 }
 
+/** A fresh region of at least `bytes` bytes of the memory for this thread: its byte address and size, or null when the memory has no room left. */
+function takeRegion(memory: WasmMemory, bytes: number): { at: number; bytes: number } | null {
+  const pages = pagesFor(bytes);
+  try {
+    return { at: memory.grow(pages) * WASM_PAGE, bytes: pages * WASM_PAGE };
+  } catch {
+    return null;
+  }
+}
+
 /**
- * Makes the thread's scratch region hold `cells` counts, growing the memory by a fresh region (a quarter more than
- * asked, so that a sweep's sizes rarely grow it twice). False when the memory has no room left.
+ * Makes the thread's scratch region hold the deferred list and `cells` counts, growing the memory by a fresh region
+ * (a quarter more than asked, so that a sweep's sizes rarely grow it twice). False when the memory has no room left.
  */
 function reserveScratch(kernel: Kernel, cells: number): boolean {
   const bytes = 4 * BLOCK + 4 * cells;
   if (bytes <= kernel.scratchBytes) return true;
-  const pages = pagesFor(Math.ceil(bytes * 1.25));
-  let first: number;
-  try {
-    first = kernel.memory.grow(pages);
-  } catch {
-    return false;
-  }
-  kernel.scratch = first * WASM_PAGE;
-  kernel.scratchBytes = pages * WASM_PAGE;
+  const region = takeRegion(kernel.memory, Math.ceil(bytes * 1.25));
+  if (region === null) return false;
+  kernel.scratch = region.at;
+  kernel.scratchBytes = region.bytes;
   const buffer = kernel.memory.buffer;
   kernel.deferred = new Int32Array(buffer, kernel.scratch, BLOCK);
   kernel.counts = new Int32Array(buffer, kernel.scratch + 4 * BLOCK, (kernel.scratchBytes - 4 * BLOCK) / 4);
@@ -108,7 +117,9 @@ export function createWasmSquareCounter(memory: WasmMemory, xy: Float64Array, or
     count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       checkCountArguments(grid, cellSize, out);
       const cells = grid.nx * grid.ny;
-      if (!reserveScratch(kernel, cells)) {
+      // an array of countBuffer's is counted into where it is; any other gets a copy of the scratch region's counts
+      const inPlace = kernel.owned.has(out as Int32Array);
+      if (!reserveScratch(kernel, inPlace ? 0 : cells)) {
         fallback ??= createSquareCounter(xy, origin);
         fallback.count(grid, cellSize, placement, out);
         return;
@@ -120,9 +131,10 @@ export function createWasmSquareCounter(memory: WasmMemory, xy: Float64Array, or
       const shiftX = placement.u + grid.i0;
       const shiftY = placement.v + grid.j0;
       const near = nearLineBand(grid);
-      const { fastPass, exactPass, deferred, counts } = kernel;
+      const { fastPass, exactPass, deferred } = kernel;
+      const counts = inPlace ? out : kernel.counts;
       const listed = kernel.scratch;
-      const cellsAt = listed + 4 * BLOCK;
+      const cellsAt = inPlace ? out.byteOffset : listed + 4 * BLOCK;
       counts.fill(0, 0, cells);
       for (let start = 0; start < pointCount; start += BLOCK) {
         const length = Math.min(BLOCK, pointCount - start);
@@ -134,7 +146,14 @@ export function createWasmSquareCounter(memory: WasmMemory, xy: Float64Array, or
           exactPass(at, listed, deferredCount, cellsAt, origin.x, origin.y, cos, sin, cellSize, placement.u, placement.v, grid.i0, grid.j0, grid.nx, grid.ny);
         }
       }
-      out.set(counts.subarray(0, cells));
+      if (!inPlace) out.set(kernel.counts.subarray(0, cells));
+    },
+    countBuffer(cells: number): Int32Array | null {
+      const region = takeRegion(kernel.memory, 4 * cells);
+      if (region === null) return null;
+      const buffer = new Int32Array(kernel.memory.buffer, region.at, region.bytes / 4);
+      kernel.owned.add(buffer);
+      return buffer;
     },
   };
 }
