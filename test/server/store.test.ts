@@ -187,6 +187,25 @@ describe('GridshakeStore', () => {
     store.close();
   });
 
+  it('keeps the last loaded dataset for the next load of its id, and forgets it when the dataset is deleted', () => {
+    const store = GridshakeStore.open(':memory:');
+    const first = squareDataset();
+    const second = squareDataset();
+    const a = store.datasets.insert(first.dataset, first.summary).id as string;
+    const b = store.datasets.insert(second.dataset, second.summary).id as string;
+    const loaded = store.datasets.load(a);
+    expect(store.datasets.load(a)).toBe(loaded);
+    // one kept: loading another replaces it, and the first is read again (equal, not the same object)
+    const other = store.datasets.load(b);
+    expect(other).not.toBe(loaded);
+    const again = store.datasets.load(a);
+    expect(again).not.toBe(loaded);
+    expect(Array.from(again!.xy)).toEqual(Array.from(loaded!.xy));
+    expect(store.datasets.delete(a)).toBe(true);
+    expect(store.datasets.load(a)).toBeUndefined();
+    store.close();
+  });
+
   it('a failed insert (constraint violation mid-write) leaves the store unchanged', () => {
     const store = GridshakeStore.open(':memory:');
     const { dataset, summary } = squareDataset();
