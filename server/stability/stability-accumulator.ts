@@ -1,7 +1,8 @@
 /**
  * Folds the stability parts of a cell size's chunk results (workers/stability/stability-chunk.ts) into the
  * stability surface: per valid pixel the number of placements in which it lies in a kept cell, in an excess cell and
- * in a deficit cell; per simulated pattern the same counts, sparse. Chunks may arrive in any order.
+ * in a deficit cell; per simulated pattern the same counts, sparse (the pairs as they arrive, tallied at the end).
+ * Chunks may arrive in any order.
  *
  * Shares: excess share = excess placements / kept placements (likewise deficit). A pixel is assessed (enters the
  * calibration maximum and may belong to a stable area) when it lies in a kept cell in at least MIN_KEPT_FRACTION of
@@ -52,8 +53,12 @@ export class StabilityAccumulator {
   private kept: Float64Array = new Float64Array(0);
   private readonly excess: Float64Array;
   private readonly deficit: Float64Array;
-  /** per (2 r + kind): pixel position -> placements */
-  private readonly simulated: Map<number, number>[];
+  /**
+   * the simulated patterns' (2 r + kind, pixel position) pairs as they arrive, one per placement in which the pixel
+   * lies in a flagged cell of pattern r; tallied per pattern by finish()
+   */
+  private simulatedPairs = new Uint32Array(1024);
+  private simulatedCount = 0;
 
   constructor(
     readonly raster: StabilityRaster,
@@ -64,7 +69,6 @@ export class StabilityAccumulator {
     this.notKept = new Float64Array(pixels.length);
     this.excess = new Float64Array(pixels.length);
     this.deficit = new Float64Array(pixels.length);
-    this.simulated = Array.from({ length: 2 * sims }, () => new Map<number, number>());
   }
 
   /** Adds a chunk result's stability part, found at `offset`. Cost O(listed pixels + simulated pairs). */
@@ -75,10 +79,21 @@ export class StabilityAccumulator {
     addPairs(part.excess, this.excess);
     addPairs(part.deficit, this.deficit);
     const pairs = part.simulated;
+    if (this.simulatedCount + pairs.length > this.simulatedPairs.length) {
+      const grown = new Uint32Array(Math.max(2 * this.simulatedPairs.length, this.simulatedCount + pairs.length));
+      grown.set(this.simulatedPairs.subarray(0, this.simulatedCount));
+      this.simulatedPairs = grown;
+    }
+    const codes = 2 * this.sims;
+    const positions = this.pixels.length;
     for (let t = 0; t < pairs.length; t += 2) {
-      const map = this.simulated[pairs[t]!]!;
+      const code = pairs[t]!;
       const q = pairs[t + 1]!;
-      map.set(q, (map.get(q) ?? 0) + 1);
+      if (!(code >= 0 && code < codes && q >= 0 && q < positions)) {
+        throw new Error(`a chunk result lists simulated pair (${code}, ${q}) outside ${codes} patterns x kinds and ${positions} pixels`);
+      }
+      this.simulatedPairs[this.simulatedCount++] = code;
+      this.simulatedPairs[this.simulatedCount++] = q;
     }
   }
 
@@ -95,11 +110,12 @@ export class StabilityAccumulator {
     for (let q = 0; q < this.pixels.length; q++) this.kept[q] = this.placementsSeen - this.notKept[q]!;
     let calibration: StabilityCalibration | null = null;
     if (this.sims > 0) {
+      const largest = this.largestShares(least);
       const excessMaxima = new Float64Array(this.sims);
       const deficitMaxima = new Float64Array(this.sims);
       for (let r = 0; r < this.sims; r++) {
-        excessMaxima[r] = this.largestShare(this.simulated[2 * r]!, least);
-        deficitMaxima[r] = this.largestShare(this.simulated[2 * r + DEFICIT]!, least);
+        excessMaxima[r] = largest[2 * r]!;
+        deficitMaxima[r] = largest[2 * r + DEFICIT]!;
       }
       const level = alpha / 2;
       calibration = {
@@ -128,12 +144,38 @@ export class StabilityAccumulator {
     return { shape, cellSize, placements, raster: this.raster, excessShare, deficitShare, assessed, calibration, stableExcess, stableDeficit };
   }
 
-  /** The largest share of one simulated pattern over the assessed pixels (0 when it has no flagged pixel). */
-  private largestShare(counts: Map<number, number>, least: number): number {
-    let largest = 0;
-    for (const [q, count] of counts) {
-      const kept = this.kept[q]!;
-      if (kept >= least && kept > 0) largest = Math.max(largest, count / kept);
+  /**
+   * Per code 2 r + kind, the largest share of simulated pattern r over the assessed pixels (0 when it has no flagged
+   * pixel): share = placements in which the pixel lies in a flagged cell / placements in which it lies in a kept one.
+   * The pairs are grouped by code (a counting sort), then each group is tallied in one pixel-sized array and read
+   * back at each pixel's first pair (the tally is zeroed there, so a pixel counts once). Cost O(pairs + codes),
+   * memory 4 bytes per pair and per valid pixel.
+   */
+  private largestShares(least: number): Float64Array {
+    const codes = 2 * this.sims;
+    const pairs = this.simulatedPairs;
+    const count = this.simulatedCount;
+    const starts = new Uint32Array(codes + 1);
+    for (let t = 0; t < count; t += 2) starts[pairs[t]! + 1]!++;
+    for (let c = 0; c < codes; c++) starts[c + 1]! += starts[c]!;
+    const grouped = new Uint32Array(count / 2);
+    const cursor = starts.slice(0, codes);
+    for (let t = 0; t < count; t += 2) grouped[cursor[pairs[t]!]!++] = pairs[t + 1]!;
+    const tally = new Uint32Array(this.pixels.length);
+    const largest = new Float64Array(codes);
+    for (let c = 0; c < codes; c++) {
+      const end = starts[c + 1]!;
+      for (let k = starts[c]!; k < end; k++) tally[grouped[k]!]!++;
+      let max = 0;
+      for (let k = starts[c]!; k < end; k++) {
+        const q = grouped[k]!;
+        const flagged = tally[q]!;
+        if (flagged === 0) continue;
+        tally[q] = 0;
+        const kept = this.kept[q]!;
+        if (kept >= least && kept > 0) max = Math.max(max, flagged / kept);
+      }
+      largest[c] = max;
     }
     return largest;
   }
