@@ -19,9 +19,12 @@ export interface CellCounter {
   count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void;
   /**
    * Optional: an int32 array of at least `cells` cells that `count` fills without a copy (a counter whose points
-   * live in WebAssembly memory: the array is in that memory), or null when it has none to give. The caller owns it.
+   * live in WebAssembly memory: the array is in that memory), or null when it has none to give. One per thread and
+   * memory: a later call returns the same array while it is large enough.
    */
   countBuffer?(cells: number): Int32Array | null;
+  /** With countBuffer: whether `array` is the one countBuffer gave this thread (counted in place). */
+  ownsCountBuffer?(array: Int32Array): boolean;
 }
 
 /** One placement of a lattice: cell of a point and polygon of a cell, in planar metres. */

@@ -17,7 +17,7 @@ import { keepBaselineCells } from '../baseline/keep-baseline-cells.js';
 import { baselineStatistics } from '../baseline/baseline-statistics.js';
 
 export interface EvaluatePlacementInput {
-  counter: Pick<CellCounter, 'count' | 'countBuffer'>;
+  counter: Pick<CellCounter, 'count' | 'countBuffer' | 'ownsCountBuffer'>;
   region: Region;
   origin: Origin;
   cellSize: number;
@@ -147,7 +147,9 @@ export function evaluatePlacement(input: EvaluatePlacementInput): EvaluatedPlace
   const cellCount = grid.nx * grid.ny;
   const scratch = buffers?.counts;
   let counts: Int32Array;
-  if (scratch !== undefined && scratch.length >= cellCount) {
+  // a counter with arrays of its own counts in place only into its own: the thread's array from another dataset's
+  // memory is left for the counter's (and let go, with that memory)
+  if (scratch !== undefined && scratch.length >= cellCount && (counter.ownsCountBuffer?.(scratch) ?? true)) {
     counts = scratch;
   } else {
     const size = buffers === undefined ? cellCount : Math.ceil(cellCount * 1.3);

@@ -19,7 +19,7 @@ import { encodeStatistics, STATISTICS_FIELDS } from './statistics-codec.js';
 import { chunkResultLength, simulatedFlagOffset, simulatedValueOffset } from './sweep-task.js';
 
 /** Counts the points of one pattern per cell of a coverage grid (workers/placement createCellCounter). */
-export type PatternCounter = Pick<CellCounter, 'count' | 'pointCount' | 'countBuffer'>;
+export type PatternCounter = Pick<CellCounter, 'count' | 'pointCount' | 'countBuffer' | 'ownsCountBuffer'>;
 
 export interface ChunkContext {
   region: Region;

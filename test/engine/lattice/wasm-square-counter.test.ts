@@ -4,9 +4,9 @@ import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { placementCoverage } from '../../../workers/geometry/coverage.js';
 import { createCellCounter } from '../../../workers/placement/cell-counter.js';
-import { createWasmSquareCounter } from '../../../workers/lattice/square/wasm-square-counter.js';
+import { createWasmSquareCounter, wasmFallbackCount } from '../../../workers/lattice/square/wasm-square-counter.js';
 import { WASM_BASE64 } from '../../../workers/lattice/square/count-kernel-wasm.js';
-import { createPointBuffer, SCRATCH_RESERVE_PAGES, WASM_PAGE, type WasmMemory } from '../../../workers/wasm/wasm-memory.js';
+import { createPointBuffer, WASM_PAGE, type WasmMemory } from '../../../workers/wasm/wasm-memory.js';
 import { PACKAGE_ROOT } from '../../../server/services/project-paths.js';
 import { regionFromRings } from '../geometry/region-fixtures.js';
 import { pointsInMemory } from '../placement/counter-kinds.js';
@@ -83,24 +83,45 @@ describe('the WebAssembly counting kernel', () => {
     const roomless = createCellCounter(view, origin, full);
     const roomy = pointsInMemory(xy);
     const grower = createCellCounter(roomy.xy, origin, roomy.memory);
-    const pagesBefore = roomy.memory.buffer.byteLength / WASM_PAGE;
-    for (const side of [200, 50, 10]) {
+    const pages = (): number => roomy.memory.buffer.byteLength / WASM_PAGE;
+    const grownBy: number[] = [];
+    for (const side of [200, 50, 10, 50]) {
       const grid = placementCoverage(region, origin, side, PLACEMENTS[1]!);
       const expected = new Int32Array(grid.nx * grid.ny);
       createCellCounter(xy, origin).count(grid, side, PLACEMENTS[1]!, expected);
-      for (const counter of [roomless, grower]) {
-        const out = new Int32Array(grid.nx * grid.ny);
-        counter.count(grid, side, PLACEMENTS[1]!, out);
-        expect(Array.from(out)).toEqual(Array.from(expected));
-      }
+      const fellBack = wasmFallbackCount();
+      const out = new Int32Array(grid.nx * grid.ny);
+      roomless.count(grid, side, PLACEMENTS[1]!, out);
+      expect(Array.from(out)).toEqual(Array.from(expected));
+      expect(wasmFallbackCount()).toBe(fellBack + 1);
+      const before = pages();
+      grower.count(grid, side, PLACEMENTS[1]!, out.fill(0));
+      expect(Array.from(out)).toEqual(Array.from(expected));
+      expect(wasmFallbackCount()).toBe(fellBack + 1);
+      grownBy.push(pages() - before);
     }
     expect(full.buffer.byteLength).toBe(2 * WASM_PAGE);
-    // three sizes, the later ones larger: the region grew, within the reserve
-    const grown = roomy.memory.buffer.byteLength / WASM_PAGE - pagesBefore;
-    expect(grown).toBeGreaterThan(0);
-    expect(grown).toBeLessThanOrEqual(SCRATCH_RESERVE_PAGES);
+    // 200 m and 50 m cells fit the first region (one page); 10 m cells (about 45,000 of them) need a larger one;
+    // back to 50 m, the larger region is reused
+    expect(grownBy[0]).toBe(1);
+    expect(grownBy[1]).toBe(0);
+    expect(grownBy[2]).toBeGreaterThan(1);
+    expect(grownBy[3]).toBe(0);
   });
 
+  it('gives one count array per memory and thread, the same while large enough', () => {
+    const inMemory = pointsInMemory(spread(100));
+    const counter = createCellCounter(inMemory.xy, origin, inMemory.memory);
+    const first = counter.countBuffer!(1000)!;
+    expect(counter.countBuffer!(500)).toBe(first);
+    expect(counter.ownsCountBuffer!(first)).toBe(true);
+    expect(counter.ownsCountBuffer!(new Int32Array(1000))).toBe(false);
+    const larger = counter.countBuffer!(first.length + 1)!;
+    expect(larger).not.toBe(first);
+    expect(counter.ownsCountBuffer!(first)).toBe(false);
+  });
+
+  // the threads load the built engine from dist/ (npm test builds first, as for every test that starts threads)
   it('two threads counting the same shared memory at once get the contract counts (each its own scratch region)', async () => {
     const n = 30000;
     const xy = spread(n);
@@ -115,17 +136,22 @@ describe('the WebAssembly counting kernel', () => {
     const script = `
       const { parentPort, workerData } = require('node:worker_threads');
       import(workerData.counterUrl).then(({ createCellCounter }) => {
-        const { memory, n, origin, grid, placement } = workerData;
+        const { memory, n, origin, grid, placement, gate } = workerData;
         const counter = createCellCounter(new Float64Array(memory.buffer, 0, 2 * n), origin, memory);
         const out = new Int32Array(grid.nx * grid.ny);
+        // a barrier: both threads start counting together, then each takes its scratch region and counts 20 times
+        const arrived = Atomics.add(gate, 0, 1) + 1;
+        if (arrived === 2) Atomics.notify(gate, 0);
+        else while (Atomics.load(gate, 0) < 2) Atomics.wait(gate, 0, arrived, 50);
         for (let round = 0; round < 20; round++) counter.count(grid, 10, placement, out);
         parentPort.postMessage(out);
       });`;
     const gridExtent = { i0: grid.i0, j0: grid.j0, nx: grid.nx, ny: grid.ny };
+    const gate = new Int32Array(new SharedArrayBuffer(4));
     const runs = [0, 1].map(
       () =>
         new Promise<Int32Array>((resolve, reject) => {
-          const worker = new Worker(script, { eval: true, workerData: { counterUrl, memory, n, origin, grid: gridExtent, placement } });
+          const worker = new Worker(script, { eval: true, workerData: { counterUrl, memory, n, origin, grid: gridExtent, placement, gate } });
           worker.once('message', (out: Int32Array) => void worker.terminate().then(() => resolve(out)));
           worker.once('error', reject);
         }),

@@ -83,6 +83,24 @@ describe.each(counterKinds)('createCellCounter (%s kernel): the counting kernel 
     }
   });
 
+  it('never counts NaN, infinite or far points, whichever pass takes them (odd counts: the last point takes the exact pass)', () => {
+    const odd = [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, 1e300, -1e300, 3e9];
+    for (const bad of odd) {
+      // 4 points (the bad one in the fast pass), then 5 (a bad last one: the WebAssembly kernel's exact pass)
+      for (const values of [[5, 5, 15, 15, 25, 5, bad, 3], [5, 5, 15, 15, 25, 5, bad, 3, 3, bad]]) {
+        const xy = Float64Array.from(values);
+        // u = v = 0 gives i0 = j0 = 0 on this square; u = v = 0.3 gives i0 = j0 = -1
+        for (const placement of [{ u: 0, v: 0, angle: 0 }, { u: 0.3, v: 0.3, angle: 0 }, { u: 0.3, v: 0.6, angle: 30 }]) {
+          const grid = placementCoverage(square, origin, 10, placement);
+          const out = new Int32Array(grid.nx * grid.ny);
+          makeCounter(xy, origin).count(grid, 10, placement, out);
+          expect(Array.from(out)).toEqual(Array.from(bruteForceCounts(xy, origin, grid, 10, placement)));
+          expect(out.reduce((a, b) => a + b, 0)).toBe(3);
+        }
+      }
+    }
+  });
+
   it('rejects a too short output and a bad cell size', () => {
     const grid = placementCoverage(square, origin, 100, { u: 0, v: 0, angle: 0 });
     const counter = makeCounter(new Float64Array([1, 1]), origin);

@@ -4,7 +4,7 @@
  * the points in a shared WebAssembly memory. Tests run the same contract checks on both.
  */
 import { createCellCounter, type CellCounter } from '../../../workers/placement/cell-counter.js';
-import { createWasmSquareCounter } from '../../../workers/lattice/square/wasm-square-counter.js';
+import { createWasmSquareCounter, wasmFallbackCount } from '../../../workers/lattice/square/wasm-square-counter.js';
 import { createPointBuffer, type WasmMemory } from '../../../workers/wasm/wasm-memory.js';
 import type { Origin } from '../../../workers/types.js';
 
@@ -20,11 +20,22 @@ export function pointsInMemory(xy: Float64Array, spareBytes = 0): { xy: Float64A
   return { xy: view, memory };
 }
 
-/** A counter of xy by the WebAssembly kernel; throws where the runtime cannot run it. */
+/**
+ * A counter of xy by the WebAssembly kernel; throws where the runtime cannot run it, and from `count` when a count
+ * fell back to the JavaScript kernel (so a test of this kind cannot pass on the fallback).
+ */
 export function wasmCounter(xy: Float64Array, origin: Origin): CellCounter {
   const copy = pointsInMemory(xy);
   if (createWasmSquareCounter(copy.memory, copy.xy, origin) === null) throw new Error('this runtime cannot run the WebAssembly kernel');
-  return createCellCounter(copy.xy, origin, copy.memory);
+  const counter = createCellCounter(copy.xy, origin, copy.memory);
+  return {
+    pointCount: counter.pointCount,
+    count(grid, cellSize, placement, out) {
+      const before = wasmFallbackCount();
+      counter.count(grid, cellSize, placement, out);
+      if (wasmFallbackCount() !== before) throw new Error('the count fell back to the JavaScript kernel');
+    },
+  };
 }
 
 export const counterKinds: [string, (xy: Float64Array, origin: Origin) => CellCounter][] = [

@@ -95,23 +95,25 @@
   (func (export "exactPass") (param $pts i32) (param $def i32) (param $count i32) (param $out i32)
         (param $ox f64) (param $oy f64) (param $cos f64) (param $sin f64) (param $s f64) (param $u f64) (param $v f64)
         (param $i0 i32) (param $j0 i32) (param $nx i32) (param $ny i32)
-    (local $k i32) (local $p i32) (local $dx f64) (local $dy f64) (local $i i32) (local $j i32) (local $addr i32)
+    (local $k i32) (local $p i32) (local $dx f64) (local $dy f64) (local $fi f64) (local $fj f64) (local $addr i32)
     (block $done
       (br_if $done (i32.le_s (local.get $count) (i32.const 0)))
       (loop $point
         (local.set $p (i32.add (local.get $pts) (i32.shl (i32.load (i32.add (local.get $def) (i32.shl (local.get $k) (i32.const 2)))) (i32.const 4))))
         (local.set $dx (f64.sub (f64.load (local.get $p)) (local.get $ox)))
         (local.set $dy (f64.sub (f64.load offset=8 (local.get $p)) (local.get $oy)))
-        (local.set $i (i32.sub (i32.trunc_sat_f64_s (f64.floor (f64.sub
+        ;; the cell's offsets in float64, as JavaScript subtracts them: a NaN or far point fails the range test
+        (local.set $fi (f64.sub (f64.floor (f64.sub
           (f64.div (f64.add (f64.mul (local.get $dx) (local.get $cos)) (f64.mul (local.get $dy) (local.get $sin))) (local.get $s))
-          (local.get $u)))) (local.get $i0)))
-        (local.set $j (i32.sub (i32.trunc_sat_f64_s (f64.floor (f64.sub
+          (local.get $u))) (f64.convert_i32_s (local.get $i0))))
+        (local.set $fj (f64.sub (f64.floor (f64.sub
           (f64.div (f64.add (f64.mul (f64.neg (local.get $dx)) (local.get $sin)) (f64.mul (local.get $dy) (local.get $cos))) (local.get $s))
-          (local.get $v)))) (local.get $j0)))
-        (if (i32.and (i32.and (i32.ge_s (local.get $i) (i32.const 0)) (i32.lt_s (local.get $i) (local.get $nx)))
-                     (i32.and (i32.ge_s (local.get $j) (i32.const 0)) (i32.lt_s (local.get $j) (local.get $ny))))
+          (local.get $v))) (f64.convert_i32_s (local.get $j0))))
+        (if (i32.and (i32.and (f64.ge (local.get $fi) (f64.const 0)) (f64.lt (local.get $fi) (f64.convert_i32_s (local.get $nx))))
+                     (i32.and (f64.ge (local.get $fj) (f64.const 0)) (f64.lt (local.get $fj) (f64.convert_i32_s (local.get $ny)))))
           (then
-            (local.set $addr (i32.add (local.get $out) (i32.shl (i32.add (i32.mul (local.get $j) (local.get $nx)) (local.get $i)) (i32.const 2))))
+            (local.set $addr (i32.add (local.get $out) (i32.shl (i32.add
+              (i32.mul (i32.trunc_f64_s (local.get $fj)) (local.get $nx)) (i32.trunc_f64_s (local.get $fi))) (i32.const 2))))
             (i32.store (local.get $addr) (i32.add (i32.load (local.get $addr)) (i32.const 1)))))
         (local.set $k (i32.add (local.get $k) (i32.const 1)))
         (br_if $point (i32.lt_s (local.get $k) (local.get $count))))))

@@ -2,14 +2,17 @@
  * The square counting kernel in WebAssembly SIMD (count-kernel.wat) over points held in a shared WebAssembly memory
  * (workers/wasm/wasm-memory.ts): the same contract and the same float64 operations as square-counter.ts, two points
  * per step. Fast pass per block of BLOCK points, then the exact pass (division, floor) over the points it deferred,
- * both in WebAssembly. The counts go straight to `out` when it is an array of countBuffer's (in the memory), else to
- * the thread's scratch region of the memory and are copied to `out` (an int32 or float64 array: the copy converts).
+ * both in WebAssembly. The counts go straight to `out` when it is this thread's array from countBuffer (in the memory:
+ * the observed pattern's counts in a sweep), else to the thread's scratch region of the memory and are copied to `out`
+ * (an int32 or float64 array: the copy converts; the simulated patterns' counts in a sweep).
  * Measured on the 2-core test machine, 1e5 Morton-sorted points, 5 per cell, 64 rotated placements, one thread:
  * about 3.1 ns per point-placement against 4.1 (clustered) to 6.0 (uniform) for the JavaScript kernel.
  * A thread whose memory has no room left for its scratch region, or a runtime without WebAssembly SIMD, counts with
  * the JavaScript kernel: the counts are the same either way.
- * Cost O(n + cells) per placement; memory, in the shared memory: 32 KB per thread, plus 4 bytes per grid cell for the
- * scratch region of copied counts (none when the caller counts into countBuffer's arrays).
+ * Cost O(n + cells) per placement; memory, in the shared memory, per thread and memory: a scratch region of 32 KB plus
+ * 4 bytes per grid cell for copied counts (at least one 64 KiB page), and the countBuffer array. Regions are reused
+ * while large enough; a larger grid takes a new one (the old one stays reserved in the memory: regions are never
+ * given back).
  */
 import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
@@ -31,8 +34,16 @@ interface Kernel {
   scratchBytes: number;
   deferred: Int32Array;
   counts: Int32Array;
-  /** count arrays this thread took from the memory (countBuffer): counted into in place, without a copy */
-  owned: WeakSet<Int32Array>;
+  /** the count array this thread took from the memory (countBuffer), reused while large enough: counted into in place */
+  owned: Int32Array | null;
+}
+
+/** Counts this thread made with the JavaScript kernel because a memory had no room left (tests check it stays 0). */
+let fallbacks = 0;
+
+/** How many counts of this thread fell back to the JavaScript kernel for want of room in the memory. */
+export function wasmFallbackCount(): number {
+  return fallbacks;
 }
 
 let compiled: object | null | undefined;
@@ -68,7 +79,7 @@ function kernelFor(memory: WasmMemory): Kernel | null {
       scratchBytes: 0,
       deferred: new Int32Array(0),
       counts: new Int32Array(0),
-      owned: new WeakSet(),
+      owned: null,
     };
     kernels.set(memory, kernel);
   }
@@ -117,9 +128,10 @@ export function createWasmSquareCounter(memory: WasmMemory, xy: Float64Array, or
     count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       checkCountArguments(grid, cellSize, out);
       const cells = grid.nx * grid.ny;
-      // an array of countBuffer's is counted into where it is; any other gets a copy of the scratch region's counts
-      const inPlace = kernel.owned.has(out as Int32Array);
+      // the array of countBuffer's is counted into where it is; any other gets a copy of the scratch region's counts
+      const inPlace = out === kernel.owned;
       if (!reserveScratch(kernel, inPlace ? 0 : cells)) {
+        fallbacks += 1;
         fallback ??= createSquareCounter(xy, origin);
         fallback.count(grid, cellSize, placement, out);
         return;
@@ -149,11 +161,14 @@ export function createWasmSquareCounter(memory: WasmMemory, xy: Float64Array, or
       if (!inPlace) out.set(kernel.counts.subarray(0, cells));
     },
     countBuffer(cells: number): Int32Array | null {
+      if (kernel.owned !== null && kernel.owned.length >= cells) return kernel.owned;
       const region = takeRegion(kernel.memory, 4 * cells);
       if (region === null) return null;
-      const buffer = new Int32Array(kernel.memory.buffer, region.at, region.bytes / 4);
-      kernel.owned.add(buffer);
-      return buffer;
+      kernel.owned = new Int32Array(kernel.memory.buffer, region.at, region.bytes / 4);
+      return kernel.owned;
+    },
+    ownsCountBuffer(array: Int32Array): boolean {
+      return array === kernel.owned;
     },
   };
 }
