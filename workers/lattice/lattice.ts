@@ -27,6 +27,13 @@ export interface CellCounter {
   ownsCountBuffer?(array: Int32Array): boolean;
 }
 
+/** Throws RangeError unless `out` holds the grid's cells (what every counter's `count` requires first). */
+export function checkCountOutput(grid: GridExtent, out: CountArray): void {
+  if (out.length < grid.nx * grid.ny) {
+    throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);
+  }
+}
+
 /** One placement of a lattice: cell of a point and polygon of a cell, in planar metres. */
 export interface LatticeFrame {
   /** The cell (i, j) holding a planar point, by the lattice's exact rule. */

@@ -22,10 +22,9 @@ export function createCellCounter(xy: Float64Array, origin: Origin, memory: Wasm
   const others = new Map<CellShape, CellCounter>();
   return {
     pointCount: square.pointCount,
-    // every lattice counts into an int32 array: the square kernel's own arrays serve them all
-    ...(square.countBuffer === undefined
-      ? {}
-      : { countBuffer: (cells: number) => square.countBuffer!(cells), ownsCountBuffer: (array: Int32Array) => square.ownsCountBuffer!(array) }),
+    // every lattice counts into an int32 array: the square kernel's own arrays (if it has them) serve them all
+    countBuffer: square.countBuffer,
+    ownsCountBuffer: square.ownsCountBuffer,
     count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       const shape = grid.shape;
       if (shape === undefined || shape === 'square') {

@@ -129,9 +129,12 @@ export function evaluateChunk(context: ChunkContext, placements: Float64Array): 
     const simulatedCounts = buffers.simulatedCounts;
     for (let r = 0; r < sims; r++) {
       if (pool === null && !floatPatterns) {
-        // nothing after the observed statistics reads the grid's counts: the kept counts go over their start
-        context.simulated[r].count(evaluated.grid, context.cellSize, placement, scratch);
-        const { chi2, df } = dispersionChiSquare(compactKeptCounts(scratch, evaluated.kept), expectation.weights);
+        // into the pattern counter's own array when it has one (WebAssembly memory: counted in place, no copy), else
+        // the thread's: nothing after the observed statistics reads the grid's counts, so the kept counts go over
+        // their start
+        const into = context.simulated[r].countBuffer?.(scratch.length) ?? scratch;
+        context.simulated[r].count(evaluated.grid, context.cellSize, placement, into);
+        const { chi2, df } = dispersionChiSquare(compactKeptCounts(into, evaluated.kept), expectation.weights);
         result[simulatedValueOffset(count, sims, j, r)] = chi2 / df;
         result[simulatedFlagOffset(count, sims, j, r)] = isSignificant(chi2, df, context.alpha) ? 1 : 0;
         continue;

@@ -30,7 +30,7 @@
  */
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
 import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
-import type { CellCounter } from '../lattice.js';
+import { checkCountOutput, type CellCounter } from '../lattice.js';
 import { createHexFrame, roundHexInto } from './hex-frame.js';
 
 const BLOCK = 8192;
@@ -328,9 +328,7 @@ export function createHexCounter(xy: Float64Array, origin: Origin, inlineFromCel
     pointCount,
     count(grid: GridExtent, cellSize: number, placement: Placement, out: CountArray): void {
       if (grid.shape !== 'hex') throw new RangeError(`the hexagon counter was given a ${grid.shape ?? 'square'} grid`);
-      if (out.length < grid.nx * grid.ny) {
-        throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);
-      }
+      checkCountOutput(grid, out);
       exactFrame = createHexFrame(origin, cellSize, placement);
       const { cos, sin } = cosSinDegrees(placement.angle);
       const { sqrt3Side, threeSide, oneHalfSide } = exactFrame;

@@ -16,7 +16,7 @@
  */
 import type { CountArray, GridExtent, Origin, Placement } from '../../types.js';
 import { cosSinDegrees } from '../../geometry/grid-frame.js';
-import type { CellCounter } from '../lattice.js';
+import { checkCountOutput, type CellCounter } from '../lattice.js';
 
 /** Points per block of the fast pass; also the size of the buffer of points deferred to the exact pass. */
 export const BLOCK = 8192;
@@ -34,9 +34,7 @@ export function checkCountArguments(grid: GridExtent, cellSize: number, out: Cou
   if (!(cellSize > 0) || !Number.isFinite(cellSize)) {
     throw new RangeError(`cell size must be a positive finite number of metres, got ${cellSize}`);
   }
-  if (out.length < grid.nx * grid.ny) {
-    throw new RangeError(`count output holds ${out.length} cells, the grid has ${grid.nx} x ${grid.ny}`);
-  }
+  checkCountOutput(grid, out);
 }
 
 /** A counter over the flat points xy (x0, y0, x1, y1, ...), planar metres, against grid origin `origin`. */
