@@ -3,8 +3,9 @@
  * (workers/wasm/wasm-memory.ts): the same contract and the same float64 operations as square-counter.ts, two points
  * per step. Fast pass per block of BLOCK points, then the exact pass (division, floor) over the points it deferred,
  * both in WebAssembly. The counts go straight to `out` when it is this thread's array from countBuffer (in the memory:
- * the observed pattern's counts in a sweep), else to the thread's scratch region of the memory and are copied to `out`
- * (an int32 or float64 array: the copy converts; the simulated patterns' counts in a sweep).
+ * in a sweep, the observed pattern's counts, and the simulated patterns' without the stability surface), else to the
+ * thread's scratch region of the memory and are copied to `out` (an int32 or float64 array: the copy converts; in a
+ * sweep, the simulated patterns' float64 counts with the surface).
  * Measured on the 2-core test machine, 1e5 Morton-sorted points, 5 per cell, 64 rotated placements, one thread:
  * about 3.1 ns per point-placement against 4.1 (clustered) to 6.0 (uniform) for the JavaScript kernel.
  * A thread whose memory has no room left for its scratch region, or a runtime without WebAssembly SIMD, counts with
